@@ -1,0 +1,40 @@
+/**
+ * The `heatbook` command: dispatches to one module per subcommand.
+ * Exit codes: 0 success, 1 a fit or computation failed (with the reason), 2 bad usage or input.
+ */
+import type { CliIo } from "./io";
+import { defaultIo } from "./io";
+
+type Command = (argv: string[], io: CliIo) => Promise<number>;
+
+const COMMANDS: Record<string, () => Promise<{ run: Command }>> = {
+  fit: () => import("./commands/fit"),
+  regress: () => import("./commands/regress"),
+  derive: () => import("./commands/derive"),
+  model: () => import("./commands/model"),
+};
+
+const USAGE = `usage: heatbook <command> [options]
+
+commands:
+  fit FILE      fit a heat-capacity model to a delimited C(T) file
+  regress FILE  weighted least squares of any expression y = f(x; parameters)
+  derive        Θ_D, D(E_F), free-electron comparison from γ and β
+  model NAME    evaluate a registered heat-capacity model
+
+Run 'heatbook <command> --help' for the options of one command.`;
+
+export async function main(argv: string[], io: CliIo = defaultIo): Promise<number> {
+  const [name, ...rest] = argv;
+  if (!name || name === "--help" || name === "-h") {
+    io.out(USAGE);
+    return name ? 0 : 2;
+  }
+  const load = COMMANDS[name];
+  if (!load) {
+    io.err(`heatbook: unknown command ${JSON.stringify(name)}\n${USAGE}`);
+    return 2;
+  }
+  const mod = await load();
+  return mod.run(rest, io);
+}
