@@ -1,0 +1,19 @@
+import { NextResponse } from "next/server";
+import { route, jsonBody } from "@/lib/server/http";
+import { inGroup } from "@/lib/server/handler";
+import { inviteMember, listInvitations } from "@/lib/server/groups";
+
+export const dynamic = "force-dynamic";
+type Ctx = { params: Promise<{ slug: string }> };
+
+export const GET = route(async (req, { params }: Ctx) => {
+  const { db, member } = await inGroup(req, (await params).slug);
+  return NextResponse.json({ invitations: await listInvitations(db, member) });
+});
+
+export const POST = route(async (req, { params }: Ctx) => {
+  const { db, member } = await inGroup(req, (await params).slug);
+  const { token, invitation } = await inviteMember(db, member, await jsonBody(req));
+  const origin = new URL(req.url).origin;
+  return NextResponse.json({ invitation, token, link: `${origin}/invite/${token}` }, { status: 201 });
+});

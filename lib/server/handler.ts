@@ -1,0 +1,73 @@
+/**
+ * Shared steps of the app's route handlers: the signed-in user, the group membership from the
+ * route's slug, multipart file reading with a size cap, and the same-origin check on writes.
+ */
+import { getDb, type Db } from "./db/client";
+import { requireUser } from "./session";
+import { memberOf, type Member } from "./access";
+import { ForbiddenError, InputError } from "../engine/errors";
+import { MAX_UPLOAD_BYTES } from "./measurements";
+import type { UserInfo } from "./users";
+
+export interface GroupContext {
+  db: Db;
+  user: UserInfo;
+  member: Member;
+}
+
+/** Writes must come from our own pages (or a client without an Origin header, e.g. scripts). */
+export function assertSameOrigin(req: Request): void {
+  const origin = req.headers.get("origin");
+  if (!origin) return;
+  const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host");
+  let originHost: string;
+  try {
+    originHost = new URL(origin).host;
+  } catch {
+    throw new ForbiddenError("cross-site request refused");
+  }
+  if (originHost !== host) throw new ForbiddenError("cross-site request refused");
+}
+
+export async function signedIn(req: Request): Promise<{ db: Db; user: UserInfo }> {
+  if (req.method !== "GET" && req.method !== "HEAD") assertSameOrigin(req);
+  const user = await requireUser();
+  return { db: getDb(), user };
+}
+
+export async function inGroup(req: Request, slug: string): Promise<GroupContext> {
+  const { db, user } = await signedIn(req);
+  const member = await memberOf(db, user.id, slug);
+  return { db, user, member };
+}
+
+export interface UploadedForm {
+  fileName: string;
+  bytes: Uint8Array;
+  fields: Record<string, unknown>;
+}
+
+/** Read a multipart form with a `file` part and a JSON `options` part. */
+export async function readUpload(req: Request): Promise<UploadedForm> {
+  const declared = Number(req.headers.get("content-length") ?? 0);
+  if (declared > MAX_UPLOAD_BYTES + 64 * 1024) throw new InputError(`the upload is larger than ${MAX_UPLOAD_BYTES / 1024 / 1024} MiB`, { field: "file" });
+  let form: FormData;
+  try {
+    form = await req.formData();
+  } catch {
+    throw new InputError("expected a multipart form with a file", { field: "file" });
+  }
+  const file = form.get("file");
+  if (!file || typeof file === "string") throw new InputError("no file was uploaded", { field: "file" });
+  const bytes = new Uint8Array(await file.arrayBuffer());
+  const raw = form.get("options");
+  let fields: Record<string, unknown> = {};
+  if (typeof raw === "string" && raw) {
+    try {
+      fields = JSON.parse(raw) as Record<string, unknown>;
+    } catch {
+      throw new InputError("options are not valid JSON", { field: "options" });
+    }
+  }
+  return { fileName: file.name || "upload.txt", bytes, fields };
+}

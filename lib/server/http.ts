@@ -1,0 +1,50 @@
+/**
+ * Route-handler plumbing: every handler runs inside `route(...)`, which maps domain errors to
+ * HTTP statuses with a JSON body `{ error, field? }` and logs anything unexpected before a 500.
+ * Order inside a handler: parse → authorise → call the engine → persist → respond.
+ */
+import { NextResponse } from "next/server";
+import { ConflictError, ForbiddenError, InputError, NotFoundError, UnauthenticatedError } from "../engine/errors";
+
+export interface ErrorBody {
+  error: string;
+  field?: string;
+  current?: unknown;
+}
+
+export function errorResponse(err: unknown): NextResponse<ErrorBody> {
+  if (err instanceof InputError) return NextResponse.json({ error: err.message, ...(err.field ? { field: err.field } : {}) }, { status: 422 });
+  if (err instanceof UnauthenticatedError) return NextResponse.json({ error: err.message }, { status: 401 });
+  if (err instanceof ForbiddenError) return NextResponse.json({ error: err.message }, { status: 403 });
+  if (err instanceof NotFoundError) return NextResponse.json({ error: err.message }, { status: 404 });
+  if (err instanceof ConflictError) return NextResponse.json({ error: err.message, ...(err.current !== undefined ? { current: err.current } : {}) }, { status: 409 });
+  if (isDatabaseDown(err)) return NextResponse.json({ error: "the database is not reachable right now; try again in a moment" }, { status: 503 });
+  console.error("unexpected error in route handler", err);
+  return NextResponse.json({ error: "internal error" }, { status: 500 });
+}
+
+function isDatabaseDown(err: unknown): boolean {
+  const text = String((err as { code?: string; message?: string })?.code ?? "") + " " + String((err as Error)?.message ?? "");
+  return /ECONNREFUSED|ECONNRESET|57P01|57P03|terminating connection|Connection terminated|DatabaseNotReachable/i.test(text);
+}
+
+type Handler<C> = (req: Request, ctx: C) => Promise<Response>;
+
+export function route<C>(handler: Handler<C>): Handler<C> {
+  return async (req, ctx) => {
+    try {
+      return await handler(req, ctx);
+    } catch (err) {
+      return errorResponse(err);
+    }
+  };
+}
+
+/** Read a JSON body or throw InputError. */
+export async function jsonBody(req: Request): Promise<unknown> {
+  try {
+    return await req.json();
+  } catch {
+    throw new InputError("the request body is not valid JSON");
+  }
+}
