@@ -13,6 +13,7 @@ import { authorise, type Member } from "./access";
 import { parseInput } from "./validate";
 import { sha256Hex } from "./hash";
 import { uuidOrNone } from "./samples";
+import { packFloat64, packInt32, unpackFloat64, unpackInt32 } from "./packing";
 
 export const MAX_UPLOAD_BYTES = 20 * 1024 * 1024;
 const PREVIEW_ROWS = 15;
@@ -135,9 +136,9 @@ export async function importMeasurement(db: Db, member: Member, sampleId: string
   const basis = heatCapacityBasis(req.units.heatCapacity);
   const temperatureK = toSI(points.temperature, req.units.temperature, "temperature");
   const heatCapacity = toSI(points.heatCapacity, req.units.heatCapacity, "heatCapacity");
-  const sigma = points.sigma ? toSI(points.sigma, req.units.heatCapacity, "heatCapacity") : [];
+  const sigma: number[] = points.sigma ? toSI(points.sigma, req.units.heatCapacity, "heatCapacity") : [];
   if (points.field && !req.units.field) throw new InputError("choose the unit of the field column", { field: "units.field" });
-  const fieldPointsT = points.field ? toSI(points.field, req.units.field!, "field") : [];
+  const fieldPointsT: number[] = points.field ? toSI(points.field, req.units.field!, "field") : [];
   let tMin = Infinity;
   let tMax = -Infinity;
   for (const t of temperatureK) {
@@ -151,7 +152,8 @@ export async function importMeasurement(db: Db, member: Member, sampleId: string
       data: {
         groupId: member.group.id, sampleId: sample.id, fileId: file.id, kind: req.kind, label: req.label, fieldT: req.fieldT ?? 0,
         notes: req.notes ?? "", columnMapping: req.mapping, units: req.units, basis, pointCount: temperatureK.length, tMinK: tMin, tMaxK: tMax,
-        temperatureK, heatCapacity, sigma, fieldPointsT, sourceLines: points.lineNumbers, createdById: member.userId,
+        temperatureK: packFloat64(temperatureK), heatCapacity: packFloat64(heatCapacity), sigma: sigma.length ? packFloat64(sigma) : null,
+        fieldPointsT: fieldPointsT.length ? packFloat64(fieldPointsT) : null, sourceLines: packInt32(points.lineNumbers), createdById: member.userId,
       },
     });
     await recordAudit(tx, {
@@ -194,8 +196,8 @@ export async function getMeasurement(db: Db, member: Member, id: string): Promis
   if (!m) throw new NotFoundError("measurement");
   return {
     ...toInfo(m), fileName: m.file.fileName, sha256: m.file.sha256, sizeBytes: m.file.sizeBytes,
-    temperatureK: m.temperatureK, heatCapacity: m.heatCapacity, sigma: m.sigma.length ? m.sigma : null,
-    fieldPointsT: m.fieldPointsT.length ? m.fieldPointsT : null, sourceLines: m.sourceLines,
+    temperatureK: unpackFloat64(m.temperatureK), heatCapacity: unpackFloat64(m.heatCapacity), sigma: m.sigma ? unpackFloat64(m.sigma) : null,
+    fieldPointsT: m.fieldPointsT ? unpackFloat64(m.fieldPointsT) : null, sourceLines: unpackInt32(m.sourceLines),
   };
 }
 

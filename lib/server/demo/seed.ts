@@ -1,0 +1,101 @@
+/**
+ * The demo scenario, seeded once into an empty database. INVENTED: two groups, one account
+ * per role, a Nb₁₋ₓMoₓ composition series of six samples with synthetic curves (see
+ * curves.ts), an addenda curve, one superconducting sample measured in zero field and in
+ * 2 T, and a copper reference in the second group. Every record says it is demo data.
+ */
+import type { Db } from "../db/client";
+import { hashPassword } from "../auth/password";
+import { createGroup } from "../groups";
+import { memberOf } from "../access";
+import { createSample } from "../samples";
+import { importMeasurement } from "../measurements";
+import { addendaHeatCapacity, demoFile, molarHeatCapacity, temperatureGrid, type CurveSpec } from "./curves";
+
+export const DEMO_PASSWORD = "heatbook-demo";
+
+export const DEMO_ACCOUNTS = [
+  { email: "olga.owner@demo.heatbook", name: "Olga Owner", role: "owner" },
+  { email: "arun.analyst@demo.heatbook", name: "Arun Analyst", role: "analyst" },
+  { email: "rosa.reviewer@demo.heatbook", name: "Rosa Reviewer", role: "reviewer" },
+  { email: "viktor.viewer@demo.heatbook", name: "Viktor Viewer", role: "viewer" },
+  { email: "sven.second@demo.heatbook", name: "Sven Second", role: "owner of the second group" },
+] as const;
+
+const SERIES: { x: number; spec: CurveSpec; massMg: number; density: number }[] = [
+  { x: 0, massMg: 21.4, density: 8.57, spec: { gammaMJ: 7.7, thetaDK: 276, deltaMJ: 2e-6, tcK: 9.1, residualGammaFraction: 0.03, tcSpreadK: 0.08 } },
+  { x: 0.2, massMg: 18.9, density: 8.92, spec: { gammaMJ: 5.9, thetaDK: 298, deltaMJ: 1.5e-6 } },
+  { x: 0.4, massMg: 24.1, density: 9.26, spec: { gammaMJ: 4.1, thetaDK: 327, deltaMJ: 1.2e-6 } },
+  { x: 0.6, massMg: 19.7, density: 9.55, spec: { gammaMJ: 2.8, thetaDK: 362, deltaMJ: 1e-6 } },
+  { x: 0.8, massMg: 22.8, density: 9.86, spec: { gammaMJ: 2.1, thetaDK: 404, deltaMJ: 8e-7 } },
+  { x: 1, massMg: 26.3, density: 10.2, spec: { gammaMJ: 1.9, thetaDK: 448, deltaMJ: 6e-7, nuclearAMJ: 0.004 } },
+];
+
+function formulaFor(x: number): string {
+  if (x === 0) return "Nb";
+  if (x === 1) return "Mo";
+  return `Nb${+(1 - x).toFixed(2)}Mo${+x.toFixed(2)}`;
+}
+
+const UNITS = { temperature: "K", heatCapacity: "µJ/K" };
+const MAPPING = { temperature: 0, heatCapacity: 1, sigma: 2 };
+
+/** Seed the scenario unless its first account exists. Returns whether it seeded. */
+export async function seedDemo(db: Db): Promise<boolean> {
+  if (await db.user.findUnique({ where: { email: DEMO_ACCOUNTS[0].email } })) return false;
+  const passwordHash = await hashPassword(DEMO_PASSWORD);
+  const users = [];
+  for (const a of DEMO_ACCOUNTS) users.push(await db.user.create({ data: { email: a.email, name: a.name, passwordHash } }));
+  const [owner, analyst, reviewer, viewer, second] = users as [typeof users[0], typeof users[0], typeof users[0], typeof users[0], typeof users[0]];
+
+  const lab = await createGroup(db, owner.id, { name: "Cryogenic Calorimetry Lab (demo)" });
+  await db.membership.createMany({
+    data: [
+      { userId: analyst.id, groupId: lab.id, role: "analyst" },
+      { userId: reviewer.id, groupId: lab.id, role: "reviewer" },
+      { userId: viewer.id, groupId: lab.id, role: "viewer" },
+    ],
+  });
+  const labMember = await memberOf(db, analyst.id, lab.slug);
+  const addendaSample = await createSample(db, labMember, {
+    label: "Platform P-3 addenda (demo)", formula: "Cu", notes: "Empty platform with grease, measured before mounting. INVENTED DEMO DATA.", tags: ["demo", "addenda"],
+  });
+  const addendaTemps = temperatureGrid(0.45, 22, 90);
+  const addenda = demoFile("platform-P3-addenda.csv", "Platform P-3 with grease, empty", addendaTemps, addendaHeatCapacity, 101, 0.006);
+  await importMeasurement(db, labMember, addendaSample.id, addenda.fileName, new TextEncoder().encode(addenda.text), {
+    kind: "addenda", label: "P-3 addenda, zero field", mapping: MAPPING, units: UNITS, notes: "INVENTED DEMO DATA",
+  });
+
+  for (const [i, s] of SERIES.entries()) {
+    const formula = formulaFor(s.x);
+    const sample = await createSample(db, labMember, {
+      label: `NM-${String(i + 1).padStart(2, "0")} ${formula} (demo)`, formula, massMg: s.massMg, densityGPerCm3: s.density,
+      compositionVariable: "x", compositionValue: s.x, seriesLabel: "Nb1-xMox (demo)", valences: s.x === 0 ? { Nb: 5 } : s.x === 1 ? { Mo: 6 } : { Nb: 5, Mo: 6 },
+      notes: "Arc-melted button, annealed (invented provenance). INVENTED DEMO DATA.", tags: ["demo", "Nb-Mo"],
+    });
+    const molarMass = sample.molarMassGPerMol;
+    const moles = s.massMg * 1e-3 / molarMass;
+    const tMin = s.spec.nuclearAMJ ? 0.5 : 1.8;
+    const temps = temperatureGrid(tMin, 20, s.spec.tcK ? 160 : 120);
+    const file = demoFile(`NM-${i + 1}-zero-field.csv`, `${formula}, zero field`, temps, (T) => moles * molarHeatCapacity(s.spec, T) + addendaHeatCapacity(T), 200 + i);
+    await importMeasurement(db, labMember, sample.id, file.fileName, new TextEncoder().encode(file.text), {
+      kind: "sample", label: `${formula}, 0 T`, fieldT: 0, mapping: MAPPING, units: UNITS, notes: "Total heat capacity incl. addenda. INVENTED DEMO DATA.",
+    });
+    if (s.spec.tcK) {
+      const normal = demoFile(`NM-${i + 1}-2T.csv`, `${formula}, 2 T (above the upper critical field)`, temperatureGrid(1.8, 20, 100), (T) => moles * molarHeatCapacity(s.spec, T, true) + addendaHeatCapacity(T), 300 + i);
+      await importMeasurement(db, labMember, sample.id, normal.fileName, new TextEncoder().encode(normal.text), {
+        kind: "sample", label: `${formula}, 2 T normal state`, fieldT: 2, mapping: MAPPING, units: UNITS, notes: "Normal state in a field above H_c2. INVENTED DEMO DATA.",
+      });
+    }
+  }
+
+  const unit = await createGroup(db, second.id, { name: "Thermal Properties Unit (demo)" });
+  const unitMember = await memberOf(db, second.id, unit.slug);
+  const cu = await createSample(db, unitMember, { label: "Cu reference (demo)", formula: "Cu", massMg: 45.2, densityGPerCm3: 8.96, valences: { Cu: 1 }, notes: "INVENTED DEMO DATA.", tags: ["demo"] });
+  const cuMoles = 45.2e-3 / cu.molarMassGPerMol;
+  const cuFile = demoFile("cu-reference.csv", "Cu reference, zero field", temperatureGrid(1.8, 15, 80), (T) => cuMoles * molarHeatCapacity({ gammaMJ: 0.69, thetaDK: 343 }, T), 400);
+  await importMeasurement(db, unitMember, cu.id, cuFile.fileName, new TextEncoder().encode(cuFile.text), {
+    kind: "sample", label: "Cu, 0 T (addenda subtracted)", mapping: MAPPING, units: UNITS, notes: "INVENTED DEMO DATA.",
+  });
+  return true;
+}

@@ -1,0 +1,98 @@
+/**
+ * `npm start`: the whole app with one command. Without DATABASE_URL it starts the embedded
+ * PostgreSQL (data under .data/pg), applies migrations, seeds the invented demo scenario once,
+ * builds the app if the build is missing or older than the sources, and serves it on
+ * http://localhost:3000. Ctrl-C stops the server and the database cleanly.
+ *
+ * Options: --port N (or PORT), --data-dir DIR (default .data), --fresh (wipe DIR first),
+ *          --no-seed, --dev (next dev instead of a production build).
+ */
+import { spawn, spawnSync, type ChildProcess } from "node:child_process";
+import { existsSync, mkdirSync, readFileSync, writeFileSync, statSync, readdirSync, rmSync } from "node:fs";
+import { join } from "node:path";
+import { randomBytes } from "node:crypto";
+import { startEmbeddedDatabase, type EmbeddedDatabase } from "../lib/server/db/embedded";
+import { migrate } from "../lib/server/db/migrate";
+
+function flag(name: string): boolean {
+  return process.argv.includes(`--${name}`);
+}
+function option(name: string): string | undefined {
+  const i = process.argv.indexOf(`--${name}`);
+  return i >= 0 ? process.argv[i + 1] : undefined;
+}
+
+const port = Number(option("port") ?? process.env.PORT ?? 3000);
+const dataDir = option("data-dir") ?? ".data";
+const dev = flag("dev");
+process.env.NEXT_TELEMETRY_DISABLED = "1";
+
+function secret(): string {
+  if (process.env.NEXTAUTH_SECRET) return process.env.NEXTAUTH_SECRET;
+  const file = join(dataDir, "nextauth-secret");
+  if (!existsSync(file)) writeFileSync(file, randomBytes(32).toString("base64url"), { mode: 0o600 });
+  return readFileSync(file, "utf8").trim();
+}
+
+function newestMtime(dir: string): number {
+  let newest = 0;
+  for (const entry of readdirSync(dir, { withFileTypes: true })) {
+    if (entry.name === "generated" || entry.name.startsWith(".")) continue;
+    const path = join(dir, entry.name);
+    newest = Math.max(newest, entry.isDirectory() ? newestMtime(path) : statSync(path).mtimeMs);
+  }
+  return newest;
+}
+
+function buildIfStale(): void {
+  const marker = join(".next", "BUILD_ID");
+  const sources = Math.max(newestMtime("app"), newestMtime("lib"), statSync("next.config.js").mtimeMs);
+  if (existsSync(marker) && statSync(marker).mtimeMs > sources) return;
+  console.log("heatbook: building the app (first start, or sources changed) …");
+  const r = spawnSync(process.execPath, ["node_modules/next/dist/bin/next", "build"], { stdio: "inherit", env: process.env });
+  if (r.status !== 0) throw new Error("next build failed");
+}
+
+async function main(): Promise<void> {
+  if (flag("fresh")) rmSync(dataDir, { recursive: true, force: true });
+  mkdirSync(dataDir, { recursive: true });
+  let embedded: EmbeddedDatabase | undefined;
+  if (!process.env.DATABASE_URL) {
+    embedded = await startEmbeddedDatabase({ dir: join(dataDir, "pg"), port: process.env.HEATBOOK_PG_PORT ? Number(process.env.HEATBOOK_PG_PORT) : undefined });
+    process.env.DATABASE_URL = embedded.url;
+    console.log(`heatbook: embedded PostgreSQL on port ${embedded.port} (data in ${embedded.dir})`);
+  }
+  const applied = await migrate(process.env.DATABASE_URL!);
+  if (applied.length) console.log(`heatbook: applied migrations ${applied.join(", ")}`);
+  if (!flag("no-seed")) {
+    const { seedDemo } = await import("../lib/server/demo/seed");
+    const { createDb } = await import("../lib/server/db/client");
+    const db = createDb(process.env.DATABASE_URL!, 4);
+    const seeded = await seedDemo(db);
+    console.log(seeded ? "heatbook: demo data seeded (invented data, see README)" : "heatbook: demo data already present");
+    await db.$disconnect();
+  }
+  process.env.NEXTAUTH_SECRET = secret();
+  process.env.NEXTAUTH_URL ??= `http://localhost:${port}`;
+  if (!dev) buildIfStale();
+  const args = ["node_modules/next/dist/bin/next", dev ? "dev" : "start", "-H", "127.0.0.1", "-p", String(port)];
+  const child: ChildProcess = spawn(process.execPath, args, { stdio: "inherit", env: process.env });
+  console.log(`heatbook: serving on http://localhost:${port}`);
+  let stopping = false;
+  const stop = async (code: number) => {
+    if (stopping) return;
+    stopping = true;
+    if (child.exitCode === null) child.kill("SIGTERM");
+    await new Promise((r) => (child.exitCode === null ? child.once("exit", r) : r(null)));
+    if (embedded) await embedded.stop();
+    process.exit(code);
+  };
+  process.on("SIGINT", () => void stop(0));
+  process.on("SIGTERM", () => void stop(0));
+  child.on("exit", (code) => void stop(code ?? 1));
+}
+
+main().catch((err) => {
+  console.error(`heatbook: ${(err as Error).message}`);
+  process.exit(1);
+});
