@@ -1,0 +1,6 @@
+/** Fitting: Levenberg–Marquardt, the shared fit core, general regression and the result type. */
+export { levenbergMarquardt } from "./lm";
+export { weightedJacobian, weightedResiduals, type LeastSquaresProblem, type LevenbergMarquardtOptions, type LevenbergMarquardtResult } from "./problem";
+export { fitCore, type ModelCore, type CoreOptions } from "./core";
+export { fitCurve, expressionCore, checkSeries, type FitCurveOptions } from "./curve";
+export { buildFitResult, type FitResult, type FitParameter, type NamedMatrix } from "./result";

@@ -1,0 +1,234 @@
+/**
+ * Levenberg–Marquardt with Marquardt's scaling: each step solves
+ * min ‖r − JΔ‖² + λ‖DΔ‖², D_j = max over iterations of ‖J_j‖ (so λD² is Marquardt's
+ * λ·diag(JᵀJ), kept monotone as in Moré's MINPACK), by QR of J and then QR of [R; √λ D]
+ * — no normal equations. λ starts at 1e-3, ÷10 after a successful step, ×10 after a
+ * failed one. Bounds: projection onto the box, with parameters on a bound whose gradient
+ * points outward held for that iteration (an active set).
+ * Converged only when, after an accepted step, the relative step or the relative χ²
+ * change (actual and predicted) is below tolerance, or when the scaled gradient vanishes;
+ * anything else (evaluation limit, λ overflow, non-finite model) is converged: false with
+ * a message. References: Marquardt, J. SIAM 11 (1963) 431; Moré, Lecture Notes in
+ * Mathematics 630 (1978) 105.
+ */
+import { applyQt, qrFactor, solveR } from "../linalg/qr";
+import {
+  weightedJacobian,
+  weightedResiduals,
+  type LeastSquaresProblem,
+  type LevenbergMarquardtOptions,
+  type LevenbergMarquardtResult,
+} from "./problem";
+
+const LAMBDA_MAX = 1e16;
+/** Undamped step accepted as converged when χ² has stopped decreasing: ≈ 7 correct digits. */
+const GN_ROUNDING_LEVEL = 1e-7;
+
+function clampInto(problem: LeastSquaresProblem, p: Float64Array): void {
+  const { lower, upper } = problem;
+  for (let j = 0; j < p.length; j++) {
+    if (lower && p[j] < lower[j]) p[j] = lower[j];
+    if (upper && p[j] > upper[j]) p[j] = upper[j];
+  }
+}
+
+function onBounds(problem: LeastSquaresProblem, p: Float64Array): boolean[] {
+  return Array.from(p, (v, j) => (problem.lower !== undefined && v === problem.lower[j]) || (problem.upper !== undefined && v === problem.upper[j]));
+}
+
+/** Indices of parameters free to move this iteration (not pushed against a bound). */
+function activeColumns(problem: LeastSquaresProblem, p: Float64Array, g: Float64Array): number[] {
+  const cols: number[] = [];
+  for (let j = 0; j < p.length; j++) {
+    const atLower = problem.lower !== undefined && p[j] <= problem.lower[j] && g[j] <= 0;
+    const atUpper = problem.upper !== undefined && p[j] >= problem.upper[j] && g[j] >= 0;
+    if (!atLower && !atUpper) cols.push(j);
+  }
+  return cols;
+}
+
+/** Solve the damped subproblem from R (k×k of J restricted), c = (Qᵀr)[0..k). */
+function dampedStep(rk: Float64Array, mk: number, k: number, c: Float64Array, d: Float64Array, lambda: number): Float64Array {
+  const a = new Float64Array(2 * k * k);
+  for (let j = 0; j < k; j++) {
+    for (let i = 0; i <= j; i++) a[j * 2 * k + i] = rk[j * mk + i];
+    a[j * 2 * k + k + j] = Math.sqrt(lambda) * d[j];
+  }
+  const f = qrFactor(a, 2 * k, k);
+  const rhs = new Float64Array(2 * k);
+  rhs.set(c.subarray(0, k));
+  applyQt(f, rhs);
+  solveR(f, rhs);
+  return rhs.subarray(0, k);
+}
+
+interface State {
+  p: Float64Array;
+  f: Float64Array;
+  r: Float64Array;
+  chi: number;
+  evaluations: number;
+}
+
+/** Minimise the weighted χ² of `problem` from `p0`. Never throws for a poor fit. */
+export function levenbergMarquardt(problem: LeastSquaresProblem, p0: ArrayLike<number>, options: LevenbergMarquardtOptions = {}): LevenbergMarquardtResult {
+  const { m, n } = problem;
+  const maxEval = options.maxEvaluations ?? 2000;
+  const xtol = options.xtol ?? 1e-10;
+  const ftol = options.ftol ?? 1e-14;
+  const gtol = options.gtol ?? 1e-12;
+  const s: State = { p: Float64Array.from(p0), f: new Float64Array(m), r: new Float64Array(m), chi: NaN, evaluations: 0 };
+  clampInto(problem, s.p);
+  problem.model(s.p, s.f);
+  s.evaluations++;
+  s.chi = weightedResiduals(problem, s.f, s.r);
+  const J = new Float64Array(m * n);
+  if (!Number.isFinite(s.chi)) return done(problem, s, J, false, "model is not finite at the starting values", 0);
+  const D = new Float64Array(n);
+  let lambda = 1e-3;
+  for (let iter = 1; ; iter++) {
+    weightedJacobian(problem, s.p, J);
+    if (!J.every(Number.isFinite)) return done(problem, s, J, false, "derivatives are not finite", iter);
+    if (s.chi === 0) return done(problem, s, J, true, "exact fit (χ² = 0)", iter);
+    const g = new Float64Array(n);
+    let gmax = 0;
+    const rnorm = Math.sqrt(s.chi);
+    for (let j = 0; j < n; j++) {
+      let sj = 0;
+      let nj = 0;
+      for (let i = 0; i < m; i++) {
+        sj += J[j * m + i] * s.r[i];
+        nj += J[j * m + i] ** 2;
+      }
+      g[j] = sj;
+      D[j] = Math.max(D[j], Math.sqrt(nj));
+      if (D[j] === 0) D[j] = 1;
+      if (nj > 0) gmax = Math.max(gmax, Math.abs(sj) / (Math.sqrt(nj) * rnorm));
+    }
+    const cols = activeColumns(problem, s.p, g);
+    const gFree = cols.length ? Math.max(...cols.map((j) => Math.abs(g[j]) / (D[j] * rnorm))) : 0;
+    if (cols.length === 0 || gFree <= gtol || gmax <= gtol) return done(problem, s, J, true, "gradient test satisfied", iter, D);
+    const outcome = iterate(problem, s, J, D, cols, lambda, { xtol, ftol, maxEval });
+    lambda = outcome.lambda;
+    if (outcome.stop) return done(problem, s, J, outcome.converged, outcome.message, iter, D);
+  }
+}
+
+interface StepOutcome {
+  lambda: number;
+  stop: boolean;
+  converged: boolean;
+  message: string;
+}
+
+function iterate(
+  problem: LeastSquaresProblem,
+  s: State,
+  J: Float64Array,
+  D: Float64Array,
+  cols: number[],
+  lambda0: number,
+  tol: { xtol: number; ftol: number; maxEval: number },
+): StepOutcome {
+  const { m } = problem;
+  const k = cols.length;
+  const jk = new Float64Array(m * k);
+  cols.forEach((j, c) => jk.set(J.subarray(j * m, (j + 1) * m), c * m));
+  const f = qrFactor(jk, m, k);
+  const qtr = new Float64Array(s.r);
+  applyQt(f, qtr);
+  const rk = new Float64Array(m * k);
+  for (let j = 0; j < k; j++) {
+    for (let i = 0; i < j; i++) rk[j * m + i] = f.qr[j * m + i];
+    rk[j * m + j] = f.rdiag[j];
+  }
+  const dk = Float64Array.from(cols, (j) => D[j]);
+  let tail = 0;
+  for (let i = k; i < m; i++) tail += qtr[i] * qtr[i];
+  const gn = gaussNewtonRelativeStep(f.rdiag, rk, m, k, qtr, cols, D, s.p);
+  if (gn <= tol.xtol) return { lambda: lambda0, stop: true, converged: true, message: "Gauss–Newton step below tolerance" };
+  let lambda = lambda0;
+  const pNew = new Float64Array(s.p.length);
+  const fNew = new Float64Array(m);
+  const rNew = new Float64Array(m);
+  for (;;) {
+    if (s.evaluations >= tol.maxEval) return { lambda, stop: true, converged: false, message: `no convergence within ${tol.maxEval} evaluations` };
+    const step = dampedStep(rk, m, k, qtr, dk, lambda);
+    pNew.set(s.p);
+    cols.forEach((j, c) => (pNew[j] += step[c]));
+    clampInto(problem, pNew);
+    // predicted χ² after the projected step: ‖c1 − RΔ‖² + ‖c2‖²
+    let pred = tail;
+    let dxNorm = 0;
+    let xNorm = 0;
+    for (let i = 0; i < k; i++) {
+      let v = qtr[i];
+      for (let c = i; c < k; c++) v -= rk[c * m + i] * (pNew[cols[c]] - s.p[cols[c]]);
+      pred += v * v;
+    }
+    cols.forEach((j) => {
+      dxNorm += (D[j] * (pNew[j] - s.p[j])) ** 2;
+      xNorm += (D[j] * s.p[j]) ** 2;
+    });
+    problem.model(pNew, fNew);
+    s.evaluations++;
+    const chiNew = weightedResiduals(problem, fNew, rNew);
+    const predicted = s.chi - pred;
+    if (Number.isFinite(chiNew) && chiNew < s.chi && predicted > 0) {
+      const actualRel = (s.chi - chiNew) / s.chi;
+      const predRel = predicted / s.chi;
+      s.p.set(pNew);
+      s.f.set(fNew);
+      s.r.set(rNew);
+      s.chi = chiNew;
+      if (Math.sqrt(dxNorm) <= tol.xtol * (Math.sqrt(xNorm) + tol.xtol)) return { lambda, stop: true, converged: true, message: "relative step below tolerance" };
+      if (actualRel <= tol.ftol && predRel <= tol.ftol) return { lambda, stop: true, converged: true, message: "relative χ² change below tolerance" };
+      return { lambda: Math.max(lambda / 10, 1e-12), stop: false, converged: false, message: "" };
+    }
+    lambda *= 10;
+    if (lambda > LAMBDA_MAX) {
+      // χ² cannot go lower in floating point; that is a minimum only if the undamped step is tiny
+      if (gn <= GN_ROUNDING_LEVEL) return { lambda: lambda0, stop: true, converged: true, message: `χ² cannot be reduced further at rounding level (Gauss–Newton step ${gn.toExponential(1)} relative)` };
+      return { lambda, stop: true, converged: false, message: "no step reduces χ² (damping overflow): not at a verified minimum" };
+    }
+  }
+}
+
+/** ‖DΔ_GN‖ / (‖Dp‖ + tiny) for the undamped step, or Infinity when R is singular. */
+function gaussNewtonRelativeStep(rdiag: Float64Array, rk: Float64Array, m: number, k: number, qtr: Float64Array, cols: number[], D: Float64Array, p: Float64Array): number {
+  const step = new Float64Array(k);
+  for (let i = k - 1; i >= 0; i--) {
+    if (rdiag[i] === 0) return Infinity;
+    let v = qtr[i];
+    for (let c = i + 1; c < k; c++) v -= rk[c * m + i] * step[c];
+    step[i] = v / rdiag[i];
+  }
+  let dx = 0;
+  let x = 0;
+  cols.forEach((j, c) => {
+    dx += (D[j] * step[c]) ** 2;
+    x += (D[j] * p[j]) ** 2;
+  });
+  return Math.sqrt(dx) / (Math.sqrt(x) + 1e-300);
+}
+
+/** A column whose norm fell below 1e-10 of its largest value means a parameter stopped mattering (plateau). */
+function deadColumn(J: Float64Array, m: number, D: Float64Array): number {
+  for (let j = 0; j < D.length; j++) {
+    let nj = 0;
+    for (let i = 0; i < m; i++) nj += J[j * m + i] ** 2;
+    if (Math.sqrt(nj) <= 1e-10 * D[j]) return j;
+  }
+  return -1;
+}
+
+function done(problem: LeastSquaresProblem, s: State, J: Float64Array, converged: boolean, message: string, iterations: number, D?: Float64Array): LevenbergMarquardtResult {
+  // the Jacobian at the final point is refreshed for the covariance
+  weightedJacobian(problem, s.p, J);
+  const dead = converged && D ? deadColumn(J, problem.m, D) : -1;
+  if (dead >= 0) {
+    converged = false;
+    message = `parameter ${dead + 1} no longer affects the model (χ² is flat along it): stalled on a plateau, not a verified minimum`;
+  }
+  return { p: s.p, converged, message, evaluations: s.evaluations, iterations, chiSquare: s.chi, residuals: s.r, jacobian: J, atBound: onBounds(problem, s.p) };
+}
