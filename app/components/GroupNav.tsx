@@ -1,0 +1,75 @@
+"use client";
+/**
+ * Section links (Home, Samples, Members) for the current group and the group switcher.
+ * The current group comes from the path (/g/<slug>/...); elsewhere the links lead to the
+ * first group. Switching keeps the section (samples of one group → samples of the other).
+ */
+import Link from "next/link";
+import { usePathname, useRouter } from "next/navigation";
+import { groupPaths, groupSlugOf } from "@/app/_lib/paths";
+
+export interface NavGroup {
+  slug: string;
+  name: string;
+  role: string;
+}
+
+function section(pathname: string): "home" | "samples" | "members" | null {
+  if (/^\/g\/[^/]+\/?$/.test(pathname)) return "home";
+  if (/^\/g\/[^/]+\/(samples|measurements)/.test(pathname)) return "samples";
+  if (/^\/g\/[^/]+\/members/.test(pathname)) return "members";
+  return null;
+}
+
+export function GroupNav({ groups }: { groups: NavGroup[] }) {
+  const pathname = usePathname() ?? "/";
+  const router = useRouter();
+  const current = groupSlugOf(pathname);
+  const active = groups.find((g) => g.slug === current) ?? groups[0] ?? null;
+  const where = section(pathname);
+  if (!active) {
+    return (
+      <>
+        <nav className="mainnav" aria-label="Main">
+          <Link href="/groups" aria-current={pathname === "/groups" ? "page" : undefined}>My groups</Link>
+        </nav>
+        <span className="topbar-spacer" />
+      </>
+    );
+  }
+  const p = groupPaths(active.slug);
+  const here = (s: "home" | "samples" | "members") => (current === active.slug && where === s ? "page" : undefined);
+  return (
+    <>
+      <nav className="mainnav" aria-label="Main">
+        <Link href={p.home} aria-current={here("home")}>Home</Link>
+        <Link href={p.samples} aria-current={here("samples")}>Samples</Link>
+        <Link href={p.members} aria-current={here("members")}>Members</Link>
+      </nav>
+      <span className="topbar-spacer" />
+      <div className="switcher">
+        <label htmlFor="group-switcher">Group</label>
+        <select
+          id="group-switcher"
+          data-testid="group-switcher"
+          value={current && groups.some((g) => g.slug === current) ? current : ""}
+          onChange={(e) => {
+            const slug = e.target.value;
+            if (!slug) return;
+            if (slug === "__all") return router.push("/groups");
+            const next = groupPaths(slug);
+            router.push(where === "samples" ? next.samples : where === "members" ? next.members : next.home);
+          }}
+        >
+          {!(current && groups.some((g) => g.slug === current)) && <option value="">— choose —</option>}
+          {groups.map((g) => (
+            <option key={g.slug} value={g.slug}>
+              {g.name} ({g.role})
+            </option>
+          ))}
+          <option value="__all">All my groups…</option>
+        </select>
+      </div>
+    </>
+  );
+}
