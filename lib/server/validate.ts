@@ -7,5 +7,5 @@ export function parseInput<S extends z.ZodType>(schema: S, input: unknown): z.in
   if (parsed.success) return parsed.data;
   const issue = parsed.error.issues[0]!;
   const field = issue.path.map(String).join(".");
-  throw new InputError(field ? `${field}: ${issue.message}` : issue.message, field ? { field } : undefined);
+  throw new InputError(issue.message, field ? { field } : undefined);
 }

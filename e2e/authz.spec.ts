@@ -1,0 +1,135 @@
+/**
+ * Authorization walk: every data route, called as a member of another group (gets 404 and no
+ * data) and as a viewer (reads work, every write is refused with 403). The list of routes is
+ * checked against the route files on disk, so a new route without an entry here fails the test.
+ */
+import { test, expect, request as newRequest, type APIRequestContext } from "@playwright/test";
+import { readdirSync, readFileSync, statSync } from "node:fs";
+import { join } from "node:path";
+import { apiSignIn, DEMO } from "./helpers";
+
+interface RouteCase { method: "GET" | "POST" | "PATCH" | "DELETE"; path: string; body?: unknown; multipart?: boolean }
+
+/** Routes that are not group data: sign-in machinery, sign-up, the caller's own group list and creation, invitation acceptance by token. */
+const NOT_GROUP_DATA = new Set(["/api/auth/[...nextauth]", "/api/signup", "/api/groups", "/api/invitations/[token]/accept"]);
+
+function routeFiles(dir: string, prefix = ""): { route: string; methods: string[] }[] {
+  const out: { route: string; methods: string[] }[] = [];
+  for (const name of readdirSync(dir)) {
+    const path = join(dir, name);
+    if (statSync(path).isDirectory()) out.push(...routeFiles(path, `${prefix}/${name}`));
+    else if (name === "route.ts") {
+      const methods = [...readFileSync(path, "utf8").matchAll(/export const (GET|POST|PATCH|DELETE|PUT)\b/g)].map((m) => m[1]!);
+      out.push({ route: `/api${prefix}`, methods });
+    }
+  }
+  return out;
+}
+
+/** "/api/groups/lab/samples/<uuid>" → "/api/groups/[slug]/samples/[id]" */
+function template(path: string): string {
+  return path.replace(/^\/api\/groups\/[^/]+/, "/api/groups/[slug]").replace(/\/[0-9a-f]{8}-[0-9a-f-]{27}/g, "/[id]");
+}
+
+let ids: { slug: string; sampleId: string; measurementId: string; memberId: string; invitationId: string };
+
+function cases(): RouteCase[] {
+  const g = `/api/groups/${ids.slug}`;
+  const csv = "T,C\n2,1e-6\n3,2e-6\n";
+  return [
+    { method: "GET", path: g },
+    { method: "PATCH", path: g, body: { allowSelfApproval: true } },
+    { method: "GET", path: `${g}/invitations` },
+    { method: "POST", path: `${g}/invitations`, body: { email: "someone@example.org", role: "viewer" } },
+    { method: "DELETE", path: `${g}/invitations/${ids.invitationId}` },
+    { method: "PATCH", path: `${g}/members/${ids.memberId}`, body: { role: "viewer" } },
+    { method: "DELETE", path: `${g}/members/${ids.memberId}` },
+    { method: "GET", path: `${g}/samples` },
+    { method: "POST", path: `${g}/samples`, body: { label: "intruder", formula: "Cu" } },
+    { method: "GET", path: `${g}/samples/${ids.sampleId}` },
+    { method: "PATCH", path: `${g}/samples/${ids.sampleId}`, body: { label: "changed", version: 1 } },
+    { method: "POST", path: `${g}/samples/${ids.sampleId}`, body: { archived: true } },
+    { method: "POST", path: `${g}/samples/${ids.sampleId}/imports`, multipart: true, body: csv },
+    { method: "GET", path: `${g}/samples/${ids.sampleId}/measurements` },
+    { method: "POST", path: `${g}/samples/${ids.sampleId}/measurements`, multipart: true, body: csv },
+    { method: "GET", path: `${g}/measurements/${ids.measurementId}` },
+    { method: "GET", path: `${g}/measurements/${ids.measurementId}/original` },
+  ];
+}
+
+async function call(ctx: APIRequestContext, c: RouteCase) {
+  if (c.multipart) {
+    return ctx.fetch(c.path, {
+      method: c.method,
+      multipart: {
+        file: { name: "x.csv", mimeType: "text/csv", buffer: Buffer.from(String(c.body)) },
+        options: JSON.stringify({ kind: "sample", label: "x", mapping: { temperature: 0, heatCapacity: 1 }, units: { temperature: "K", heatCapacity: "J/K" } }),
+      },
+    });
+  }
+  return ctx.fetch(c.path, { method: c.method, ...(c.body !== undefined ? { data: c.body } : {}) });
+}
+
+test.describe.serial("authorization walk over every data route", () => {
+  let owner: APIRequestContext;
+
+  test.beforeAll(async ({ baseURL }) => {
+    owner = await newRequest.newContext({ baseURL });
+    await apiSignIn(owner, DEMO.owner);
+    const groups = (await (await owner.get("/api/groups")).json()).groups as { slug: string; name: string }[];
+    const slug = groups.find((g) => g.name.startsWith("Cryogenic"))!.slug;
+    const samples = (await (await owner.get(`/api/groups/${slug}/samples`)).json()).samples as { id: string; label: string }[];
+    const sampleId = samples.find((s) => s.label.startsWith("NM-02"))!.id;
+    const detail = await (await owner.get(`/api/groups/${slug}/samples/${sampleId}`)).json();
+    const members = (await (await owner.get(`/api/groups/${slug}`)).json()).members as { userId: string; email: string }[];
+    const inv = await (await owner.post(`/api/groups/${slug}/invitations`, { data: { email: "pending@example.org", role: "analyst" } })).json();
+    ids = { slug, sampleId, measurementId: detail.measurements[0].id, memberId: members.find((m) => m.email === DEMO.analyst)!.userId, invitationId: inv.invitation.id };
+  });
+
+  test.afterAll(async () => { await owner.dispose(); });
+
+  test("every group data route on disk has a case in this walk", () => {
+    const onDisk = routeFiles("app/api").filter((r) => !NOT_GROUP_DATA.has(r.route)).flatMap((r) => r.methods.map((m) => `${m} ${r.route}`));
+    const covered = new Set(cases().map((c) => `${c.method} ${template(c.path)}`));
+    const normalise = (s: string) => s.replace(/\[(userId|token)\]/g, "[id]");
+    const missing = onDisk.map(normalise).filter((r) => !covered.has(r));
+    expect(missing).toEqual([]);
+  });
+
+  test("a member of another group gets 404 and no data from every route", async ({ baseURL }) => {
+    const outsider = await newRequest.newContext({ baseURL });
+    await apiSignIn(outsider, DEMO.outsider);
+    for (const c of cases()) {
+      const res = await call(outsider, c);
+      expect(res.status(), `${c.method} ${c.path}`).toBe(404);
+      const text = await res.text();
+      expect(text, `${c.method} ${c.path} leaks nothing`).not.toMatch(/Nb|NM-0|Cryogenic/);
+    }
+    await outsider.dispose();
+  });
+
+  test("a viewer reads every route and is refused every write with 403", async ({ baseURL }) => {
+    const viewer = await newRequest.newContext({ baseURL });
+    await apiSignIn(viewer, DEMO.viewer);
+    for (const c of cases()) {
+      const res = await call(viewer, c);
+      if (c.method === "GET") expect(res.status(), `${c.method} ${c.path}`).toBe(200);
+      else if (c.method === "DELETE" && c.path.includes("/members/")) expect(res.status(), "a viewer may not remove another member").toBe(403);
+      else expect(res.status(), `${c.method} ${c.path}`).toBe(403);
+    }
+    // Nothing was changed by the refused writes.
+    const sample = (await (await viewer.get(`/api/groups/${ids.slug}/samples/${ids.sampleId}`)).json()).sample;
+    expect(sample.label).toMatch(/^NM-02/);
+    expect(sample.archived).toBe(false);
+    await viewer.dispose();
+  });
+
+  test("signed-out requests get 401 from every route", async ({ baseURL }) => {
+    const anon = await newRequest.newContext({ baseURL });
+    for (const c of cases()) {
+      const res = await call(anon, c);
+      expect(res.status(), `${c.method} ${c.path}`).toBe(401);
+    }
+    await anon.dispose();
+  });
+});
