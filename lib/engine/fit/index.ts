@@ -4,3 +4,6 @@ export { weightedJacobian, weightedResiduals, type LeastSquaresProblem, type Lev
 export { fitCore, type ModelCore, type CoreOptions } from "./core";
 export { fitCurve, expressionCore, checkSeries, type FitCurveOptions } from "./curve";
 export { buildFitResult, type FitResult, type FitParameter, type NamedMatrix } from "./result";
+export { fitHeatCapacity, registryCore, type HeatCapacityInput, type HeatCapacityFitOptions, type HeatCapacityFitResult, type FitWindow } from "./heatCapacity";
+export { heatCapacityWarnings, type WarningContext } from "./warnings";
+export { runsTest, type RunsTestResult } from "./runsTest";
