@@ -1,0 +1,43 @@
+"use client";
+/** The two charts of a measurement, with a log-axis switch for C vs T and a T range for C/T vs T². */
+import { useCallback, useState } from "react";
+import { heatCapacityPlot, sommerfeldPlot, type MeasurementSeries } from "@/lib/charts";
+import { PlotView } from "./PlotView";
+
+const RANGES = [
+  { value: "", label: "all points" },
+  { value: "10", label: "T ≤ 10 K" },
+  { value: "5", label: "T ≤ 5 K" },
+  { value: "3", label: "T ≤ 3 K" },
+];
+
+export function MeasurementCharts({ series }: { series: MeasurementSeries }) {
+  const [log, setLog] = useState(false);
+  const [maxT, setMaxT] = useState("");
+  const buildC = useCallback((width: number) => heatCapacityPlot(series, { width, log }), [series, log]);
+  const buildS = useCallback((width: number) => sommerfeldPlot(series, { width, ...(maxT ? { maxTK: Number(maxT) } : {}) }), [series, maxT]);
+  return (
+    <div className="chart-grid">
+      <figure className="chart">
+        <h3>Heat capacity C vs temperature T</h3>
+        <div className="chart-controls">
+          <label className="checkbox">
+            <input type="checkbox" checked={log} onChange={(e) => setLog(e.target.checked)} data-testid="log-axes" /> Logarithmic axes
+          </label>
+          <span className="muted">Hover a point for its values and file line.</span>
+        </div>
+        <PlotView build={buildC} testId="chart-c-vs-t" label="Heat capacity against temperature" />
+      </figure>
+      <figure className="chart">
+        <h3>C/T vs T² (intercept γ, slope β when C = γT + βT³)</h3>
+        <div className="chart-controls">
+          <label htmlFor="ct-range">Show</label>
+          <select id="ct-range" value={maxT} onChange={(e) => setMaxT(e.target.value)}>
+            {RANGES.map((r) => <option key={r.value} value={r.value}>{r.label}</option>)}
+          </select>
+        </div>
+        <PlotView build={buildS} testId="chart-ct-vs-t2" label="C over T against T squared" />
+      </figure>
+    </div>
+  );
+}

@@ -1,0 +1,42 @@
+"use client";
+/**
+ * Renders Observable Plot options into a div: Plot.plot runs in an effect (browser only) and
+ * its element replaces the previous one. The width follows the container, so `build` gets it.
+ */
+import * as Plot from "@observablehq/plot";
+import { useEffect, useRef, useState } from "react";
+
+export function PlotView({ build, testId, label }: { build: (width: number) => Plot.PlotOptions; testId?: string; label: string }) {
+  const host = useRef<HTMLDivElement>(null);
+  const [width, setWidth] = useState(0);
+  const [error, setError] = useState<string | null>(null);
+
+  useEffect(() => {
+    const el = host.current;
+    if (!el) return;
+    const observer = new ResizeObserver(([entry]) => setWidth(Math.floor(entry?.contentRect.width ?? 0)));
+    observer.observe(el);
+    return () => observer.disconnect();
+  }, []);
+
+  useEffect(() => {
+    const el = host.current;
+    if (!el || width < 50) return;
+    let chart: Element | null = null;
+    try {
+      chart = Plot.plot(build(width)) as unknown as Element;
+      el.replaceChildren(chart);
+      setError(null);
+    } catch (err) {
+      setError((err as Error).message);
+    }
+    return () => chart?.remove();
+  }, [build, width]);
+
+  return (
+    <>
+      <div ref={host} className="plot-host" data-testid={testId} role="img" aria-label={label} />
+      {error && <p className="form-error" role="alert">Chart could not be drawn: {error}</p>}
+    </>
+  );
+}

@@ -1,0 +1,5 @@
+/** lib/charts: pure functions from stored data and engine results to Observable Plot options. */
+export { heatCapacityPlot, sommerfeldPlot, INK, ERROR_BAR } from "./measurement";
+export type { MeasurementSeries, ChartOptions } from "./measurement";
+export { heatCapacityUnit, heatCapacityOverTUnit, maxAbs } from "./units";
+export type { Basis, DisplayUnit } from "./units";
