@@ -1,5 +1,5 @@
 import { describe, it, expect } from "vitest";
-import { fitHeatCapacity } from "../../lib/engine/fit";
+import { fitHeatCapacity, type FitParameter } from "../../lib/engine/fit";
 import { debyeHeatCapacity, schottkyHeatCapacity, einsteinHeatCapacity, alphaModelReducedHeatCapacity } from "../../lib/engine/models";
 import { InputError } from "../../lib/engine/errors";
 import { expectClose } from "../helpers/expectClose";
@@ -18,7 +18,7 @@ function rng(seed: number) {
 }
 
 const grid = (n: number, lo: number, hi: number) => Array.from({ length: n }, (_, i) => lo + ((hi - lo) * i) / (n - 1));
-const byName = (r: { parameters: readonly { name: string; value: number; stdError: number | null }[] }, n: string) => r.parameters.find((p) => p.name === n)!;
+const byName = (r: { parameters: readonly FitParameter[] }, n: string) => r.parameters.find((p) => p.name === n)!;
 
 // Synthetic data (invented, seeded): γ = 1.35 mJ mol⁻¹ K⁻², β = 0.0204 mJ mol⁻¹ K⁻⁴ (roughly Θ_D ≈ 460 K).
 const GAMMA = 1.35e-3;
