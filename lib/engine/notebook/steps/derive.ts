@@ -1,0 +1,76 @@
+/**
+ * Derived-quantities step: Θ_D, D(E_F), the free-electron comparison and m* / m, and — given the
+ * optional inputs — λ, McMillan T_c, the Wilson and Kadowaki–Woods ratios, from the γ and β of
+ * a fit step above (the nearest, unless one is named), with σ through their covariance.
+ */
+import { z } from "zod";
+import { deriveAll } from "../../derived";
+import { parseFormula, electronsPerFormulaUnit } from "../../chemistry";
+import { InputError } from "../../errors";
+import type { ChainState, FitSummary } from "../types";
+import { StepFailure, type StepDefinition } from "./shared";
+
+const measured = z.object({ value: z.number().finite(), stdError: z.number().finite().min(0).nullable().default(null) });
+
+export const deriveConfig = z.object({
+  fitStepId: z.string().nullable().default(null),
+  basis: z.enum(["formula-unit", "atom"]).default("formula-unit"),
+  densityGPerCm3: z.number().positive().nullable().default(null),
+  valences: z.record(z.string(), z.number().min(0).max(8)).default({}),
+  /** Band-structure γ in mJ mol⁻¹ K⁻² per mole formula unit. */
+  gammaBandMJ: measured.nullable().default(null),
+  muStar: z.number().min(0).max(0.5).nullable().default(null),
+  tcK: z.number().positive().nullable().default(null),
+  chi: measured.extend({ unit: z.enum(["m3/mol", "emu/mol"]) }).nullable().default(null),
+  /** Resistivity coefficient A in μΩ cm K⁻². */
+  kwA: measured.nullable().default(null),
+});
+export type DeriveConfig = z.infer<typeof deriveConfig>;
+
+export function pickFit(state: ChainState, stepId: string | null, what: string): FitSummary {
+  const fit = stepId ? state.fits[stepId] : state.fit;
+  if (!fit) throw new StepFailure(stepId ? "the chosen fit step is not above this step" : `${what} needs a fit step above it`, "fitStepId");
+  if (!fit.gamma || !fit.beta) throw new StepFailure(`the fit (model ${fit.model}) has no γ and β`, "fitStepId");
+  return fit;
+}
+
+export const deriveStep: StepDefinition<DeriveConfig> = {
+  kind: "derive",
+  title: "Derived quantities",
+  schema: deriveConfig,
+  dependencies: () => ({ measurementIds: [], sampleFields: ["formula", "molarMassGPerMol", "atomsPerFormulaUnit", "densityGPerCm3", "valences"] }),
+  compute(config, state, ctx) {
+    const fit = pickFit(state, config.fitStepId, "derived quantities");
+    const r = ctx.sample.atomsPerFormulaUnit;
+    // deriveAll takes γ and β per mole formula unit.
+    const k = fit.basis === "atom" ? r : 1;
+    const scale = (m: { value: number; stdError: number | null }) => ({ value: m.value * k, stdError: m.stdError === null ? null : m.stdError * k });
+    const mJ = (m: { value: number; stdError: number | null }) => ({ value: m.value * 1e-3, stdError: m.stdError === null ? null : m.stdError * 1e-3 });
+    const valences = { ...ctx.sample.valences, ...config.valences };
+    const density = config.densityGPerCm3 ?? ctx.sample.densityGPerCm3;
+    try {
+      const chem = parseFormula(ctx.sample.formula);
+      const result = deriveAll({
+        gamma: scale(fit.gamma!), beta: scale(fit.beta!), ...(fit.covGammaBeta !== null ? { covGammaBeta: fit.covGammaBeta * k * k } : {}),
+        formula: { atomsPerFormulaUnit: r, molarMassGPerMol: ctx.sample.molarMassGPerMol, electronsPerFormulaUnit: electronsPerFormulaUnit(chem.elements, valences), label: ctx.sample.formula },
+        basis: config.basis,
+        ...(density ? { free: { densityGPerCm3: density } } : {}),
+        ...(config.gammaBandMJ ? { gammaBand: mJ(config.gammaBandMJ) } : {}),
+        ...(config.muStar !== null ? { muStar: config.muStar } : {}),
+        ...(config.tcK !== null ? { tcK: config.tcK } : {}),
+        ...(config.chi ? { chi: config.chi } : {}),
+        ...(config.kwA ? { kwA: config.kwA } : {}),
+      });
+      const warnings = [...result.warnings];
+      if (!density) warnings.push("no density on the sample: the free-electron comparison (γ_free, m* / m) is left out");
+      return {
+        result: { fitStepId: fit.stepId, fitModel: fit.model, fitWindow: { tMinK: fit.tMinK, tMaxK: fit.tMaxK }, fieldT: fit.fieldT, basis: result.basis, quantities: result.quantities, valences, densityGPerCm3: density },
+        warnings,
+        state,
+      };
+    } catch (err) {
+      if (err instanceof InputError) throw new StepFailure(err.message, err.field);
+      throw err;
+    }
+  },
+};

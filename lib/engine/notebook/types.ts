@@ -1,0 +1,96 @@
+/**
+ * The analysis notebook as pure data: an ordered chain of steps, each computed from the steps
+ * above it and the records it names. Nothing here reads a database; the server loads the
+ * records into a ChainContext and stores what `computeStep` returns.
+ */
+
+/** A measurement as the chain sees it (SI values, per its basis). */
+export interface ChainMeasurement {
+  id: string;
+  label: string;
+  kind: "sample" | "addenda";
+  basis: "sample" | "molar" | "specific";
+  fieldT: number;
+  sha256: string;
+  temperatureK: readonly number[];
+  heatCapacity: readonly number[];
+  sigma: readonly number[] | null;
+}
+
+/** The sample fields steps may use; each step's hash covers only those it reads. */
+export interface ChainSample {
+  id: string;
+  label: string;
+  formula: string;
+  molarMassGPerMol: number;
+  atomsPerFormulaUnit: number;
+  massMg: number | null;
+  densityGPerCm3: number | null;
+  valences: Record<string, number>;
+}
+
+export interface ChainContext {
+  sample: ChainSample;
+  measurements: Record<string, ChainMeasurement>;
+}
+
+/**
+ * The working curve handed down the chain. `unit` says what C is: J/K for the whole sample,
+ * J/(mol K) per mole formula unit or per mole of atoms once normalised, J/(kg K) if specific.
+ */
+export interface Dataset {
+  temperatureK: number[];
+  heatCapacity: number[];
+  sigma: number[] | null;
+  basis: "sample" | "formula-unit" | "atom" | "specific";
+  fieldT: number;
+  /** Index of each point in its source measurement, for annotations and exclusions. */
+  source: { measurementId: string; index: number }[];
+}
+
+/** The fit summary handed down to derived-quantity steps (SI values). */
+export interface FitSummary {
+  stepId: string;
+  model: string;
+  basis: Dataset["basis"];
+  gamma: { value: number; stdError: number | null } | null;
+  beta: { value: number; stdError: number | null } | null;
+  covGammaBeta: number | null;
+  tMinK: number;
+  tMaxK: number;
+  fieldT: number;
+}
+
+/** What flows from one step to the next. */
+export interface ChainState {
+  dataset: Dataset | null;
+  fit: FitSummary | null;
+  /** Fits above, by step id, so a transition step can name the normal-state fit. */
+  fits: Record<string, FitSummary>;
+}
+
+export interface StepSpec {
+  id: string;
+  kind: StepKind;
+  config: unknown;
+}
+
+export type StepKind = "data" | "addenda" | "normalise" | "fit" | "derive" | "transition" | "entropy" | "note";
+
+/** A step's stored output: JSON-safe, with the state it hands down so caching can resume mid-chain. */
+export interface StepOutput {
+  kind: StepKind;
+  ok: boolean;
+  /** Set when the step could not be computed (bad configuration, missing input). */
+  error: string | null;
+  warnings: string[];
+  /** Step-specific result for display (tables, curves). */
+  result: unknown;
+  state: ChainState;
+}
+
+/** The records a step reads outside the chain: hashed into its input hash. */
+export interface StepDependencies {
+  measurementIds: string[];
+  sampleFields: (keyof ChainSample)[];
+}
