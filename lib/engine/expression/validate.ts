@@ -30,7 +30,7 @@ function column(text: string, token: string): number | undefined {
 
 function refuse(text: string, what: string, token: string): never {
   const col = column(text, token);
-  throw new InputError(`invalid expression: ${what}${col ? ` at column ${col}` : ""}`, { field: "expression", column: col });
+  throw new InputError(`invalid expression: ${what}`, { field: "expression", column: col });
 }
 
 type AnyNode = MathNode & Record<string, unknown>;
