@@ -23,7 +23,7 @@ export const dataStep: StepDefinition<DataConfig> = {
   title: "Data selection",
   schema: dataConfig,
   dependencies: (c) => ({ measurementIds: c.measurementIds, sampleFields: [] }),
-  compute(config, _state: ChainState, ctx: ChainContext) {
+  compute(config, state: ChainState, ctx: ChainContext) {
     if (config.tMinK !== null && config.tMaxK !== null && config.tMinK >= config.tMaxK) throw new StepFailure("the lower temperature bound must be below the upper one", "tMinK");
     const ms = config.measurementIds.map((id) => {
       const m = ctx.measurements[id];
@@ -66,7 +66,8 @@ export const dataStep: StepDefinition<DataConfig> = {
         measurements: ms.map((m) => ({ id: m.id, label: m.label, fieldT: m.fieldT })),
       },
       warnings,
-      state: { dataset, fit: null, fits: {} },
+      // Fits above stay available (e.g. a normal-state fit for a transition step further down).
+      state: { dataset, fit: state.fit, fits: state.fits },
     };
   },
 };
