@@ -19,7 +19,7 @@ export default async function Landing() {
       <h1>Specific heat of metals, from raw curve to reviewed number.</h1>
       <p className="lede">
         Heatbook lets a calorimetry group bring in C(T) curves measured between a fraction of a kelvin and a few tens of kelvin,
-        fit the Sommerfeld coefficient γ (mJ mol⁻¹ K⁻²) and the lattice term β with Θ_D (K), and have the results reviewed and
+        fit the Sommerfeld coefficient γ (mJ mol⁻¹ K⁻²) and the lattice term β with the Debye temperature Θ<sub>D</sub> (K), and have the results reviewed and
         locked so every published value traces back to its data.
       </p>
       <div className="actions">

@@ -113,7 +113,7 @@ export function ImportMapping({ preview, state, onChange, heatCapacityUnits }: {
       <div className="field">
         <label htmlFor="import-kind">Kind</label>
         <select id="import-kind" value={state.kind} onChange={(e) => set({ kind: e.target.value as "sample" | "addenda" })}>
-          <option value="sample">sample (with platform)</option>
+          <option value="sample">sample</option>
           <option value="addenda">addenda (empty platform + grease)</option>
         </select>
       </div>

@@ -102,7 +102,7 @@ export function ImportPanel({ apiBase, measurementPath, heatCapacityUnits }: { a
         <button type="submit" disabled={!file || busy !== null}>{busy === "preview" ? "Reading…" : preview ? "Read again" : "Read file"}</button>
       </form>
       <p className="small muted">Reading shows what Heatbook found in the file. Nothing is stored until you press “Store measurement”.</p>
-      {error && <p className="form-error" role="alert" data-testid="import-error">{error}</p>}
+      {error && !preview && <p className="form-error" role="alert" data-testid="import-error">{error}</p>}
       {stored && (
         <p className="notice-ok" role="status">
           Stored <Link href={`${measurementPath}/${stored.id}`}>{stored.label}</Link> with {stored.pointCount} points.
@@ -133,6 +133,7 @@ export function ImportPanel({ apiBase, measurementPath, heatCapacityUnits }: { a
           )}
           <ImportPreviewTable preview={preview} roles={rolesOf(mapping)} />
           <ImportMapping preview={preview} state={mapping} onChange={setMapping} heatCapacityUnits={heatCapacityUnits} />
+          {error && <p className="form-error" role="alert" data-testid="import-error">{error}</p>}
           <div className="actions">
             <button type="button" onClick={() => void store()} disabled={busy !== null} data-testid="store-measurement">
               {busy === "store" ? "Storing…" : "Store measurement"}

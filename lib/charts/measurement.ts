@@ -31,6 +31,8 @@ export interface ChartOptions {
 export const INK = "#1e2431";
 export const ERROR_BAR = "#b9ad96";
 const STYLE = { fontSize: "12px", fontFamily: "inherit", background: "transparent", overflow: "visible" } as const;
+/** Margins leave room for the axis labels below and left of the tick labels. */
+const FRAME = { marginLeft: 68, marginBottom: 44, marginTop: 16, marginRight: 16, style: STYLE } as const;
 
 interface Row {
   x: number;
@@ -71,7 +73,7 @@ function marks(data: Row[], xName: string, yName: string, unit: string) {
     Plot.frame({ stroke: "#d9cfbc" }),
     ...(bars.length ? [Plot.ruleX(bars, { x: "x", y1: "lo", y2: "hi", stroke: ERROR_BAR })] : []),
     Plot.dot(data, { x: "x", y: "y", r: 2.6, fill: INK, stroke: null }),
-    Plot.tip(data, Plot.pointer({ x: "x", y: "y", title })),
+    Plot.tip(data, Plot.pointer({ x: "x", y: "y", title, fontSize: 12 })),
   ];
 }
 
@@ -92,12 +94,11 @@ export function heatCapacityPlot(m: MeasurementSeries, opts: ChartOptions = {}):
   }
   return {
     width: opts.width ?? 560,
-    height: opts.height ?? 360,
-    marginLeft: 64,
-    style: STYLE,
+    height: opts.height ?? 380,
+    ...FRAME,
     caption,
-    x: { type: opts.log ? "log" : "linear", label: "T (K)", labelAnchor: "center", labelArrow: "none", grid: true, nice: true },
-    y: { type: opts.log ? "log" : "linear", label: `C (${unit.label})`, labelAnchor: "center", labelArrow: "none", grid: true, nice: true },
+    x: { type: opts.log ? "log" : "linear", label: "T (K)", labelAnchor: "center", labelArrow: "none", labelOffset: 38, grid: true, nice: true },
+    y: { type: opts.log ? "log" : "linear", label: `C (${unit.label})`, labelAnchor: "center", labelArrow: "none", labelOffset: 56, grid: true, nice: true },
     marks: marks(data, "T", "C", unit.label),
   };
 }
@@ -114,11 +115,10 @@ export function sommerfeldPlot(m: MeasurementSeries, opts: ChartOptions = {}): P
   const data = rows(m, opts.maxTK, (t, c, s) => [t * t, (c / t) * unit.factor, s === null ? null : (s / t) * unit.factor]);
   return {
     width: opts.width ?? 560,
-    height: opts.height ?? 360,
-    marginLeft: 64,
-    style: STYLE,
-    x: { label: "T² (K²)", labelAnchor: "center", labelArrow: "none", grid: true, nice: true, zero: true },
-    y: { label: `C/T (${unit.label})`, labelAnchor: "center", labelArrow: "none", grid: true, nice: true },
+    height: opts.height ?? 380,
+    ...FRAME,
+    x: { label: "T² (K²)", labelAnchor: "center", labelArrow: "none", labelOffset: 38, grid: true, nice: true, zero: true },
+    y: { label: `C/T (${unit.label})`, labelAnchor: "center", labelArrow: "none", labelOffset: 56, grid: true, nice: true },
     marks: marks(data, "T²", "C/T", unit.label),
   };
 }

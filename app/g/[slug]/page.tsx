@@ -5,6 +5,7 @@ import { listMeasurements } from "@/lib/server/measurements";
 import { listRecentActivity, listRecentSamples } from "@/lib/server/activity";
 import { can } from "@/lib/server/permissions";
 import { groupPaths } from "@/app/_lib/paths";
+import { Formula } from "@/app/components/Formula";
 import { fmtDate, fmtNumber } from "@/app/_lib/format";
 import { describeAction } from "@/app/_lib/activity";
 
@@ -42,7 +43,7 @@ export default async function GroupHome({ params }: { params: Promise<{ slug: st
                 {samples.map((s) => (
                   <tr key={s.id}>
                     <td><Link href={p.sample(s.id)}>{s.label}</Link></td>
-                    <td>{s.formula}</td>
+                    <td><Formula text={s.formula} /></td>
                     <td className="num">{fmtNumber(s.molarMassGPerMol, 6)}</td>
                   </tr>
                 ))}
@@ -87,7 +88,14 @@ export default async function GroupHome({ params }: { params: Promise<{ slug: st
               <li key={a.id}>
                 <time dateTime={a.at}>{fmtDate(a.at)}</time>
                 <strong>{a.actorName ?? "someone"}</strong> {describeAction(a.action)}
-                {a.objectLabel && <> <em>{a.objectLabel}</em></>}
+                {a.objectLabel && (
+                  <>
+                    {" "}
+                    {a.objectType === "sample" ? <Link href={p.sample(a.objectId)}>{a.objectLabel}</Link>
+                      : a.objectType === "measurement" ? <Link href={p.measurement(a.objectId)}>{a.objectLabel}</Link>
+                      : <em>{a.objectLabel}</em>}
+                  </>
+                )}
               </li>
             ))}
           </ul>

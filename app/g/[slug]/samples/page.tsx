@@ -4,6 +4,7 @@ import { pageMember } from "@/app/_server/guard";
 import { listSamples } from "@/lib/server/samples";
 import { can } from "@/lib/server/permissions";
 import { groupPaths } from "@/app/_lib/paths";
+import { Formula } from "@/app/components/Formula";
 import { fmtNumber } from "@/app/_lib/format";
 import { SampleCreateForm } from "@/app/components/SampleCreateForm";
 
@@ -52,7 +53,7 @@ export default async function SamplesPage({ params, searchParams }: { params: Pr
                 {samples.map((s) => (
                   <tr key={s.id}>
                     <td><Link href={p.sample(s.id)}>{s.label}</Link></td>
-                    <td>{s.formula}</td>
+                    <td><Formula text={s.formula} /></td>
                     <td className="num">{fmtNumber(s.molarMassGPerMol, 7)}</td>
                     <td className="num">{fmtNumber(s.atomsPerFormulaUnit, 6)}</td>
                     <td className="num">{fmtNumber(s.massMg, 5)}</td>

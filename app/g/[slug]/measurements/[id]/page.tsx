@@ -4,6 +4,7 @@ import { orNotFound, pageMember } from "@/app/_server/guard";
 import { getMeasurement } from "@/lib/server/measurements";
 import { getSample } from "@/lib/server/samples";
 import { groupPaths } from "@/app/_lib/paths";
+import { Formula } from "@/app/components/Formula";
 import { fmtBytes, fmtDate, fmtNumber } from "@/app/_lib/format";
 import { MeasurementCharts } from "@/app/components/MeasurementCharts";
 
@@ -12,6 +13,7 @@ export const metadata: Metadata = { title: "Measurement" };
 
 const BASIS_TEXT = { sample: "whole sample (J K⁻¹)", molar: "per mole (J mol⁻¹ K⁻¹)", specific: "per mass (J kg⁻¹ K⁻¹ stored)" } as const;
 const ROLE_TEXT: Record<string, string> = { temperature: "temperature", heatCapacity: "heat capacity", sigma: "σ", field: "field" };
+const ROLE_ORDER = ["temperature", "heatCapacity", "sigma", "field"] as const;
 
 export default async function MeasurementPage({ params }: { params: Promise<{ slug: string; id: string }> }) {
   const { slug, id } = await params;
@@ -27,7 +29,7 @@ export default async function MeasurementPage({ params }: { params: Promise<{ sl
       </div>
       <h1>{m.label}</h1>
       <p className="lede">
-        {m.kind === "addenda" ? "Addenda (empty platform and grease)" : "Sample measurement"} of {sample.label} ({sample.formula}),
+        {m.kind === "addenda" ? "Addenda (empty platform and grease)" : "Sample measurement"} of {sample.label} (<Formula text={sample.formula} />),
         {" "}{m.pointCount} points from {fmtNumber(m.tMinK, 4)} K to {fmtNumber(m.tMaxK, 4)} K{m.fieldT ? ` in ${fmtNumber(m.fieldT, 4)} T` : " in zero field"}.
       </p>
       <MeasurementCharts series={series} />
@@ -45,9 +47,9 @@ export default async function MeasurementPage({ params }: { params: Promise<{ sl
           <dt>Applied field</dt><dd>{fmtNumber(m.fieldT, 4)} T</dd>
           <dt>Heat capacity basis</dt><dd>{BASIS_TEXT[m.basis]}</dd>
           <dt>Units in the file</dt>
-          <dd>{Object.entries(m.units).map(([k, u]) => `${ROLE_TEXT[k] ?? k}: ${u}`).join("; ")}</dd>
+          <dd>{ROLE_ORDER.filter((k) => k in m.units).map((k) => `${ROLE_TEXT[k]}: ${m.units[k]}`).join("; ")}</dd>
           <dt>Columns used</dt>
-          <dd>{Object.entries(m.columnMapping).map(([k, c]) => `${ROLE_TEXT[k] ?? k}: column ${c + 1}`).join("; ")}</dd>
+          <dd>{ROLE_ORDER.filter((k) => k in m.columnMapping).map((k) => `${ROLE_TEXT[k]}: column ${m.columnMapping[k]! + 1}`).join("; ")}</dd>
           <dt>Stored</dt><dd>{fmtDate(m.createdAt)}</dd>
         </dl>
         {m.notes && <p style={{ whiteSpace: "pre-wrap", marginTop: "0.8rem" }}>{m.notes}</p>}

@@ -5,6 +5,7 @@ import { getSample } from "@/lib/server/samples";
 import { HEAT_CAPACITY_UNITS, listMeasurements } from "@/lib/server/measurements";
 import { can } from "@/lib/server/permissions";
 import { groupPaths } from "@/app/_lib/paths";
+import { Formula } from "@/app/components/Formula";
 import { fmtDate, fmtNumber } from "@/app/_lib/format";
 import { SampleEditForm } from "@/app/components/SampleEditForm";
 import { ArchiveSampleButton } from "@/app/components/ArchiveSampleButton";
@@ -31,7 +32,7 @@ export default async function SamplePage({ params }: { params: Promise<{ slug: s
         <section className="sheet" aria-labelledby="facts">
           <h2 id="facts">Sample</h2>
           <dl className="facts" data-testid="sample-facts">
-            <dt>Formula</dt><dd>{sample.formula}</dd>
+            <dt>Formula</dt><dd><Formula text={sample.formula} /> <span className="muted small">({sample.formula})</span></dd>
             <dt>Molar mass</dt><dd>{fmtNumber(sample.molarMassGPerMol, 7)} g/mol</dd>
             <dt>Atoms per formula unit</dt><dd>{fmtNumber(sample.atomsPerFormulaUnit, 6)}</dd>
             <dt>Mass</dt><dd>{sample.massMg === null ? "—" : `${fmtNumber(sample.massMg, 6)} mg`}</dd>
