@@ -10,6 +10,7 @@ import { createGroup } from "../groups";
 import { memberOf } from "../access";
 import { createSample } from "../samples";
 import { importMeasurement } from "../measurements";
+import { seedDemoAnalyses } from "./analyses";
 import { addendaHeatCapacity, demoFile, molarHeatCapacity, temperatureGrid, type CurveSpec } from "./curves";
 
 export const DEMO_PASSWORD = "heatbook-demo";
@@ -88,6 +89,8 @@ export async function seedDemo(db: Db): Promise<boolean> {
       });
     }
   }
+
+  await seedDemoAnalyses(db, labMember);
 
   const unit = await createGroup(db, second.id, { name: "Thermal Properties Unit (demo)" });
   const unitMember = await memberOf(db, second.id, unit.slug);
