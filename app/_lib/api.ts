@@ -58,5 +58,15 @@ export async function callUpload<T>(url: string, file: File, options: unknown): 
 /** The error message for `field` (exact, or a sub-field like "valences.Cu" for "valences"). */
 export function errorFor(result: Pick<ApiResult<unknown>, "error" | "field"> | null, field: string): string | null {
   if (!result?.error || !result.field) return null;
-  return result.field === field || result.field.startsWith(field + ".") ? result.error : null;
+  return result.field === field || result.field.startsWith(field + ".") ? besideField(result.error, result.field) : null;
+}
+
+/** Under the field itself, "(…, field massMg)" says nothing new: drop it, and any repeated location suffix. */
+export function besideField(message: string, field: string): string {
+  const name = field.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
+  return message
+    .replace(new RegExp(`^${name}: `), "")
+    .replace(new RegExp(`,? ?\\bfield ${name}\\)`, "g"), ")")
+    .replace(/ \(\)/g, "")
+    .replace(/( \([^()]*\))\1+$/, "$1");
 }

@@ -27,7 +27,11 @@ export default async function GroupHome({ params }: { params: Promise<{ slug: st
       <h1>{member.group.name}</h1>
       <p className="lede">
         You are <span className="role">{member.role}</span> in this group.
-        {can(member.role, "sample.write") ? " Add a sample, then import its C(T) curves on the sample's page." : " You can read everything the group stores."}
+        {can(member.role, "sample.write")
+          ? " Add a sample, then import its C(T) curves on the sample's page."
+          : can(member.role, "analysis.review")
+            ? " You can read everything the group stores, comment, and review submitted analyses."
+            : " You can read everything the group stores."}
       </p>
       <div className="columns">
         <section className="sheet" aria-labelledby="recent-samples">
