@@ -1,0 +1,50 @@
+/**
+ * The results a step reports, as one flat list: fit parameters (γ, β, …, in the fit's SI units,
+ * with χ²_red) from steps of kind "fit", and derived quantities (γ, β, Θ_D, D(E_F), m* / m, λ …,
+ * in display units) from steps of kind "derive". The one place that knows those output shapes
+ * (lib/engine/notebook/steps/fit.ts and derive.ts).
+ */
+export interface ResultValue {
+  /** Stable key within a revision: "<kind>#<k>:<name>", k counting steps of that kind from 1. */
+  key: string;
+  stepKind: "fit" | "derive";
+  name: string;
+  symbol: string;
+  value: number;
+  stdError: number | null;
+  unit: string;
+  note?: string;
+}
+
+interface FitParam { name: string; value: number; stdError: number | null; unit: string; fixed?: boolean }
+interface Quantity { name: string; symbol: string; value: number; stdError: number | null; unit: string; note?: string }
+
+const SYMBOLS: Record<string, string> = { gamma: "γ", beta: "β", delta: "δ", epsilon: "ε", thetaD: "Θ_D", thetaE: "Θ_E", A: "A_N", B: "B" };
+
+/** Results of one step output (null or failed outputs give none). `k` numbers steps of the kind. */
+export function stepResults(kind: string, output: unknown, k: number): ResultValue[] {
+  const o = output as { ok?: boolean; result?: Record<string, unknown> } | null;
+  if (!o || !o.ok || !o.result) return [];
+  if (kind === "fit") {
+    const fit = o.result.fit as { parameters?: FitParam[]; reducedChiSquare?: number | null } | undefined;
+    const out: ResultValue[] = (fit?.parameters ?? []).map((p) => ({
+      key: `fit#${k}:${p.name}`, stepKind: "fit", name: p.name, symbol: SYMBOLS[p.name] ?? p.name, value: p.value, stdError: p.stdError, unit: p.unit, ...(p.fixed ? { note: "fixed" } : {}),
+    }));
+    if (typeof fit?.reducedChiSquare === "number") out.push({ key: `fit#${k}:reducedChiSquare`, stepKind: "fit", name: "reducedChiSquare", symbol: "χ²_red", value: fit.reducedChiSquare, stdError: null, unit: "1" });
+    return out;
+  }
+  if (kind === "derive") {
+    const qs = (o.result.quantities as Quantity[] | undefined) ?? [];
+    return qs.map((q) => ({ key: `derive#${k}:${q.name}`, stepKind: "derive", name: q.name, symbol: q.symbol, value: q.value, stdError: q.stdError, unit: q.unit, ...(q.note ? { note: q.note } : {}) }));
+  }
+  return [];
+}
+
+/** Results of a whole chain, in step order. */
+export function chainResults(steps: readonly { kind: string; output: unknown }[]): ResultValue[] {
+  const seen: Record<string, number> = {};
+  return steps.flatMap((s) => {
+    seen[s.kind] = (seen[s.kind] ?? 0) + 1;
+    return stepResults(s.kind, s.output, seen[s.kind]!);
+  });
+}
