@@ -28,10 +28,13 @@ function describeLocation(where: Location | undefined): string {
 /** Invalid input: a value that cannot be used, with where it came from. */
 export class InputError extends Error {
   readonly where: Location | undefined;
+  /** The message without the location suffix (to re-locate an error without repeating it). */
+  readonly baseMessage: string;
   constructor(message: string, where?: Location) {
     super(message + describeLocation(where));
     this.name = "InputError";
     this.where = where;
+    this.baseMessage = message;
   }
   /** The field named in `where`, if any (used by forms and the JSON API). */
   get field(): string | undefined {

@@ -66,7 +66,7 @@ function chemistryOf(formula: string) {
   try {
     return parseFormula(formula);
   } catch (err) {
-    if (err instanceof InputError) throw new InputError(err.message, { ...err.where, field: "formula" });
+    if (err instanceof InputError) throw new InputError(err.baseMessage, { ...err.where, field: "formula" });
     throw err;
   }
 }

@@ -1,7 +1,7 @@
 /** Accounts: sign-up and password sign-in (throttled), mapped to a plain domain type. */
 import { z } from "zod";
 import type { Db } from "./db/client";
-import { InputError, ConflictError } from "../engine/errors";
+import { InputError } from "../engine/errors";
 import { hashPassword, passwordProblem, verifyPassword } from "./auth/password";
 import { isThrottled, recordAttempt } from "./auth/throttle";
 import { recordAudit } from "./audit";
@@ -32,7 +32,7 @@ export async function signUp(db: Db, input: unknown): Promise<UserInfo> {
   const problem = passwordProblem(password);
   if (problem) throw new InputError(problem, { field: "password" });
   const existing = await db.user.findUnique({ where: { email } });
-  if (existing) throw new ConflictError("an account with this e-mail already exists");
+  if (existing) throw new InputError("an account with this e-mail already exists", { field: "email" });
   const passwordHash = await hashPassword(password);
   return db.$transaction(async (tx) => {
     const user = await tx.user.create({ data: { email, name, passwordHash } });
