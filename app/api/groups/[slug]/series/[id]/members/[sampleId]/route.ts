@@ -1,0 +1,13 @@
+import { NextResponse } from "next/server";
+import { route } from "@/lib/server/http";
+import { inGroup } from "@/lib/server/handler";
+import { removeSeriesMember } from "@/lib/server/series";
+
+export const dynamic = "force-dynamic";
+type Ctx = { params: Promise<{ slug: string; id: string; sampleId: string }> };
+
+export const DELETE = route(async (req, { params }: Ctx) => {
+  const { slug, id, sampleId } = await params;
+  const { db, member } = await inGroup(req, slug);
+  return NextResponse.json({ series: await removeSeriesMember(db, member, id, sampleId) });
+});

@@ -1,0 +1,14 @@
+import { NextResponse } from "next/server";
+import { route, jsonBody } from "@/lib/server/http";
+import { inGroup } from "@/lib/server/handler";
+import { addSeriesMembers } from "@/lib/server/series";
+
+export const dynamic = "force-dynamic";
+type Ctx = { params: Promise<{ slug: string; id: string }> };
+
+/** Add member samples {sampleIds: [...]}. */
+export const POST = route(async (req, { params }: Ctx) => {
+  const { slug, id } = await params;
+  const { db, member } = await inGroup(req, slug);
+  return NextResponse.json({ series: await addSeriesMembers(db, member, id, await jsonBody(req)) });
+});
