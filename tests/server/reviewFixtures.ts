@@ -53,18 +53,29 @@ export async function writeSteps(db: Db, groupId: string, sampleId: string, revi
     await db.step.create({
       data: {
         revisionId, position: i, kind: s.kind, config: s.config as object, inputHash: hashes[i]!,
-        output: JSON.parse(JSON.stringify(outputs[i])), engineVersion: ENGINE_VERSION, computedAt: new Date(),
+        output: JSON.parse(JSON.stringify({ ...outputs[i]!, state: undefined })), engineVersion: ENGINE_VERSION, computedAt: new Date(),
       },
     });
 }
 
 export async function makeReviewFixture(db: Db): Promise<ReviewFixture> {
   const g = await makeGroup(db, "Review group");
-  const sample = await createSample(db, g.members.analyst, { label: "RV-1", formula: "Cu" });
+  // 2e-4 mol of Cu (IUPAC 2021 abridged: 63.546 g/mol) — matches the invented curve's scale.
+  const sample = await createSample(db, g.members.analyst, { label: "RV-1", formula: "Cu", massMg: 0.2 * 63.546 });
   const m = await importMeasurement(db, g.members.analyst, sample.id, "invented.csv", enc(inventedCurve()), {
     kind: "sample", label: "zero field (invented)", mapping: { temperature: 0, heatCapacity: 1, sigma: 2 }, units: { temperature: "K", heatCapacity: "mJ/K" },
   });
   const row = await db.measurement.findUniqueOrThrow({ where: { id: m.id }, select: { fileId: true } });
   const { analysisId, revisionId } = await makeAnalysis(db, g, sample.id, m.id);
   return { ...g, sampleId: sample.id, measurementId: m.id, fileId: row.fileId, analysisId, revisionId };
+}
+
+/** A full chain: data → normalisation → Sommerfeld fit over 2–6 K → derived quantities. */
+export function fullChain(measurementId: string, tMaxK = 6): StepSpec[] {
+  return [
+    { id: "", kind: "data", config: { measurementIds: [measurementId] } },
+    { id: "", kind: "normalise", config: { per: "formula-unit" } },
+    { id: "", kind: "fit", config: { model: "sommerfeld", tMaxK, compare: [] } },
+    { id: "", kind: "derive", config: {} },
+  ];
 }
