@@ -28,10 +28,10 @@ function routeFiles(dir: string, prefix = ""): { route: string; methods: string[
 
 /** "/api/groups/lab/samples/<uuid>" → "/api/groups/[slug]/samples/[id]" */
 function template(path: string): string {
-  return path.replace(/^\/api\/groups\/[^/]+/, "/api/groups/[slug]").replace(/\/[0-9a-f]{8}-[0-9a-f-]{27}/g, "/[id]");
+  return path.split("?")[0]!.replace(/^\/api\/groups\/[^/]+/, "/api/groups/[slug]").replace(/\/[0-9a-f]{8}-[0-9a-f-]{27}/g, "/[id]");
 }
 
-let ids: { slug: string; sampleId: string; measurementId: string; memberId: string; invitationId: string };
+let ids: { slug: string; sampleId: string; measurementId: string; memberId: string; invitationId: string; analysisId: string; revisionId: string; stepId: string; threadId: string };
 
 function cases(): RouteCase[] {
   const g = `/api/groups/${ids.slug}`;
@@ -54,6 +54,20 @@ function cases(): RouteCase[] {
     { method: "POST", path: `${g}/samples/${ids.sampleId}/measurements`, multipart: true, body: csv },
     { method: "GET", path: `${g}/measurements/${ids.measurementId}` },
     { method: "GET", path: `${g}/measurements/${ids.measurementId}/original` },
+    { method: "GET", path: `${g}/analyses` },
+    { method: "POST", path: `${g}/analyses`, body: { sampleId: ids.sampleId, title: "intruder" } },
+    { method: "GET", path: `${g}/analyses/${ids.analysisId}` },
+    { method: "PATCH", path: `${g}/analyses/${ids.analysisId}`, body: { title: "renamed" } },
+    { method: "POST", path: `${g}/analyses/${ids.analysisId}`, body: { action: "archive", archived: true } },
+    { method: "POST", path: `${g}/analyses/${ids.analysisId}/steps`, body: { revisionId: ids.revisionId, revisionVersion: 1, kind: "note" } },
+    { method: "PATCH", path: `${g}/analyses/${ids.analysisId}/steps/${ids.stepId}`, body: { version: 1, config: {} } },
+    { method: "DELETE", path: `${g}/analyses/${ids.analysisId}/steps/${ids.stepId}?revisionVersion=1` },
+    { method: "POST", path: `${g}/analyses/${ids.analysisId}/steps/${ids.stepId}`, body: { action: "move", position: 0, revisionVersion: 1 } },
+    { method: "GET", path: `${g}/analyses/${ids.analysisId}/threads` },
+    { method: "POST", path: `${g}/analyses/${ids.analysisId}/threads`, body: { body: "intruder" } },
+    { method: "POST", path: `${g}/analyses/${ids.analysisId}/threads/${ids.threadId}`, body: { body: "intruder" } },
+    { method: "PATCH", path: `${g}/analyses/${ids.analysisId}/threads/${ids.threadId}`, body: { state: "resolved" } },
+    { method: "GET", path: `${g}/events?once=1` },
   ];
 }
 
@@ -83,7 +97,14 @@ test.describe.serial("authorization walk over every data route", () => {
     const detail = await (await owner.get(`/api/groups/${slug}/samples/${sampleId}`)).json();
     const members = (await (await owner.get(`/api/groups/${slug}`)).json()).members as { userId: string; email: string }[];
     const inv = await (await owner.post(`/api/groups/${slug}/invitations`, { data: { email: "pending@example.org", role: "analyst" } })).json();
-    ids = { slug, sampleId, measurementId: detail.measurements[0].id, memberId: members.find((m) => m.email === DEMO.analyst)!.userId, invitationId: inv.invitation.id };
+    const analyses = (await (await owner.get(`/api/groups/${slug}/analyses`)).json()).analyses as { id: string; sampleId: string }[];
+    const analysisId = analyses.find((a) => a.sampleId === sampleId)!.id;
+    const nb = (await (await owner.get(`/api/groups/${slug}/analyses/${analysisId}`)).json()).notebook;
+    const thread = await (await owner.post(`/api/groups/${slug}/analyses/${analysisId}/threads`, { data: { body: "authorization walk fixture" } })).json();
+    ids = {
+      slug, sampleId, measurementId: detail.measurements[0].id, memberId: members.find((m) => m.email === DEMO.analyst)!.userId, invitationId: inv.invitation.id,
+      analysisId, revisionId: nb.revision.id, stepId: nb.steps[0].id, threadId: thread.threadId,
+    };
   });
 
   test.afterAll(async () => { await owner.dispose(); });
@@ -91,7 +112,7 @@ test.describe.serial("authorization walk over every data route", () => {
   test("every group data route on disk has a case in this walk", () => {
     const onDisk = routeFiles("app/api").filter((r) => !NOT_GROUP_DATA.has(r.route)).flatMap((r) => r.methods.map((m) => `${m} ${r.route}`));
     const covered = new Set(cases().map((c) => `${c.method} ${template(c.path)}`));
-    const normalise = (s: string) => s.replace(/\[(userId|token)\]/g, "[id]");
+    const normalise = (s: string) => s.replace(/\[(userId|token|stepId|threadId)\]/g, "[id]");
     const missing = onDisk.map(normalise).filter((r) => !covered.has(r));
     expect(missing).toEqual([]);
   });

@@ -12,7 +12,10 @@ type Ctx = { params: Promise<{ slug: string }> };
 
 export const GET = route(async (req, { params }: Ctx) => {
   const { member } = await inGroup(req, (await params).slug);
-  const analysisId = new URL(req.url).searchParams.get("analysisId");
+  const url = new URL(req.url);
+  const analysisId = url.searchParams.get("analysisId");
+  // ?once=1: answer with the opening comment and close (a cheap reachability probe for scripts).
+  if (url.searchParams.get("once") === "1") return new Response(": connected\n\n", { headers: { "content-type": "text/event-stream" } });
   const encoder = new TextEncoder();
   let cleanup = () => {};
   const stream = new ReadableStream<Uint8Array>({
