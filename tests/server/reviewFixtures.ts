@@ -3,6 +3,7 @@
  * demo curve (C = γT + βT³ with made-up γ, β; not a measurement), and an analysis whose first
  * revision has a data step and a note step with outputs computed by the notebook engine.
  */
+import { randomUUID } from "node:crypto";
 import type { Db } from "../../lib/server/db/client";
 import { makeGroup, type GroupFixture } from "./fixtures";
 import { createSample } from "../../lib/server/samples";
@@ -44,7 +45,8 @@ export async function makeAnalysis(db: Db, g: GroupFixture, sampleId: string, me
 }
 
 /** Replace a revision's steps and store their computed outputs (what the notebook module will do). */
-export async function writeSteps(db: Db, groupId: string, sampleId: string, revisionId: string, specs: StepSpec[]): Promise<void> {
+export async function writeSteps(db: Db, groupId: string, sampleId: string, revisionId: string, given: StepSpec[]): Promise<void> {
+  const specs = given.map((s) => ({ ...s, id: randomUUID() }));
   const ctx = await loadContext(db, groupId, sampleId, specs);
   const outputs = computeChain(specs, ctx);
   const hashes = inputHashes(specs, ctx);
@@ -52,7 +54,7 @@ export async function writeSteps(db: Db, groupId: string, sampleId: string, revi
   for (const [i, s] of specs.entries())
     await db.step.create({
       data: {
-        revisionId, position: i, kind: s.kind, config: s.config as object, inputHash: hashes[i]!,
+        id: s.id, revisionId, position: i, kind: s.kind, config: s.config as object, inputHash: hashes[i]!,
         output: JSON.parse(JSON.stringify({ ...outputs[i]!, state: undefined })), engineVersion: ENGINE_VERSION, computedAt: new Date(),
       },
     });

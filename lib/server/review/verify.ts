@@ -25,7 +25,8 @@ export interface StepVerification {
   kind: string;
   inputHashReproduced: boolean;
   outcome: "identical" | "within-tolerance" | "differs";
-  maxRelDiff: number;
+  /** Largest relative difference of a number; null when something other than a number differs. */
+  maxRelDiff: number | null;
   firstDifference: string | null;
 }
 
@@ -64,7 +65,7 @@ export function reproduceSnapshot(s: RevisionSnapshot, engineVersion = ENGINE_VE
     const c = compareJson(JSON.parse(JSON.stringify(fresh)), s.outputs.steps[i]?.output ?? null, rel);
     return {
       stepId: st.id, position: st.position, kind: st.kind, inputHashReproduced: hashes[i] === st.inputHash,
-      outcome: c.exact ? "identical" : c.equal ? "within-tolerance" : "differs", maxRelDiff: c.maxRelDiff, firstDifference: c.firstDifference,
+      outcome: c.exact ? "identical" : c.equal ? "within-tolerance" : "differs", maxRelDiff: Number.isFinite(c.maxRelDiff) ? c.maxRelDiff : null, firstDifference: c.firstDifference,
     };
   });
 }
