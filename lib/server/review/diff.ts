@@ -9,6 +9,7 @@ import type { Db } from "../db/client";
 import { InputError, NotFoundError } from "../../engine/errors";
 import { authorise, type Member } from "../access";
 import { uuidOrNone } from "../samples";
+import { parseStepConfig } from "../../engine/notebook";
 import { chainResults, type ResultValue } from "./results";
 import type { RevisionSnapshot } from "./snapshot";
 
@@ -60,6 +61,15 @@ export function configChanges(a: unknown, b: unknown, path = ""): FieldChange[] 
   return [{ path: path || "(config)", from: a ?? null, to: b ?? null }];
 }
 
+/** The configuration with its defaults filled, so an omitted default is not a change. */
+function withDefaults(kind: string, config: unknown): unknown {
+  try {
+    return parseStepConfig(kind, config);
+  } catch {
+    return config;
+  }
+}
+
 function pairSteps(a: ChainStep[], b: ChainStep[]): StepDiff[] {
   const byKind = (xs: ChainStep[]) => { const m = new Map<string, ChainStep[]>(); for (const s of xs) m.set(s.kind, [...(m.get(s.kind) ?? []), s]); return m; };
   const ka = byKind(a), kb = byKind(b);
@@ -68,7 +78,7 @@ function pairSteps(a: ChainStep[], b: ChainStep[]): StepDiff[] {
     const xa = ka.get(kind) ?? [], xb = kb.get(kind) ?? [];
     for (let i = 0; i < Math.max(xa.length, xb.length); i++) {
       const sa = xa[i], sb = xb[i];
-      const changes = sa && sb ? configChanges(sa.config, sb.config) : [];
+      const changes = sa && sb ? configChanges(withDefaults(kind, sa.config), withDefaults(kind, sb.config)) : [];
       out.push({ status: !sa ? "added" : !sb ? "removed" : changes.length ? "changed" : "unchanged", kind, occurrence: i + 1, positionA: sa?.position ?? null, positionB: sb?.position ?? null, changes });
     }
   }
