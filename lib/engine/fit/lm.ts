@@ -68,6 +68,8 @@ interface State {
   r: Float64Array;
   chi: number;
   evaluations: number;
+  /** p changed since the Jacobian was last computed. */
+  moved: boolean;
 }
 
 /** Minimise the weighted χ² of `problem` from `p0`. Never throws for a poor fit. */
@@ -77,7 +79,7 @@ export function levenbergMarquardt(problem: LeastSquaresProblem, p0: ArrayLike<n
   const xtol = options.xtol ?? 1e-10;
   const ftol = options.ftol ?? 1e-14;
   const gtol = options.gtol ?? 1e-12;
-  const s: State = { p: Float64Array.from(p0), f: new Float64Array(m), r: new Float64Array(m), chi: NaN, evaluations: 0 };
+  const s: State = { p: Float64Array.from(p0), f: new Float64Array(m), r: new Float64Array(m), chi: NaN, evaluations: 0, moved: true };
   clampInto(problem, s.p);
   problem.model(s.p, s.f);
   s.evaluations++;
@@ -88,6 +90,7 @@ export function levenbergMarquardt(problem: LeastSquaresProblem, p0: ArrayLike<n
   let lambda = 1e-3;
   for (let iter = 1; ; iter++) {
     weightedJacobian(problem, s.p, J);
+    s.moved = false;
     if (!J.every(Number.isFinite)) return done(problem, s, J, false, "derivatives are not finite", iter);
     if (s.chi === 0) return done(problem, s, J, true, "exact fit (χ² = 0)", iter);
     const g = new Float64Array(n);
@@ -145,12 +148,29 @@ function iterate(
   const dk = Float64Array.from(cols, (j) => D[j]);
   let tail = 0;
   for (let i = k; i < m; i++) tail += qtr[i] * qtr[i];
-  const gn = gaussNewtonRelativeStep(f.rdiag, rk, m, k, qtr, cols, D, s.p);
-  if (gn <= tol.xtol) return { lambda: lambda0, stop: true, converged: true, message: "Gauss–Newton step below tolerance" };
+  const gnStep = new Float64Array(k);
+  const gn = gaussNewtonRelativeStep(f.rdiag, rk, m, k, qtr, cols, D, s.p, gnStep);
   let lambda = lambda0;
   const pNew = new Float64Array(s.p.length);
   const fNew = new Float64Array(m);
   const rNew = new Float64Array(m);
+  if (gn <= tol.xtol) {
+    // take the (tiny) final Gauss–Newton step when it does not raise χ²: quadratic convergence
+    pNew.set(s.p);
+    cols.forEach((j, c) => (pNew[j] += gnStep[c]));
+    clampInto(problem, pNew);
+    problem.model(pNew, fNew);
+    s.evaluations++;
+    const chiNew = weightedResiduals(problem, fNew, rNew);
+    if (Number.isFinite(chiNew) && chiNew <= s.chi) {
+      s.p.set(pNew);
+      s.f.set(fNew);
+      s.r.set(rNew);
+      s.chi = chiNew;
+      s.moved = true;
+    }
+    return { lambda: lambda0, stop: true, converged: true, message: "Gauss–Newton step below tolerance" };
+  }
   for (;;) {
     if (s.evaluations >= tol.maxEval) return { lambda, stop: true, converged: false, message: `no convergence within ${tol.maxEval} evaluations` };
     const step = dampedStep(rk, m, k, qtr, dk, lambda);
@@ -181,6 +201,7 @@ function iterate(
       s.f.set(fNew);
       s.r.set(rNew);
       s.chi = chiNew;
+      s.moved = true;
       if (Math.sqrt(dxNorm) <= tol.xtol * (Math.sqrt(xNorm) + tol.xtol)) return { lambda, stop: true, converged: true, message: "relative step below tolerance" };
       if (actualRel <= tol.ftol && predRel <= tol.ftol) return { lambda, stop: true, converged: true, message: "relative χ² change below tolerance" };
       return { lambda: Math.max(lambda / 10, 1e-12), stop: false, converged: false, message: "" };
@@ -195,8 +216,7 @@ function iterate(
 }
 
 /** ‖DΔ_GN‖ / (‖Dp‖ + tiny) for the undamped step, or Infinity when R is singular. */
-function gaussNewtonRelativeStep(rdiag: Float64Array, rk: Float64Array, m: number, k: number, qtr: Float64Array, cols: number[], D: Float64Array, p: Float64Array): number {
-  const step = new Float64Array(k);
+function gaussNewtonRelativeStep(rdiag: Float64Array, rk: Float64Array, m: number, k: number, qtr: Float64Array, cols: number[], D: Float64Array, p: Float64Array, step: Float64Array): number {
   for (let i = k - 1; i >= 0; i--) {
     if (rdiag[i] === 0) return Infinity;
     let v = qtr[i];
@@ -224,7 +244,7 @@ function deadColumn(J: Float64Array, m: number, D: Float64Array): number {
 
 function done(problem: LeastSquaresProblem, s: State, J: Float64Array, converged: boolean, message: string, iterations: number, D?: Float64Array): LevenbergMarquardtResult {
   // the Jacobian at the final point is refreshed for the covariance
-  weightedJacobian(problem, s.p, J);
+  if (s.moved) weightedJacobian(problem, s.p, J);
   const dead = converged && D ? deadColumn(J, problem.m, D) : -1;
   if (dead >= 0) {
     converged = false;

@@ -23,7 +23,10 @@ const EPS = 2.220446049250313e-16;
 export interface LinearLeastSquaresOptions {
   /** Standard uncertainty of each y (same length); weights are 1/σ². */
   readonly sigma?: ArrayLike<number>;
-  /** Refinement steps: "auto" (default) refines only ill-conditioned problems, up to 4 steps. */
+  /**
+   * "auto" (default): ill-conditioned problems get up to 4 double-double Björck steps, the
+   * others one fixed-precision correction; a number n > 0 forces n Björck steps; 0 none.
+   */
   readonly refine?: "auto" | number;
 }
 
@@ -112,6 +115,35 @@ function emptyResult(m: number, rank: number, kappa: number): LinearLeastSquares
   return { fullRank: false, rank, coefficients: new Float64Array(0), covariance: new Float64Array(0), residuals: new Float64Array(m), chiSquare: NaN, conditionEstimate: kappa, refinementSteps: 0 };
 }
 
+/** r ← r − W A S z for the weighted, column-scaled design (S a power of two: exact). */
+function subtractDesign(design: Float64Array, m: number, n: number, w: Float64Array | null, z: ArrayLike<number>, scale: Float64Array, r: Float64Array): void {
+  for (let j = 0; j < n; j++) {
+    const o = j * m;
+    const xj = z[j] * scale[j];
+    if (w) for (let i = 0; i < m; i++) r[i] -= design[o + i] * w[i] * xj;
+    else for (let i = 0; i < m; i++) r[i] -= design[o + i] * xj;
+  }
+}
+
+/** Rows scaled by w = 1/σ, columns by exact powers of two to unit norm; one pass to copy, one to scale. */
+function scaledDesign(design: Float64Array, m: number, n: number, w: Float64Array | null, scale: Float64Array | null): { a: Float64Array; scale: Float64Array; finite: boolean } {
+  const a = new Float64Array(m * n);
+  const sc = scale ?? new Float64Array(n);
+  let finite = true;
+  for (let j = 0; j < n; j++) {
+    const o = j * m;
+    let s = 0;
+    if (w) for (let i = 0; i < m; i++) s += (a[o + i] = design[o + i] * w[i]) ** 2;
+    else for (let i = 0; i < m; i++) s += (a[o + i] = design[o + i]) ** 2;
+    if (!Number.isFinite(s)) finite = false;
+    // exact power of two: scaling introduces no rounding
+    if (!scale) sc[j] = s > 0 && Number.isFinite(s) ? 2 ** -Math.round(Math.log2(Math.sqrt(s))) : 1;
+    const f = sc[j];
+    if (f !== 1) for (let i = 0; i < m; i++) a[o + i] *= f;
+  }
+  return { a, scale: sc, finite };
+}
+
 /**
  * Solve the weighted linear least-squares problem for a column-major m×n design.
  * The design and y are not modified.
@@ -124,42 +156,59 @@ export function solveLinearLeastSquares(
   options: LinearLeastSquaresOptions = {},
 ): LinearLeastSquaresResult {
   const { sigma } = options;
-  checkInputs(design, m, n, y, sigma);
-  if (m < n || n === 0) return emptyResult(m, Math.min(m, n), Infinity);
-  const as = new Float64Array(design);
+  if (design.length !== m * n || y.length !== m || (sigma && sigma.length !== m)) checkInputs(design, m, n, y, sigma);
+  // rows are weighted by w = 1/σ (computed once; the same rounded w everywhere below)
+  const w = sigma ? new Float64Array(m) : null;
   const b = new Float64Array(m);
-  for (let i = 0; i < m; i++) b[i] = sigma ? y[i] / sigma[i] : y[i];
-  if (sigma) for (let j = 0; j < n; j++) for (let i = 0; i < m; i++) as[j * m + i] /= sigma[i];
-  const scale = new Float64Array(n);
-  for (let j = 0; j < n; j++) {
-    let s = 0;
-    for (let i = 0; i < m; i++) s += as[j * m + i] ** 2;
-    // exact power of two: scaling introduces no rounding
-    scale[j] = s > 0 ? 2 ** -Math.round(Math.log2(Math.sqrt(s))) : 1;
-    for (let i = 0; i < m; i++) as[j * m + i] *= scale[j];
-  }
-  const f = qrFactor(new Float64Array(as), m, n);
+  let bs = 0;
+  if (w) {
+    for (let i = 0; i < m; i++) {
+      if (!(sigma![i] > 0 && sigma![i] < Infinity)) checkInputs(design, m, n, y, sigma);
+      w[i] = 1 / sigma![i];
+      bs += b[i] = y[i] * w[i];
+    }
+  } else for (let i = 0; i < m; i++) bs += b[i] = y[i];
+  const { a, scale, finite } = scaledDesign(design, m, n, w, null);
+  if (!finite || !Number.isFinite(bs)) checkInputs(design, m, n, y, sigma);
+  if (m < n || n === 0) return emptyResult(m, Math.min(m, n), Infinity);
+  const f = qrFactor(a, m, n);
   const rank = rankOf(f);
   if (rank < n) return emptyResult(m, rank, Infinity);
   const rinv = invertR(f);
   let rinvF = 0;
   for (let k = 0; k < n * n; k++) rinvF += rinv[k] * rinv[k];
   const kappa = frobeniusUpper(f) * Math.sqrt(rinvF);
-  const c = new Float64Array(b);
-  applyQt(f, c);
-  const z = c.slice(0, n);
+  const z = new Float64Array(b);
+  applyQt(f, z);
   solveR(f, z);
-  const r = new Float64Array(m);
-  for (let i = n; i < m; i++) r[i] = c[i];
-  applyQ(f, r);
   const maxSteps = options.refine === "auto" || options.refine === undefined ? (kappa > REFINE_KAPPA ? 4 : 0) : options.refine;
+  const r = new Float64Array(b);
   let steps = 0;
   if (maxSteps > 0) {
+    // Björck: start from r = Q[0; c₂] and refine (r, z) together against the unfactored design
+    const c = new Float64Array(b);
+    applyQt(f, c);
+    r.fill(0, 0, n);
+    r.set(c.subarray(n), n);
+    applyQ(f, r);
+    const as = scaledDesign(design, m, n, w, scale).a;
     const hi = new Float64Array(m);
     const lo = new Float64Array(m);
     while (steps < maxSteps) {
       steps++;
-      if (refineStep(f, as, b, z, r, hi, lo) <= 4 * EPS) break;
+      // the next correction is about κ·ε times this one: stop once that is below rounding
+      if (refineStep(f, as, b, z, r, hi, lo) * kappa <= 1) break;
+    }
+  } else {
+    subtractDesign(design, m, n, w, z, scale, r);
+    if (options.refine !== 0) {
+      // one fixed-precision correction z += R⁻¹Qᵀ(b − Az): cheap, and recovers the digits
+      // lost to rounding in the factorisation of a well-conditioned problem
+      const d = new Float64Array(r);
+      applyQt(f, d);
+      solveR(f, d);
+      for (let j = 0; j < n; j++) z[j] += d[j];
+      subtractDesign(design, m, n, w, d.subarray(0, n), scale, r);
     }
   }
   return finish(m, n, z, r, scale, rinv, sigma, kappa, steps);

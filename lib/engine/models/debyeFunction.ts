@@ -22,9 +22,13 @@ export function debyeIntegral3(y: number): number {
   if (y === Infinity) return PI4_15;
   if (y <= 2) return integrateGauss((x) => (x === 0 ? 0 : (x * x * x) / Math.expm1(x)), 0, y, 20);
   const kMax = y > 40 ? 1 : Math.ceil(40 / y) + 1;
+  const e1 = Math.exp(-y);
+  let ek = 1;
   let tail = 0;
-  for (let k = kMax; k >= 1; k--) {
-    tail += Math.exp(-k * y) * (y * y * y / k + (3 * y * y) / (k * k) + (6 * y) / (k * k * k) + 6 / (k * k * k * k));
+  for (let k = 1; k <= kMax; k++) {
+    ek *= e1;
+    const ik = 1 / k;
+    tail += ek * ik * (y * y * y + ik * (3 * y * y + ik * (6 * y + 6 * ik)));
   }
   return PI4_15 - tail;
 }
