@@ -111,10 +111,11 @@ async function loadChain(db: Db, member: Member, id: string) {
   return { rev, steps };
 }
 
-/** Diff revision `aId` (older) against `bId` (newer) of the same analysis. */
-export async function diffRevisions(db: Db, member: Member, aId: string, bId: string): Promise<RevisionDiff> {
+/** Diff revision `aId` (older) against `bId` (newer) of the same analysis (`analysisId`, if given). */
+export async function diffRevisions(db: Db, member: Member, aId: string, bId: string, analysisId?: string): Promise<RevisionDiff> {
   authorise(member, "group.read");
   const [a, b] = await Promise.all([loadChain(db, member, aId), loadChain(db, member, bId)]);
+  if (analysisId !== undefined && a.rev.analysisId !== analysisId) throw new NotFoundError("revision");
   if (a.rev.analysisId !== b.rev.analysisId) throw new InputError("the two revisions belong to different analyses", { field: "b" });
   return {
     a: { id: a.rev.id, number: a.rev.number, state: a.rev.state },

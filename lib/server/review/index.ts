@@ -12,6 +12,7 @@
  *   listNotices / setNoticeRead / markAllNoticesRead
  *   reviewStatus(db, member, analysisId)          revisions, decisions, lock, allowed actions
  *   lockViolation(err)                            a database lock refusal as ConflictError
+ *   listAuditEvents(db, member, opts)             the group's audit trail (owners)
  */
 export { checkTransition, availableActions, TRANSITIONS, REVIEW_ACTIONS, SUPERSEDE } from "./states";
 export type { RevisionState, ReviewAction, TransitionRule, TransitionRequest, TransitionVerdict } from "./states";
@@ -27,3 +28,4 @@ export { awaitingMyReview, sentBackToMe, type QueueItem, type ReturnedItem } fro
 export { listNotices, setNoticeRead, markAllNoticesRead, sendNotices, type NoticeView } from "./notices";
 export { reviewStatus, type ReviewStatus } from "./status";
 export { lockViolation, isLockViolation } from "./lockError";
+export { listAuditEvents, type AuditEventView } from "./auditLog";

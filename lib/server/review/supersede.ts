@@ -11,6 +11,7 @@ import { authorise, type Member } from "../access";
 import { uuidOrNone } from "../samples";
 import { computeRevisionSteps } from "../notebook/compute";
 import type { Tx } from "./notices";
+import { lockViolation } from "./lockError";
 import { randomUUID } from "node:crypto";
 
 /** Mark every other sealed revision of the analysis replaced; returns their ids. */
@@ -68,6 +69,8 @@ export async function reviseSealed(db: Db, member: Member, analysisId: string): 
       detail: { analysisId: a.id, number, basedOnId: sealed.id, basedOnNumber: sealed.number, steps: steps.length },
     });
     return { revisionId: created.id, number, basedOnId: sealed.id, version: created.version, steps: steps.length };
+  }).catch((err: unknown) => {
+    throw lockViolation(err);
   });
   // Outputs are computed afresh (they may name step ids of the sealed revision).
   await computeRevisionSteps(db, member.group.id, a.sampleId, result.revisionId, "edit");

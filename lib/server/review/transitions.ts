@@ -22,6 +22,7 @@ import { checkTransition, REVIEW_ACTIONS, type ReviewAction, type RevisionState,
 import { buildSnapshot, readinessProblems } from "./snapshot";
 import { sendNotices, type Tx } from "./notices";
 import { supersedeSealed } from "./supersede";
+import { lockViolation } from "./lockError";
 
 export const transitionSchema = z.object({
   action: z.enum(REVIEW_ACTIONS as [ReviewAction, ...ReviewAction[]]),
@@ -129,7 +130,9 @@ export async function reviewTransition(db: Db, member: Member, analysisId: strin
       detail: { analysisId: a.id, number: rev.number, from: rev.state, to: rule.to, ...(req.comment?.trim() ? { comment: req.comment.trim() } : {}), ...(decisionId ? { decisionId } : {}), ...(replaced.length ? { replaced } : {}) },
     });
     return { revisionId: rev.id, number: rev.number, from: rev.state, state: rule.to, version: rev.version + 1, contentHash: sealed?.contentHash ?? null, decisionId, replacedRevisionIds: replaced };
-  }, { timeout: 60_000 });
+  }, { timeout: 60_000 }).catch((err: unknown) => {
+    throw lockViolation(err);
+  });
 }
 
 interface NoticeFacts {

@@ -1,0 +1,27 @@
+import { NextResponse } from "next/server";
+import { z } from "zod";
+import { route, jsonBody } from "@/lib/server/http";
+import { inGroup } from "@/lib/server/handler";
+import { reviewStatus, reviewTransition } from "@/lib/server/review";
+import { parseInput } from "@/lib/server/validate";
+
+export const dynamic = "force-dynamic";
+type Ctx = { params: Promise<{ slug: string; id: string }> };
+
+/** The review picture: revisions, decisions, seals, and the actions the caller may take. */
+export const GET = route(async (req, { params }: Ctx) => {
+  const { slug, id } = await params;
+  const { db, member } = await inGroup(req, slug);
+  return NextResponse.json({ review: await reviewStatus(db, member, id) });
+});
+
+const bodySchema = z.object({ revisionId: z.string().min(1, "name the revision") }).passthrough();
+
+/** A review action: { revisionId, action: submit|withdraw|return|approve|resubmit, version, comment? }. */
+export const POST = route(async (req, { params }: Ctx) => {
+  const { slug, id } = await params;
+  const { db, member } = await inGroup(req, slug);
+  const body = await jsonBody(req);
+  const { revisionId, ...rest } = parseInput(bodySchema, body);
+  return NextResponse.json({ transition: await reviewTransition(db, member, id, revisionId, rest) });
+});
