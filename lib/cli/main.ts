@@ -12,6 +12,7 @@ const COMMANDS: Record<string, () => Promise<{ run: Command }>> = {
   regress: () => import("./commands/regress"),
   derive: () => import("./commands/derive"),
   model: () => import("./commands/model"),
+  audit: () => import("./commands/audit"),
 };
 
 const USAGE = `usage: heatbook <command> [options]
