@@ -1,12 +1,13 @@
 /**
  * General regression y = f(x; p) for a user expression (CLI `regress`, NIST checks).
- * Linear-in-parameter expressions are solved by QR (no start needed); others by LM from
+ * The variable is x (or T when only T is used). Linear-in-parameter expressions are solved by QR (no start needed); others by LM from
  * `start` (every parameter needs a value). Units of x, y, σ are the caller's; parameter
  * units are reported as "" (unknown).
  * Failure modes: InputError for unequal lengths, non-finite values, σ ≤ 0, a missing start
  * value or a start/fixed name that the expression does not use.
  */
 import { compileExpression, type CompiledExpression } from "../expression/compile";
+import { collectSymbols, parseUserExpression } from "../expression/validate";
 import { InputError } from "../errors";
 import { fitCore, type ModelCore } from "./core";
 import type { FitResult } from "./result";
@@ -56,7 +57,10 @@ export function fitCurve(
   options: FitCurveOptions = {},
 ): FitResult {
   const data = checkSeries(x, y, sigma, ["x", "y", "sigma"]);
-  const compiled = compileExpression(expression, { variable: options.variable ?? "x" });
+  // the variable is x, or T when the expression uses T and not x
+  const symbols = collectSymbols(parseUserExpression(expression));
+  const variable = options.variable ?? (!symbols.includes("x") && symbols.includes("T") ? "T" : "x");
+  const compiled = compileExpression(expression, { variable });
   const names = compiled.parameters;
   for (const key of [...Object.keys(start), ...Object.keys(options.fixed ?? {}), ...Object.keys(options.bounds ?? {})]) {
     if (!names.includes(key)) throw new InputError(`unknown parameter ${JSON.stringify(key)} (the expression has ${names.join(", ")})`, { field: key });

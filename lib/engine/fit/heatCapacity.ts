@@ -124,10 +124,11 @@ function checkNames(names: readonly string[], options: HeatCapacityFitOptions): 
 function registrySetup(model: HeatCapacityModel, data: { temperatureK: Float64Array; heatCapacity: Float64Array }, options: HeatCapacityFitOptions) {
   const names = model.parameters.map((p) => p.name);
   checkNames(names, options);
-  const guess = model.guess(data, { r: options.r });
+  const given = (n: string) => options.fixed?.[n] !== undefined || options.start?.[n] !== undefined;
+  const guess = names.every(given) ? {} : model.guess(data, { r: options.r });
   const fixed = model.parameters.map((p) => options.fixed?.[p.name] !== undefined || (p.fixedByDefault !== undefined && !options.free?.includes(p.name)));
   const start = Float64Array.from(model.parameters, (p) => {
-    const v = options.fixed?.[p.name] ?? options.start?.[p.name] ?? (typeof p.fixedByDefault === "number" ? p.fixedByDefault : undefined) ?? guess[p.name];
+    const v = options.fixed?.[p.name] ?? options.start?.[p.name] ?? (typeof p.fixedByDefault === "number" ? p.fixedByDefault : undefined) ?? (guess as Record<string, number | undefined>)[p.name];
     if (v === undefined || !Number.isFinite(v)) {
       if (p.fixedByDefault === "required") throw new InputError(`model ${model.name} needs ${p.name} (${p.description}) in fixed or start`, { field: p.name });
       if (!model.linear) throw new InputError(`start value needed for ${p.name}`, { field: p.name });

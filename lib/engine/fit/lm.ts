@@ -11,7 +11,8 @@
  * a message. References: Marquardt, J. SIAM 11 (1963) 431; Moré, Lecture Notes in
  * Mathematics 630 (1978) 105.
  */
-import { applyQt, qrFactor, solveR } from "../linalg/qr";
+import { applyQt, qrFactor } from "../linalg/qr";
+import { activeColumns, clampInto, dampedStep, deadColumn, gaussNewtonRelativeStep, onBounds } from "./lmSteps";
 import {
   weightedJacobian,
   weightedResiduals,
@@ -23,44 +24,6 @@ import {
 const LAMBDA_MAX = 1e16;
 /** Undamped step accepted as converged when χ² has stopped decreasing: ≈ 7 correct digits. */
 const GN_ROUNDING_LEVEL = 1e-7;
-
-function clampInto(problem: LeastSquaresProblem, p: Float64Array): void {
-  const { lower, upper } = problem;
-  for (let j = 0; j < p.length; j++) {
-    if (lower && p[j] < lower[j]) p[j] = lower[j];
-    if (upper && p[j] > upper[j]) p[j] = upper[j];
-  }
-}
-
-function onBounds(problem: LeastSquaresProblem, p: Float64Array): boolean[] {
-  return Array.from(p, (v, j) => (problem.lower !== undefined && v === problem.lower[j]) || (problem.upper !== undefined && v === problem.upper[j]));
-}
-
-/** Indices of parameters free to move this iteration (not pushed against a bound). */
-function activeColumns(problem: LeastSquaresProblem, p: Float64Array, g: Float64Array): number[] {
-  const cols: number[] = [];
-  for (let j = 0; j < p.length; j++) {
-    const atLower = problem.lower !== undefined && p[j] <= problem.lower[j] && g[j] <= 0;
-    const atUpper = problem.upper !== undefined && p[j] >= problem.upper[j] && g[j] >= 0;
-    if (!atLower && !atUpper) cols.push(j);
-  }
-  return cols;
-}
-
-/** Solve the damped subproblem from R (k×k of J restricted), c = (Qᵀr)[0..k). */
-function dampedStep(rk: Float64Array, mk: number, k: number, c: Float64Array, d: Float64Array, lambda: number): Float64Array {
-  const a = new Float64Array(2 * k * k);
-  for (let j = 0; j < k; j++) {
-    for (let i = 0; i <= j; i++) a[j * 2 * k + i] = rk[j * mk + i];
-    a[j * 2 * k + k + j] = Math.sqrt(lambda) * d[j];
-  }
-  const f = qrFactor(a, 2 * k, k);
-  const rhs = new Float64Array(2 * k);
-  rhs.set(c.subarray(0, k));
-  applyQt(f, rhs);
-  solveR(f, rhs);
-  return rhs.subarray(0, k);
-}
 
 interface State {
   p: Float64Array;
@@ -167,7 +130,7 @@ function iterate(
       s.f.set(fNew);
       s.r.set(rNew);
       s.chi = chiNew;
-      s.moved = true;
+      // J is kept: the step is below xtol relative, so J at the new point differs by less than that
     }
     return { lambda: lambda0, stop: true, converged: true, message: "Gauss–Newton step below tolerance" };
   }
@@ -213,33 +176,6 @@ function iterate(
       return { lambda, stop: true, converged: false, message: "no step reduces χ² (damping overflow): not at a verified minimum" };
     }
   }
-}
-
-/** ‖DΔ_GN‖ / (‖Dp‖ + tiny) for the undamped step, or Infinity when R is singular. */
-function gaussNewtonRelativeStep(rdiag: Float64Array, rk: Float64Array, m: number, k: number, qtr: Float64Array, cols: number[], D: Float64Array, p: Float64Array, step: Float64Array): number {
-  for (let i = k - 1; i >= 0; i--) {
-    if (rdiag[i] === 0) return Infinity;
-    let v = qtr[i];
-    for (let c = i + 1; c < k; c++) v -= rk[c * m + i] * step[c];
-    step[i] = v / rdiag[i];
-  }
-  let dx = 0;
-  let x = 0;
-  cols.forEach((j, c) => {
-    dx += (D[j] * step[c]) ** 2;
-    x += (D[j] * p[j]) ** 2;
-  });
-  return Math.sqrt(dx) / (Math.sqrt(x) + 1e-300);
-}
-
-/** A column whose norm fell below 1e-10 of its largest value means a parameter stopped mattering (plateau). */
-function deadColumn(J: Float64Array, m: number, D: Float64Array): number {
-  for (let j = 0; j < D.length; j++) {
-    let nj = 0;
-    for (let i = 0; i < m; i++) nj += J[j * m + i] ** 2;
-    if (Math.sqrt(nj) <= 1e-10 * D[j]) return j;
-  }
-  return -1;
 }
 
 function done(problem: LeastSquaresProblem, s: State, J: Float64Array, converged: boolean, message: string, iterations: number, D?: Float64Array): LevenbergMarquardtResult {

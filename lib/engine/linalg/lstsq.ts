@@ -13,8 +13,8 @@
  * `rank < n` (and no solution) when a column is zero or numerically dependent.
  */
 import { InputError } from "../errors";
-import { applyQ, applyQt, covarianceFromRinv, invertR, qrFactor, solveR, solveRt, type QRFactor } from "./qr";
-import { ddDot, ddSubtractScaledColumn } from "./dd";
+import { applyQ, applyQt, covarianceFromRinv, invertR, qrFactor, solveR, type QRFactor } from "./qr";
+import { refineStep, scaledDesign, subtractDesign } from "./refine";
 
 /** Refine when the column-scaled condition estimate exceeds this (plain QR keeps ~16 − 2·log10 κ digits). */
 const REFINE_KAPPA = 1e3;
@@ -79,69 +79,8 @@ function frobeniusUpper(f: QRFactor): number {
   return Math.sqrt(s);
 }
 
-/** One Björck refinement step; returns ‖Δz‖∞/‖z‖∞. */
-function refineStep(f: QRFactor, as: Float64Array, b: Float64Array, z: Float64Array, r: Float64Array, hi: Float64Array, lo: Float64Array): number {
-  const { m, n } = f;
-  for (let i = 0; i < m; i++) {
-    const s = b[i] - r[i];
-    const bb = s - b[i];
-    hi[i] = s;
-    lo[i] = b[i] - (s - bb) - (r[i] + bb);
-  }
-  for (let j = 0; j < n; j++) ddSubtractScaledColumn(hi, lo, as, j * m, m, z[j]);
-  const d = new Float64Array(m);
-  for (let i = 0; i < m; i++) d[i] = hi[i] + lo[i];
-  const h = new Float64Array(m);
-  for (let j = 0; j < n; j++) h[j] = -ddDot(as, j * m, r, m);
-  solveRt(f, h);
-  applyQt(f, d);
-  let dzMax = 0;
-  let zMax = 0;
-  const dz = new Float64Array(n);
-  for (let j = 0; j < n; j++) dz[j] = d[j] - h[j];
-  solveR(f, dz);
-  for (let j = 0; j < n; j++) {
-    z[j] += dz[j];
-    dzMax = Math.max(dzMax, Math.abs(dz[j]));
-    zMax = Math.max(zMax, Math.abs(z[j]));
-  }
-  for (let i = n; i < m; i++) h[i] = d[i];
-  applyQ(f, h);
-  for (let i = 0; i < m; i++) r[i] += h[i];
-  return zMax === 0 ? 0 : dzMax / zMax;
-}
-
 function emptyResult(m: number, rank: number, kappa: number): LinearLeastSquaresResult {
   return { fullRank: false, rank, coefficients: new Float64Array(0), covariance: new Float64Array(0), residuals: new Float64Array(m), chiSquare: NaN, conditionEstimate: kappa, refinementSteps: 0 };
-}
-
-/** r ← r − W A S z for the weighted, column-scaled design (S a power of two: exact). */
-function subtractDesign(design: Float64Array, m: number, n: number, w: Float64Array | null, z: ArrayLike<number>, scale: Float64Array, r: Float64Array): void {
-  for (let j = 0; j < n; j++) {
-    const o = j * m;
-    const xj = z[j] * scale[j];
-    if (w) for (let i = 0; i < m; i++) r[i] -= design[o + i] * w[i] * xj;
-    else for (let i = 0; i < m; i++) r[i] -= design[o + i] * xj;
-  }
-}
-
-/** Rows scaled by w = 1/σ, columns by exact powers of two to unit norm; one pass to copy, one to scale. */
-function scaledDesign(design: Float64Array, m: number, n: number, w: Float64Array | null, scale: Float64Array | null): { a: Float64Array; scale: Float64Array; finite: boolean } {
-  const a = new Float64Array(m * n);
-  const sc = scale ?? new Float64Array(n);
-  let finite = true;
-  for (let j = 0; j < n; j++) {
-    const o = j * m;
-    let s = 0;
-    if (w) for (let i = 0; i < m; i++) s += (a[o + i] = design[o + i] * w[i]) ** 2;
-    else for (let i = 0; i < m; i++) s += (a[o + i] = design[o + i]) ** 2;
-    if (!Number.isFinite(s)) finite = false;
-    // exact power of two: scaling introduces no rounding
-    if (!scale) sc[j] = s > 0 && Number.isFinite(s) ? 2 ** -Math.round(Math.log2(Math.sqrt(s))) : 1;
-    const f = sc[j];
-    if (f !== 1) for (let i = 0; i < m; i++) a[o + i] *= f;
-  }
-  return { a, scale: sc, finite };
 }
 
 /**

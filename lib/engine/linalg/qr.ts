@@ -19,6 +19,14 @@ export interface QRFactor {
 }
 
 function columnNorm(a: Float64Array, from: number, to: number): number {
+  let sum = 0;
+  for (let i = from; i < to; i++) sum += a[i] * a[i];
+  // one pass unless the sum of squares under- or overflowed; then rescale (two passes)
+  if (sum > 1e-290 && sum < 1e290) return Math.sqrt(sum);
+  return scaledNorm(a, from, to);
+}
+
+function scaledNorm(a: Float64Array, from: number, to: number): number {
   let scale = 0;
   for (let i = from; i < to; i++) scale = Math.max(scale, Math.abs(a[i]));
   if (scale === 0) return 0;
