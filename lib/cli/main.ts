@@ -12,6 +12,9 @@ const COMMANDS: Record<string, () => Promise<{ run: Command }>> = {
   regress: () => import("./commands/regress"),
   derive: () => import("./commands/derive"),
   model: () => import("./commands/model"),
+  push: () => import("./commands/push"),
+  pull: () => import("./commands/pull"),
+  backup: () => import("./commands/backup"),
   audit: () => import("./commands/audit"),
 };
 
@@ -22,6 +25,9 @@ commands:
   regress FILE  weighted least squares of any expression y = f(x; parameters)
   derive        Θ_D, D(E_F), free-electron comparison from γ and β
   model NAME    evaluate a registered heat-capacity model
+  push FILE     upload a measurement file to a sample (HEATBOOK_URL, HEATBOOK_TOKEN)
+  pull          pull series ID [--csv] | pull analysis ID --json (HEATBOOK_URL, HEATBOOK_TOKEN)
+  backup        backup export --group SLUG --out FILE | backup restore FILE (DATABASE_URL)
 
 Run 'heatbook <command> --help' for the options of one command.`;
 
