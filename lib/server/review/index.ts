@@ -13,6 +13,7 @@
  *   reviewStatus(db, member, analysisId)          revisions, decisions, lock, allowed actions
  *   lockViolation(err)                            a database lock refusal as ConflictError
  *   listAuditEvents(db, member, opts)             the group's audit trail (owners)
+ *   buildReport / renderReportPdf                 the report object of a sealed revision, and its PDF
  */
 export { checkTransition, availableActions, TRANSITIONS, REVIEW_ACTIONS, SUPERSEDE } from "./states";
 export type { RevisionState, ReviewAction, TransitionRule, TransitionRequest, TransitionVerdict } from "./states";
@@ -29,3 +30,5 @@ export { listNotices, setNoticeRead, markAllNoticesRead, sendNotices, type Notic
 export { reviewStatus, type ReviewStatus } from "./status";
 export { lockViolation, isLockViolation } from "./lockError";
 export { listAuditEvents, type AuditEventView } from "./auditLog";
+export { buildReport, reportFromSnapshot, SAFETY_SENTENCE, type RevisionReport, type ReportValue } from "./report";
+export { renderReportPdf } from "./pdf";
