@@ -4,6 +4,7 @@
  * same work on the same invented, noiseless data; digits = min over parameters of
  * −log10(|value − truth|/|truth|) against the generating values.
  */
+import { loadavg } from "node:os";
 import { Matrix, QrDecomposition } from "ml-matrix";
 import { levenbergMarquardt as mlLevenbergMarquardt } from "ml-levenberg-marquardt";
 import { solveLinearLeastSquares } from "../lib/engine/linalg";
@@ -137,12 +138,23 @@ function debyeRows(): Row[] {
   ];
 }
 
+/** Time of a fixed scalar loop, to state how busy the machine was. */
+function calibrate(): number {
+  const t0 = performance.now();
+  let s = 0;
+  for (let i = 0; i < 1e8; i++) s += i * 1e-9;
+  return s > 0 ? performance.now() - t0 : NaN;
+}
+
 /** Run every case and return the markdown table. */
 export async function runEngineBench(): Promise<string> {
   const rows = [...[1e2, 1e3, 1e4, 1e5].map(linearRow), scanRow(), ...debyeRows()];
   const f = (ms: number) => (Number.isNaN(ms) ? "—" : ms < 0.1 ? ms.toFixed(4) : ms < 10 ? ms.toFixed(3) : ms.toFixed(1));
+  const load = loadavg()[0];
   const lines = [
     "### Engine: ours vs ml-matrix / ml-levenberg-marquardt (median ms; digits vs generating values)",
+    "",
+    `Machine state: 1-minute load average ${load.toFixed(1)}; a plain loop of 1e8 additions took ${calibrate().toFixed(0)} ms (≈ 100 ms on an idle core of this machine class). Timings scale with both.`,
     "",
     "| case | ours median ms | library median ms | ours digits | library digits |",
     "|---|---:|---:|---:|---:|",
