@@ -57,6 +57,7 @@ export async function renderReportPdf(report: RevisionReport): Promise<Uint8Arra
   for (const f of report.fits) {
     h(`Fit (step ${f.position + 1}): model ${f.model}, ${f.tMinK}–${f.tMaxK} K, ${f.nPoints} points, ${f.weighted ? "weighted by σ" : "unweighted"}${f.reducedChiSquare !== null ? `, χ²_red = ${f.reducedChiSquare.toPrecision(4)}` : ""}`);
     for (const p of f.parameters) line(`${p.symbol} = ${p.compact}`);
+    if (doc.y + 190 > doc.page.height - doc.page.margins.bottom) doc.addPage();
     const y = doc.y + 6;
     plotFit(doc, f, doc.page.margins.left, y, 300, 160);
     doc.x = doc.page.margins.left;

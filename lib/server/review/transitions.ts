@@ -95,7 +95,8 @@ export async function reviewTransition(db: Db, member: Member, analysisId: strin
   const found = await db.analysisRevision.findFirst({ where: { id: uuidOrNone(revisionId), analysisId: uuidOrNone(analysisId), analysis: { groupId: member.group.id } }, include: { analysis: true } });
   if (!found) throw new NotFoundError("revision");
   const a = found.analysis;
-  const pre = checkTransition({ action: req.action, state: found.state, role: member.role, isSubmitter: found.submittedById === member.userId, allowSelfApproval: member.group.allowSelfApproval, comment: req.comment ?? null });
+  // Early answer before any work; the self-approval setting is re-read under the row lock below.
+  const pre = checkTransition({ action: req.action, state: found.state, role: member.role, isSubmitter: found.submittedById === member.userId, allowSelfApproval: true, comment: req.comment ?? null });
   if (!pre.ok) refuse(pre.kind, pre.reason);
   // Fresh outputs for the reviewer: recompute stale steps before the revision freezes.
   if (req.action === "submit" || req.action === "resubmit") await computeRevisionSteps(db, member.group.id, a.sampleId, found.id, "edit");
