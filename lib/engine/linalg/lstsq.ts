@@ -1,11 +1,15 @@
 /**
  * Weighted linear least squares: minimise Σ_i w_i² (y_i − Σ_j A_ij x_j)², w_i = 1/σ_i.
  *
- * Method: rows scaled by w, columns scaled by exact powers of two to unit norm (no
- * rounding), Householder QR (never the normal equations), then — when the scaled problem
- * is ill-conditioned (κ > REFINE_KAPPA) or when asked — Björck's iterative refinement of the
- * augmented system [I A; Aᵀ 0][r; x] = [b; 0] with residuals accumulated in double-double.
- * The unscaled covariance (AᵀWA)⁻¹ = S R⁻¹R⁻ᵀ S comes from R⁻¹.
+ * Method: rows scaled by w, columns scaled by exact powers of two S to unit norm,
+ * Householder QR (never the normal equations), then — when the scaled problem is
+ * ill-conditioned (κ > REFINE_KAPPA) or when asked — Björck's iterative refinement of the
+ * augmented system [I A; Aᵀ 0][r; x] = [b; 0] with residuals accumulated in double-double;
+ * otherwise one fixed-precision correction. Householder QR commutes exactly with a
+ * power-of-two column scaling (every operation is scaled by an exact power of two), so S
+ * is applied implicitly: R of the scaled design is R·S bit for bit, and the rank test and
+ * the condition estimate κ = ‖RS‖_F‖(RS)⁻¹‖_F use it; x and (AᵀWA)⁻¹ = R⁻¹R⁻ᵀ need no
+ * rescaling. The covariance comes from R⁻¹.
  * Reference: Björck, BIT 7 (1967) 257 ("Iterative refinement of linear least squares
  * solutions I"); Golub & Van Loan §5.3.
  *
@@ -61,22 +65,26 @@ function checkInputs(design: Float64Array, m: number, n: number, y: ArrayLike<nu
   }
 }
 
-function rankOf(f: QRFactor): number {
+/** Numerical rank from the diagonal of R·S (S the column scaling). */
+function rankOf(f: QRFactor, scale: Float64Array): number {
   let max = 0;
-  for (let k = 0; k < f.n; k++) max = Math.max(max, Math.abs(f.rdiag[k]));
+  for (let k = 0; k < f.n; k++) max = Math.max(max, Math.abs(f.rdiag[k] * scale[k]));
   const tol = Math.max(f.m, f.n) * EPS * max;
   let rank = 0;
-  for (let k = 0; k < f.n; k++) if (Math.abs(f.rdiag[k]) > tol) rank++;
+  for (let k = 0; k < f.n; k++) if (Math.abs(f.rdiag[k] * scale[k]) > tol) rank++;
   return rank;
 }
 
-function frobeniusUpper(f: QRFactor): number {
-  let s = 0;
+/** ‖RS‖_F · ‖(RS)⁻¹‖_F from R and R⁻¹ (column-major n×n). */
+function conditionEstimate(f: QRFactor, rinv: Float64Array, scale: Float64Array): number {
+  let r2 = 0;
+  let i2 = 0;
   for (let j = 0; j < f.n; j++) {
-    s += f.rdiag[j] * f.rdiag[j];
-    for (let i = 0; i < j; i++) s += f.qr[j * f.m + i] ** 2;
+    r2 += (f.rdiag[j] * scale[j]) ** 2;
+    for (let i = 0; i < j; i++) r2 += (f.qr[j * f.m + i] * scale[j]) ** 2;
+    for (let i = 0; i <= j; i++) i2 += (rinv[j * f.n + i] / scale[i]) ** 2;
   }
-  return Math.sqrt(s);
+  return Math.sqrt(r2) * Math.sqrt(i2);
 }
 
 function emptyResult(m: number, rank: number, kappa: number): LinearLeastSquaresResult {
@@ -107,16 +115,15 @@ export function solveLinearLeastSquares(
       bs += b[i] = y[i] * w[i];
     }
   } else for (let i = 0; i < m; i++) bs += b[i] = y[i];
-  const { a, scale, finite } = scaledDesign(design, m, n, w, null);
+  const { a, scale, finite } = scaledDesign(design, m, n, w, false);
   if (!finite || !Number.isFinite(bs)) checkInputs(design, m, n, y, sigma);
   if (m < n || n === 0) return emptyResult(m, Math.min(m, n), Infinity);
   const f = qrFactor(a, m, n);
-  const rank = rankOf(f);
+  const rank = rankOf(f, scale);
   if (rank < n) return emptyResult(m, rank, Infinity);
   const rinv = invertR(f);
-  let rinvF = 0;
-  for (let k = 0; k < n * n; k++) rinvF += rinv[k] * rinv[k];
-  const kappa = frobeniusUpper(f) * Math.sqrt(rinvF);
+  const kappa = conditionEstimate(f, rinv, scale);
+  const unit = new Float64Array(n).fill(1);
   const z = new Float64Array(b);
   applyQt(f, z);
   solveR(f, z);
@@ -130,7 +137,7 @@ export function solveLinearLeastSquares(
     r.fill(0, 0, n);
     r.set(c.subarray(n), n);
     applyQ(f, r);
-    const as = scaledDesign(design, m, n, w, scale).a;
+    const as = scaledDesign(design, m, n, w, false).a;
     const hi = new Float64Array(m);
     const lo = new Float64Array(m);
     while (steps < maxSteps) {
@@ -139,7 +146,7 @@ export function solveLinearLeastSquares(
       if (refineStep(f, as, b, z, r, hi, lo) * kappa <= 1) break;
     }
   } else {
-    subtractDesign(design, m, n, w, z, scale, r);
+    subtractDesign(design, m, n, w, z, unit, r);
     if (options.refine !== 0) {
       // one fixed-precision correction z += R⁻¹Qᵀ(b − Az): cheap, and recovers the digits
       // lost to rounding in the factorisation of a well-conditioned problem
@@ -147,17 +154,15 @@ export function solveLinearLeastSquares(
       applyQt(f, d);
       solveR(f, d);
       for (let j = 0; j < n; j++) z[j] += d[j];
-      subtractDesign(design, m, n, w, d.subarray(0, n), scale, r);
+      subtractDesign(design, m, n, w, d.subarray(0, n), unit, r);
     }
   }
-  return finish(m, n, z, r, scale, rinv, sigma, kappa, steps);
+  return finish(m, n, z, r, rinv, sigma, kappa, steps);
 }
 
-function finish(m: number, n: number, z: Float64Array, r: Float64Array, scale: Float64Array, rinv: Float64Array, sigma: ArrayLike<number> | undefined, kappa: number, steps: number): LinearLeastSquaresResult {
-  const coefficients = new Float64Array(n);
-  for (let j = 0; j < n; j++) coefficients[j] = z[j] * scale[j];
+function finish(m: number, n: number, z: Float64Array, r: Float64Array, rinv: Float64Array, sigma: ArrayLike<number> | undefined, kappa: number, steps: number): LinearLeastSquaresResult {
+  const coefficients = z.slice(0, n);
   const cov = covarianceFromRinv(rinv, n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) cov[i * n + j] *= scale[i] * scale[j];
   let chi = 0;
   const residuals = new Float64Array(m);
   for (let i = 0; i < m; i++) {

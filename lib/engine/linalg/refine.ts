@@ -48,10 +48,13 @@ export function subtractDesign(design: Float64Array, m: number, n: number, w: Fl
   }
 }
 
-/** Rows scaled by w = 1/σ, columns by exact powers of two to unit norm; one pass to copy, one to scale. */
-export function scaledDesign(design: Float64Array, m: number, n: number, w: Float64Array | null, scale: Float64Array | null): { a: Float64Array; scale: Float64Array; finite: boolean } {
+/**
+ * The weighted design W·A (w = 1/σ; one pass per column) and the exact power-of-two column
+ * scaling S that brings each column to unit norm, applied to the copy only when `apply`.
+ */
+export function scaledDesign(design: Float64Array, m: number, n: number, w: Float64Array | null, apply: boolean): { a: Float64Array; scale: Float64Array; finite: boolean } {
   const a = new Float64Array(m * n);
-  const sc = scale ?? new Float64Array(n);
+  const sc = new Float64Array(n);
   let finite = true;
   for (let j = 0; j < n; j++) {
     const o = j * m;
@@ -59,10 +62,8 @@ export function scaledDesign(design: Float64Array, m: number, n: number, w: Floa
     if (w) for (let i = 0; i < m; i++) s += (a[o + i] = design[o + i] * w[i]) ** 2;
     else for (let i = 0; i < m; i++) s += (a[o + i] = design[o + i]) ** 2;
     if (!Number.isFinite(s)) finite = false;
-    // exact power of two: scaling introduces no rounding
-    if (!scale) sc[j] = s > 0 && Number.isFinite(s) ? 2 ** -Math.round(Math.log2(Math.sqrt(s))) : 1;
-    const f = sc[j];
-    if (f !== 1) for (let i = 0; i < m; i++) a[o + i] *= f;
+    sc[j] = s > 0 && Number.isFinite(s) ? 2 ** -Math.round(Math.log2(Math.sqrt(s))) : 1;
+    if (apply && sc[j] !== 1) for (let i = 0; i < m; i++) a[o + i] *= sc[j];
   }
   return { a, scale: sc, finite };
 }
