@@ -1,6 +1,6 @@
 "use client";
 /**
- * Section links (Home, Samples, Members) for the current group and the group switcher.
+ * Section links (Home, Samples, Analyses, Search, Members) for the current group and the group switcher.
  * The current group comes from the path (/g/<slug>/...); elsewhere the links lead to the
  * first group. Switching keeps the section (samples of one group → samples of the other).
  */
@@ -14,8 +14,12 @@ export interface NavGroup {
   role: string;
 }
 
-function section(pathname: string): "home" | "samples" | "members" | null {
+type Section = "home" | "samples" | "analyses" | "search" | "members";
+
+function section(pathname: string): Section | null {
   if (/^\/g\/[^/]+\/?$/.test(pathname)) return "home";
+  if (/^\/g\/[^/]+\/analyses/.test(pathname)) return "analyses";
+  if (/^\/g\/[^/]+\/search/.test(pathname)) return "search";
   if (/^\/g\/[^/]+\/(samples|measurements)/.test(pathname)) return "samples";
   if (/^\/g\/[^/]+\/members/.test(pathname)) return "members";
   return null;
@@ -38,12 +42,14 @@ export function GroupNav({ groups }: { groups: NavGroup[] }) {
     );
   }
   const p = groupPaths(active.slug);
-  const here = (s: "home" | "samples" | "members") => (current === active.slug && where === s ? "page" : undefined);
+  const here = (s: Section) => (current === active.slug && where === s ? "page" : undefined);
   return (
     <>
       <nav className="mainnav" aria-label="Main">
         <Link href={p.home} aria-current={here("home")}>Home</Link>
         <Link href={p.samples} aria-current={here("samples")}>Samples</Link>
+        <Link href={`${p.home}/analyses`} aria-current={here("analyses")}>Analyses</Link>
+        <Link href={`${p.home}/search`} aria-current={here("search")}>Search</Link>
         <Link href={p.members} aria-current={here("members")}>Members</Link>
       </nav>
       <span className="topbar-spacer" />
@@ -58,7 +64,7 @@ export function GroupNav({ groups }: { groups: NavGroup[] }) {
             if (!slug) return;
             if (slug === "__all") return router.push("/groups");
             const next = groupPaths(slug);
-            router.push(where === "samples" ? next.samples : where === "members" ? next.members : next.home);
+            router.push(where === "samples" ? next.samples : where === "members" ? next.members : where === "analyses" ? `${next.home}/analyses` : next.home);
           }}
         >
           {!(current && groups.some((g) => g.slug === current)) && <option value="">— choose —</option>}

@@ -69,3 +69,44 @@ export async function listRecentSamples(db: Db, member: Member, take = 8): Promi
   });
   return rows.map(toSampleInfo);
 }
+
+/** How many of the user's notices in this group are unread. */
+export async function countUnreadNotices(db: Db, member: Member): Promise<number> {
+  authorise(member, "group.read");
+  return db.notice.count({ where: { userId: member.userId, groupId: member.group.id, readAt: null } });
+}
+
+export interface WaitingThread {
+  threadId: string;
+  analysisId: string;
+  analysisTitle: string;
+  excerpt: string;
+  authorName: string;
+  at: string;
+}
+
+/**
+ * Open discussion threads of the group that mention the member (@ + the e-mail name part or the
+ * name without spaces, as lib/server/notebook/threads.ts recognises), newest first, at most `take`.
+ */
+export async function listThreadsWaitingForMe(db: Db, member: Member, take = 8): Promise<WaitingThread[]> {
+  authorise(member, "group.read");
+  const me = await db.user.findUnique({ where: { id: member.userId }, select: { email: true, name: true } });
+  if (!me) return [];
+  const handles = [...new Set([me.email.split("@")[0]!, me.name.replace(/\s+/g, "")].filter((h) => h.length > 0))];
+  const rows = await db.comment.findMany({
+    where: { thread: { groupId: member.group.id, state: "open" }, authorId: { not: member.userId }, OR: handles.map((h) => ({ body: { contains: `@${h}`, mode: "insensitive" as const } })) },
+    include: { author: { select: { name: true } }, thread: { select: { id: true, analysis: { select: { id: true, title: true } } } } },
+    orderBy: { createdAt: "desc" },
+    take: 50,
+  });
+  const seen = new Set<string>();
+  const out: WaitingThread[] = [];
+  for (const c of rows) {
+    if (seen.has(c.thread.id)) continue;
+    seen.add(c.thread.id);
+    out.push({ threadId: c.thread.id, analysisId: c.thread.analysis.id, analysisTitle: c.thread.analysis.title, excerpt: c.body.length > 140 ? `${c.body.slice(0, 139)}…` : c.body, authorName: c.author.name, at: c.createdAt.toISOString() });
+    if (out.length >= take) break;
+  }
+  return out;
+}

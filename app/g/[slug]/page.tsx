@@ -1,8 +1,11 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import "@/app/components/notebook/notebook.css";
 import { pageMember } from "@/app/_server/guard";
 import { listMeasurements } from "@/lib/server/measurements";
-import { listRecentActivity, listRecentSamples } from "@/lib/server/activity";
+import { countUnreadNotices, listRecentActivity, listRecentSamples, listThreadsWaitingForMe } from "@/lib/server/activity";
+import { listAnalyses } from "@/lib/server/notebook";
+import { STATE_LABEL } from "@/app/components/notebook/display";
 import { can } from "@/lib/server/permissions";
 import { groupPaths } from "@/app/_lib/paths";
 import { Formula } from "@/app/components/Formula";
@@ -16,10 +19,13 @@ export default async function GroupHome({ params }: { params: Promise<{ slug: st
   const { slug } = await params;
   const p = groupPaths(slug);
   const { db, member } = await pageMember(slug, p.home);
-  const [samples, measurements, activity] = await Promise.all([
+  const [samples, measurements, activity, analyses, waiting, unread] = await Promise.all([
     listRecentSamples(db, member, 8),
     listMeasurements(db, member, { take: 8 }),
     listRecentActivity(db, member, 12),
+    listAnalyses(db, member),
+    listThreadsWaitingForMe(db, member, 6),
+    countUnreadNotices(db, member),
   ]);
   const sampleLabel = new Map(samples.map((s) => [s.id, s.label]));
   return (
@@ -33,6 +39,39 @@ export default async function GroupHome({ params }: { params: Promise<{ slug: st
             ? " You can read everything the group stores, comment, and review submitted analyses."
             : " You can read everything the group stores."}
       </p>
+      <div className="columns">
+        <section className="sheet" aria-labelledby="waiting" data-testid="waiting-for-me">
+          <h2 id="waiting">Waiting for me</h2>
+          <p className="small">{unread === 0 ? "No unread notices." : `${unread} unread notice${unread > 1 ? "s" : ""} (mentions, replies, reviews).`}</p>
+          {waiting.length === 0 ? <p className="muted small">No open discussion mentions you.</p> : (
+            <ul className="activity">
+              {waiting.map((w) => (
+                <li key={w.threadId}>
+                  <strong>{w.authorName}</strong> in <Link href={`${p.home}/analyses/${w.analysisId}#thread-${w.threadId}`}>{w.analysisTitle}</Link>
+                  <div className="small muted">{w.excerpt}</div>
+                </li>
+              ))}
+            </ul>
+          )}
+        </section>
+        <section className="sheet" aria-labelledby="recent-analyses">
+          <h2 id="recent-analyses">Recent analyses</h2>
+          {analyses.length === 0 ? <p className="muted">No analyses yet.</p> : (
+            <table>
+              <thead><tr><th>Analysis</th><th>State</th></tr></thead>
+              <tbody>
+                {analyses.slice(0, 6).map((a) => (
+                  <tr key={a.id}>
+                    <td><Link href={`${p.home}/analyses/${a.id}`}>{a.title}</Link></td>
+                    <td className="small">{a.latestRevision ? `r${a.latestRevision.number} ${STATE_LABEL[a.latestRevision.state]}` : "—"}{a.sealedRevision ? " · sealed" : ""}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          )}
+          <p className="small"><Link href={`${p.home}/analyses`}>All analyses →</Link></p>
+        </section>
+      </div>
       <div className="columns">
         <section className="sheet" aria-labelledby="recent-samples">
           <h2 id="recent-samples">Recently changed samples</h2>

@@ -44,11 +44,11 @@ export default async function SamplePage({ params }: { params: Promise<{ slug: s
             <dt>Changed</dt><dd>{fmtDate(sample.updatedAt)} (version {sample.version})</dd>
           </dl>
           {sample.notes && <p style={{ whiteSpace: "pre-wrap", marginTop: "0.8rem" }}>{sample.notes}</p>}
-          {writeSample && (
-            <div className="actions" style={{ marginTop: "0.8rem" }}>
-              <ArchiveSampleButton apiUrl={apiUrl} archived={sample.archived} />
-            </div>
-          )}
+          <div className="actions" style={{ marginTop: "0.8rem" }}>
+            {can(member.role, "analysis.write") && !sample.archived && <Link className="button" href={`${p.home}/analyses?sample=${sample.id}#new-analysis`} data-testid="new-analysis">New analysis</Link>}
+            <Link className="button quiet" href={`${p.home}/analyses?sample=${sample.id}`}>Analyses of this sample</Link>
+            {writeSample && <ArchiveSampleButton apiUrl={apiUrl} archived={sample.archived} />}
+          </div>
         </section>
         <section className="sheet" aria-labelledby="measurements">
           <h2 id="measurements">Measurements</h2>

@@ -1,0 +1,74 @@
+/**
+ * The one-line summary under each step's heading, from its stored result: the numbers a reader
+ * looks for first, with units and basis. Display only.
+ */
+import type { AddendaStepResult, DeriveStepResult, EntropyStepResult, FitStepResult, TransitionStepResult } from "@/lib/charts/notebook";
+import { BASIS_LABEL, compact, num, unitText } from "./display";
+import type { StepView } from "./types";
+
+const q = (v: { value: number; stdError: number | null } | null | undefined, k = 1) => (v ? compact(v.value * k, v.stdError === null ? null : v.stdError * k) : "—");
+
+function fit(r: FitStepResult): string {
+  const p = (name: string) => r.fit.parameters.find((x) => x.name === name);
+  const g = p("gamma"), b = p("beta");
+  const parts: string[] = [];
+  if (g) parts.push(`γ = ${q(g, 1e3)} mJ mol⁻¹ K⁻²`);
+  if (b) parts.push(`β = ${q(b, 1e3)} mJ mol⁻¹ K⁻⁴`);
+  if (!g && !b) parts.push(r.fit.parameters.slice(0, 3).map((x) => `${x.name} = ${q(x)}${x.unit ? ` ${unitText(x.unit)}` : ""}`).join(" · "));
+  parts.push(`${r.window.nPoints} points in ${num(r.window.tMinK, 3)}–${num(r.window.tMaxK, 3)} K`);
+  if (r.fit.reducedChiSquare !== null) parts.push(`χ²_red = ${num(r.fit.reducedChiSquare, 3)}`);
+  return `${parts.join(" · ")} (${BASIS_LABEL[r.basis]})`;
+}
+
+function derive(r: DeriveStepResult): string {
+  const by = new Map(r.quantities.map((x) => [x.name, x]));
+  const pick = ["thetaD", "dosEF", "massRatio", "lambda"].map((k) => by.get(k)).filter((x) => !!x);
+  return pick.map((x) => `${x!.symbol} = ${q(x)} ${prettyQuantityUnit(x!.unit)}`.trim()).join(" · ");
+}
+
+/** Engine quantity units are written out ("states eV^-1 f.u.^-1"): superscripts only. */
+export function prettyQuantityUnit(unit: string): string {
+  if (unit === "1") return "";
+  const sup: Record<string, string> = { "-": "⁻", "0": "⁰", "1": "¹", "2": "²", "3": "³", "4": "⁴", "5": "⁵", "6": "⁶", "7": "⁷", "8": "⁸", "9": "⁹" };
+  return unit.replace(/\^(-?\d+)/g, (_, e: string) => [...e].map((c) => sup[c] ?? c).join(""));
+}
+
+/** Summary text of a computed step, or null when there is nothing to say. */
+export function summaryLine(step: StepView): string | null {
+  const o = step.output;
+  if (!o) return null;
+  if (!o.ok) return null;
+  const r = o.result as Record<string, unknown>;
+  switch (step.kind) {
+    case "data": {
+      const ms = (r.measurements as { label: string }[]) ?? [];
+      const ex = (r.excluded as unknown[])?.length ?? 0;
+      return `${r.points} points, ${num(r.tMinK as number, 3)}–${num(r.tMaxK as number, 3)} K, ${num(r.fieldT as number)} T · ${ms.map((m) => m.label).join(", ")}${ex ? ` · ${ex} left out by hand` : ""} · ${BASIS_LABEL[r.basis as string] ?? r.basis}`;
+    }
+    case "addenda": {
+      const a = r as unknown as AddendaStepResult;
+      return `${a.addendaLabel} · ${a.method === "smooth" ? "smoothed" : "interpolated"} · addenda at most ${num(a.maxAddendaFraction * 100, 2)} % of the total`;
+    }
+    case "normalise": {
+      const moles = r.moles as number | null;
+      return `${BASIS_LABEL[r.per as string]} · ${r.formula}, M = ${num(r.molarMassGPerMol as number, 6)} g mol⁻¹${moles ? ` · ${num(r.massMg as number, 5)} mg = ${num(moles * 1e3, 5)} mmol` : ""}`;
+    }
+    case "fit": return fit(r as unknown as FitStepResult);
+    case "derive": return derive(r as unknown as DeriveStepResult);
+    case "transition": {
+      const t = r as unknown as TransitionStepResult;
+      return `T_c = ${q(t.tc)} K · ΔC/(γ_n T_c) = ${q(t.jumpRatio)} (BCS weak coupling ${num(t.bcsJumpRatio, 3)})${t.nonSuperconductingFraction ? ` · non-superconducting fraction ${q(t.nonSuperconductingFraction)}` : ""}`;
+    }
+    case "entropy": {
+      const e = r as unknown as EntropyStepResult;
+      const k = e.entropy.temperatureK.length - 1;
+      if (k < 0) return null;
+      return `S(${num(e.entropy.temperatureK[k], 3)} K) = ${compact(e.entropy.values[k]! * 1e3, e.entropy.stdErrors ? e.entropy.stdErrors[k]! * 1e3 : null)} mJ mol⁻¹ K⁻¹ · H − H(0) = ${compact(e.enthalpy.values[k]! * 1e3, e.enthalpy.stdErrors ? e.enthalpy.stdErrors[k]! * 1e3 : null)} mJ mol⁻¹ (${BASIS_LABEL[e.basis]})`;
+    }
+    case "note": {
+      const text = String(r.markdown ?? "").replace(/[#*_`>]/g, "").trim().split("\n")[0] ?? "";
+      return text.length > 110 ? `${text.slice(0, 109)}…` : text || null;
+    }
+    default: return null;
+  }
+}
