@@ -42,9 +42,12 @@ function scaledNorm(a: Float64Array, from: number, to: number): number {
 export function qrFactor(a: Float64Array, m: number, n: number): QRFactor {
   const rdiag = new Float64Array(n);
   const beta = new Float64Array(n);
+  // ‖a_k(k:m)‖², carried from the update of column k in step k−1 (saves a pass per column)
+  let nextSq = -1;
   for (let k = 0; k < n; k++) {
     const ck = k * m;
-    const nrm = columnNorm(a, ck + k, ck + m);
+    const nrm = nextSq > 1e-290 && nextSq < 1e290 ? Math.sqrt(nextSq) : columnNorm(a, ck + k, ck + m);
+    nextSq = -1;
     if (nrm === 0) continue;
     const alpha = a[ck + k] > 0 ? -nrm : nrm;
     const v0 = a[ck + k] - alpha;
@@ -57,7 +60,14 @@ export function qrFactor(a: Float64Array, m: number, n: number): QRFactor {
       let s = 0;
       for (let i = k; i < m; i++) s += a[ck + i] * a[cj + i];
       s *= b;
-      for (let i = k; i < m; i++) a[cj + i] -= s * a[ck + i];
+      a[cj + k] -= s * a[ck + k];
+      let sq = 0;
+      for (let i = k + 1; i < m; i++) {
+        const v = a[cj + i] - s * a[ck + i];
+        a[cj + i] = v;
+        sq += v * v;
+      }
+      if (j === k + 1) nextSq = sq;
     }
   }
   return { qr: a, m, n, rdiag, beta };

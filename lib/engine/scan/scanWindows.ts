@@ -77,7 +77,7 @@ export function scanWindows(data: HeatCapacityInput, options: ScanOptions = {}):
       const hi = upperIndex(s.T, tMax);
       if (hi - lo + 1 < minPoints) return;
       const cell = design ? linearCell(design, s, lo, hi, model.parameters.map((p) => p.name)) : nonlinearCell(s, lo, hi, modelName, options);
-      cells.push({ ...cell, tMinK: tMin, tMaxK: tMax, beyondT3Range: beyond(modelName, cell.beta, tMax, options.r ?? 1) });
+      cells.push(Object.freeze({ ...cell, tMinK: tMin, tMaxK: tMax, beyondT3Range: beyond(modelName, cell.beta, tMax, options.r ?? 1) }));
       pos.push([i, j]);
     }),
   );
@@ -125,7 +125,7 @@ function nonlinearCell(s: Sorted, lo: number, hi: number, model: string, options
 function summarise(model: string, tMinGridK: number[], tMaxGridK: number[], cells: ScanCell[], pos: [number, number][]): ScanResult {
   const usable = cells.map((c, k) => ({ c, k })).filter(({ c }) => c.converged && c.gamma !== null && c.gammaStdError !== null && c.gammaStdError > 0);
   const plateau = findPlateau(usable.map(({ c, k }) => ({ i: pos[k][0], j: pos[k][1], value: c.gamma!, sigma: c.gammaStdError! })));
-  const base = { model, tMinGridK, tMaxGridK, cells };
+  const base = { model, tMinGridK: Object.freeze(tMinGridK), tMaxGridK: Object.freeze(tMaxGridK), cells: Object.freeze(cells) };
   if (!plateau) return Object.freeze({ ...base, plateau: null, recommended: null, reason: cells.length ? "no window gave a γ with a standard error" : "no window of the grid holds enough points" });
   const members = plateau.members.map((m) => usable[m].k);
   const pick = (list: number[]) => list.reduce((a, b) => (cells[b].gammaStdError! < cells[a].gammaStdError! ? b : a));
@@ -138,5 +138,5 @@ function summarise(model: string, tMinGridK: number[], tMaxGridK: number[], cell
   const reason = members.length > 1
     ? `plateau of ${members.length} adjacent windows (T_min ${span((c) => c.tMinK)}, T_max ${span((c) => c.tMaxK)}) whose γ agree within their σ with the running mean γ̄ = ${g(plateau.mean)} mJ mol⁻¹ K⁻²; recommended the plateau window with the smallest σ(γ)${clean.length ? " inside the T³ range" : ""}: [${k4(rec.tMinK)}, ${k4(rec.tMaxK)}] K, ${rec.nPoints} points, γ = ${g(rec.gamma!)} ± ${g(rec.gammaStdError!)}`
     : `no two adjacent windows agree on γ within σ: γ depends on the window; the window with the smallest σ(γ) is [${k4(rec.tMinK)}, ${k4(rec.tMaxK)}] K (treat with care)`;
-  return Object.freeze({ ...base, plateau: { cells: members, gammaMean: plateau.mean }, recommended: rec, reason });
+  return Object.freeze({ ...base, plateau: Object.freeze({ cells: Object.freeze(members), gammaMean: plateau.mean }), recommended: rec, reason });
 }
