@@ -5,6 +5,7 @@
  */
 import { NextResponse } from "next/server";
 import { ConflictError, ForbiddenError, InputError, NotFoundError, UnauthenticatedError } from "../engine/errors";
+import { lockViolation } from "./review/lockError";
 
 export interface ErrorBody {
   error: string;
@@ -12,7 +13,9 @@ export interface ErrorBody {
   current?: unknown;
 }
 
-export function errorResponse(err: unknown): NextResponse<ErrorBody> {
+export function errorResponse(raw: unknown): NextResponse<ErrorBody> {
+  // A refusal by the database's lock triggers (sealed revisions, the audit trail) is a conflict.
+  const err = lockViolation(raw);
   if (err instanceof InputError) return NextResponse.json({ error: err.message, ...(err.field ? { field: err.field } : {}) }, { status: 422 });
   if (err instanceof UnauthenticatedError) return NextResponse.json({ error: err.message }, { status: 401 });
   if (err instanceof ForbiddenError) return NextResponse.json({ error: err.message }, { status: 403 });
