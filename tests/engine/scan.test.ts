@@ -28,7 +28,7 @@ describe("scanWindows", () => {
   it("scanWindows(sommerfeld) finds a plateau at low T_max and recommends a window whose γ is within 3σ of the truth", () => {
     const d = dataset(400, 1);
     const s = scanWindows(d, { model: "sommerfeld" });
-    expect(s.cells.length).toBeGreaterThan(300);
+    expect(s.cells.length).toBeGreaterThan(250); // of the 20 × 20 grid, windows with too few points are skipped
     expect(s.plateau).not.toBeNull();
     expect(s.plateau!.cells.length).toBeGreaterThan(1);
     const rec = s.recommended!;

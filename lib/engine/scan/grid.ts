@@ -1,7 +1,8 @@
 /**
  * Window grids for scans: by default 20 candidate lower edges taken at data temperatures
- * from the lowest point up to the median, and 20 upper edges from the 40th percentile to
- * the highest point (edges are data temperatures, so inclusive windows are well defined).
+ * from the lowest point up to the median, and 20 upper edges from the smallest window that
+ * can hold minPoints points up to the highest point, evenly spaced in rank (edges are data
+ * temperatures, so inclusive windows are well defined).
  */
 
 /** Sorted unique values picked at evenly spaced ranks between quantiles q0 and q1. */

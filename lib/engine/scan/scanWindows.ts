@@ -64,9 +64,10 @@ export function scanWindows(data: HeatCapacityInput, options: ScanOptions = {}):
   const model = getModel(modelName);
   const s = sortData(data);
   if (s.T.length === 0) throw new InputError("no data points to scan", { field: "temperatureK" });
-  const tMinGrid = [...(options.tMinGridK ?? quantileEdges(s.T, 0, 0.5, 20))].sort((a, b) => a - b);
-  const tMaxGrid = [...(options.tMaxGridK ?? quantileEdges(s.T, 0.4, 1, 20))].sort((a, b) => a - b);
   const minPoints = options.minPoints ?? Math.max(8, model.parameters.length + 3);
+  const firstUpper = Math.min(1, (minPoints - 1) / Math.max(1, s.T.length - 1));
+  const tMinGrid = [...(options.tMinGridK ?? quantileEdges(s.T, 0, 0.5, 20))].sort((a, b) => a - b);
+  const tMaxGrid = [...(options.tMaxGridK ?? quantileEdges(s.T, firstUpper, 1, 20))].sort((a, b) => a - b);
   const linear = model.linear && !options.fixed;
   const cells: ScanCell[] = [];
   const pos: [number, number][] = [];
