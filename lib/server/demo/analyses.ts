@@ -6,6 +6,9 @@
 import type { Db } from "../db/client";
 import type { Member } from "../access";
 import { createAnalysis, openNotebook, updateStep, addStep } from "../notebook";
+import { memberOf } from "../access";
+import { reviewTransition, reviseSealed } from "../review";
+import { createSeries } from "../series";
 
 async function configure(db: Db, member: Member, analysisId: string, edits: Record<string, Record<string, unknown>>): Promise<void> {
   const nb = await openNotebook(db, member, analysisId);
@@ -18,6 +21,35 @@ async function configure(db: Db, member: Member, analysisId: string, edits: Reco
 async function append(db: Db, member: Member, analysisId: string, kind: string, config: Record<string, unknown>, title = ""): Promise<void> {
   const nb = await openNotebook(db, member, analysisId);
   await addStep(db, member, analysisId, { revisionId: nb.revision.id, revisionVersion: nb.revision.version, kind, title, config });
+}
+
+/** Submit the newest revision (analyst) and, unless `stop`, approve it (reviewer). */
+async function review(db: Db, analyst: Member, reviewer: Member, analysisId: string, stop?: "in_review"): Promise<void> {
+  const nb = await openNotebook(db, analyst, analysisId);
+  const sub = await reviewTransition(db, analyst, analysisId, nb.revision.id, { action: "submit", version: nb.revision.version });
+  if (stop) return;
+  await reviewTransition(db, reviewer, analysisId, nb.revision.id, { action: "approve", version: sub.version, comment: "Window scan plateau and residuals look fine. (demo)" });
+}
+
+/**
+ * Review states for the demo: NM-01, NM-02, NM-06 sealed; NM-03 sealed, revised with a narrower
+ * window and sealed again (its first revision superseded); NM-04 waiting for review; NM-05 drafting.
+ * And the series record of the six samples.
+ */
+async function seedDemoReviews(db: Db, analyst: Member): Promise<void> {
+  const reviewerUser = await db.user.findUniqueOrThrow({ where: { email: "rosa.reviewer@demo.heatbook" } });
+  const reviewer = await memberOf(db, reviewerUser.id, analyst.group.slug);
+  const analyses = await db.analysis.findMany({ where: { groupId: analyst.group.id }, include: { sample: true } });
+  const byLabel = (prefix: string) => analyses.find((a) => a.sample.label.startsWith(prefix))!;
+  for (const p of ["NM-01", "NM-02", "NM-06"]) await review(db, analyst, reviewer, byLabel(p).id);
+  const nm03 = byLabel("NM-03");
+  await review(db, analyst, reviewer, nm03.id);
+  await reviseSealed(db, analyst, nm03.id);
+  await configure(db, analyst, nm03.id, { fit: { tMinK: 1.8, tMaxK: 5 } });
+  await review(db, analyst, reviewer, nm03.id);
+  await review(db, analyst, reviewer, byLabel("NM-04").id, "in_review");
+  const samples = await db.sample.findMany({ where: { groupId: analyst.group.id, seriesLabel: { not: null } }, orderBy: { compositionValue: "asc" } });
+  await createSeries(db, analyst, { name: "Nb1-xMox (demo)", compositionVariable: "x", description: "Invented demo series: bcc Nb–Mo solid solutions, x = Mo fraction. INVENTED DEMO DATA.", sampleIds: samples.map((s) => s.id) });
 }
 
 export async function seedDemoAnalyses(db: Db, member: Member): Promise<void> {
@@ -48,4 +80,5 @@ export async function seedDemoAnalyses(db: Db, member: Member): Promise<void> {
     });
     await openNotebook(db, member, a.id);
   }
+  await seedDemoReviews(db, member);
 }
