@@ -154,7 +154,7 @@ export async function runEngineBench(): Promise<string> {
   const lines = [
     "### Engine: ours vs ml-matrix / ml-levenberg-marquardt (median ms; digits vs generating values)",
     "",
-    `Machine state: 1-minute load average ${load.toFixed(1)}; a plain loop of 1e8 additions took ${calibrate().toFixed(0)} ms (≈ 100 ms on an idle core of this machine class). Timings scale with both.`,
+    `Machine state: 1-minute load average ${load.toFixed(1)}; a plain loop of 1e8 additions took ${calibrate().toFixed(0)} ms (run the bench on an idle machine to compare: the timings below scale with this).`,
     "",
     "| case | ours median ms | library median ms | ours digits | library digits |",
     "|---|---:|---:|---:|---:|",
