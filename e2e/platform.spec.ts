@@ -37,9 +37,9 @@ test("sign up, create a group, invite a colleague, create a sample, upload a CSV
 
   await page.goto(`${groupUrl}/members`);
   await page.getByLabel("E-mail").fill(bob.email);
-  await page.getByLabel("Role").selectOption("analyst");
-  await page.getByRole("button", { name: /invite/i }).click();
-  const link = await page.getByTestId("invitation-link").textContent();
+  await page.getByLabel("Role", { exact: true }).selectOption("analyst");
+  await page.getByRole("button", { name: /create invitation link/i }).click();
+  const link = await page.getByTestId("invite-link").inputValue();
   expect(link).toMatch(/\/invite\//);
 
   const bobContext = await browser.newContext();
@@ -54,19 +54,23 @@ test("sign up, create a group, invite a colleague, create a sample, upload a CSV
   await expect(page.getByText(bob.email)).toBeVisible();
 
   await page.goto(`${groupUrl}/samples`);
-  await page.getByLabel("Label").fill("T-1 Nb0.75Mo0.25");
-  await page.getByLabel("Formula").fill("Nb0.75Mo0.25");
-  await page.getByLabel("Mass (mg)").fill("12.5");
-  await page.getByRole("button", { name: /create sample/i }).click();
+  const form = page.getByTestId("sample-create");
+  await form.getByLabel("Label", { exact: true }).fill("T-1 Nb0.75Mo0.25");
+  await form.getByLabel("Formula", { exact: true }).fill("Nb0.75Mo0.25");
+  await form.getByLabel("Mass (mg)").fill("12.5");
+  await form.getByRole("button", { name: "Add sample" }).click();
   await expect(page.getByText("T-1 Nb0.75Mo0.25").first()).toBeVisible();
   await page.getByRole("link", { name: "T-1 Nb0.75Mo0.25" }).first().click();
   await expect(page.getByText(/93\.6\d/).first()).toBeVisible(); // molar mass 0.75·92.906 + 0.25·95.95 = 93.667 g/mol (IUPAC 2021 weights)
 
-  await page.getByLabel(/data file/i).setInputFiles({ name: "t1.csv", mimeType: "text/csv", buffer: Buffer.from(CSV) });
-  await expect(page.getByText(/decimal comma/i).first()).toBeVisible();
-  await page.getByLabel("Heat-capacity unit").selectOption("mJ/K");
+  await page.getByLabel("Data file").setInputFiles({ name: "t1.csv", mimeType: "text/csv", buffer: Buffer.from(CSV) });
+  await page.getByRole("button", { name: "Read file" }).click();
+  await expect(page.getByTestId("import-detected")).toContainText(/decimal comma/i);
+  await page.getByLabel("Heat capacity unit").selectOption("mJ/K");
   await page.getByLabel("Measurement label").fill("T-1 zero field");
   await page.getByRole("button", { name: /store measurement/i }).click();
+  const stored = page.getByText("Stored", { exact: true }).locator("..");
+  await stored.getByRole("link").first().click();
   await expect(page).toHaveURL(/\/measurements\//, { timeout: 20_000 });
   await expect(page.getByTestId("chart-c-vs-t").locator("svg").first()).toBeVisible();
   await expect(page.getByTestId("chart-ct-vs-t2").locator("svg").first()).toBeVisible();
