@@ -3,3 +3,5 @@ export { heatCapacityPlot, sommerfeldPlot, INK, ERROR_BAR } from "./measurement"
 export type { MeasurementSeries, ChartOptions } from "./measurement";
 export { heatCapacityUnit, heatCapacityOverTUnit, maxAbs } from "./units";
 export type { Basis, DisplayUnit } from "./units";
+export { seriesPlot, seriesPoints, QUANTITY_LABEL, SERIES_COLOURS, SERIES_CHART_QUANTITIES } from "./series";
+export type { SeriesChartRow, SeriesChartLayer, SeriesChartTrend, SeriesChartQuantity, SeriesPlotOptions, SeriesPoint, ValueWithError } from "./series";
