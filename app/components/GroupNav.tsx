@@ -1,6 +1,6 @@
 "use client";
 /**
- * Section links (Home, Samples, Analyses, Search, Members) for the current group and the group switcher.
+ * Section links (Home, Samples, Analyses, Members) for the current group and the group switcher.
  * The current group comes from the path (/g/<slug>/...); elsewhere the links lead to the
  * first group. Switching keeps the section (samples of one group → samples of the other).
  */
@@ -49,7 +49,6 @@ export function GroupNav({ groups }: { groups: NavGroup[] }) {
         <Link href={p.home} aria-current={here("home")}>Home</Link>
         <Link href={p.samples} aria-current={here("samples")}>Samples</Link>
         <Link href={`${p.home}/analyses`} aria-current={here("analyses")}>Analyses</Link>
-        <Link href={`${p.home}/search`} aria-current={here("search")}>Search</Link>
         <Link href={p.members} aria-current={here("members")}>Members</Link>
       </nav>
       <span className="topbar-spacer" />

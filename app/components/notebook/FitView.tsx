@@ -95,8 +95,8 @@ export function FitView({ step, result: r, ctx, save }: Props) {
                 return (
                   <tr key={p.name} title={d.description}>
                     <td>{paramSymbol(p.name)}</td>
-                    <td className="num mono" data-testid={`param-${p.name}`}>{compact(p.value * d.factor, p.stdError === null ? null : p.stdError * d.factor)}</td>
-                    <td>{d.unit}</td>
+                    <td className="num" data-testid={`param-${p.name}`}>{compact(p.value * d.factor, p.stdError === null ? null : p.stdError * d.factor)}</td>
+                    <td className="nb-unit">{d.unit}</td>
                     <td className="num">{p.stdError !== null && p.value !== 0 ? `${num((100 * p.stdError) / Math.abs(p.value), 2)} %` : "—"}</td>
                     <td className="small muted">{p.fixed ? "held fixed" : p.atBound ? "at its bound" : ""}</td>
                   </tr>
@@ -150,8 +150,8 @@ export function FitView({ step, result: r, ctx, save }: Props) {
                   <td className="num">{num(row.deltaAicc, 3)}</td>
                   <td className="num">{row.akaikeWeight === null ? "—" : row.akaikeWeight.toFixed(3)}</td>
                   <td className="num">{num(row.deltaBic, 3)}</td>
-                  <td className="num mono">{row.gamma ? compact(row.gamma.value * 1e3, row.gamma.stdError === null ? null : row.gamma.stdError * 1e3) : "—"}</td>
-                  <td className="num mono">{row.beta ? compact(row.beta.value * 1e3, row.beta.stdError === null ? null : row.beta.stdError * 1e3) : "—"}</td>
+                  <td className="num">{row.gamma ? compact(row.gamma.value * 1e3, row.gamma.stdError === null ? null : row.gamma.stdError * 1e3) : "—"}</td>
+                  <td className="num">{row.beta ? compact(row.beta.value * 1e3, row.beta.stdError === null ? null : row.beta.stdError * 1e3) : "—"}</td>
                 </tr>
               ))}</tbody>
             </table>

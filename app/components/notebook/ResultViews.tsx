@@ -23,8 +23,8 @@ function QuantityRows({ items }: { items: readonly Quantity[] }) {
     <>{items.map((x) => (
       <tr key={x.name}>
         <td>{x.symbol}</td>
-        <td className="num mono" data-testid={`quantity-${x.name}`}>{compact(x.value, x.stdError)}</td>
-        <td>{prettyQuantityUnit(x.unit)}</td>
+        <td className="num" data-testid={`quantity-${x.name}`}>{compact(x.value, x.stdError)}</td>
+        <td className="nb-unit">{prettyQuantityUnit(x.unit)}</td>
         <td className="small muted">{x.note ?? ""}</td>
       </tr>
     ))}</>
@@ -62,7 +62,7 @@ export function TransitionView({ r, basis }: { r: TransitionStepResult; basis?: 
         <thead><tr><th>Quantity</th><th className="num">Value(σ)</th><th>Unit</th><th>Note</th></tr></thead>
         <tbody>
           <QuantityRows items={rows} />
-          <tr><td>BCS weak coupling</td><td className="num mono">{num(r.bcsJumpRatio, 4)}</td><td /><td className="small muted">ΔC/(γ_n T_c) for comparison</td></tr>
+          <tr><td>BCS weak coupling</td><td className="num">{num(r.bcsJumpRatio, 4)}</td><td /><td className="small muted">ΔC/(γ_n T_c) for comparison</td></tr>
         </tbody>
       </table>
       <p className="small muted">Normal state: {r.normalState === "above-tc" ? "fitted above T_c in zero field" : "fitted in a field above H_c2"}. Uncertainty: {r.uncertaintyMethod}.</p>

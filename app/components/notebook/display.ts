@@ -5,6 +5,7 @@
  */
 import { formatUncertainty } from "@/lib/engine/units/format";
 import { prettyUnit } from "@/lib/charts/notebook";
+import { fmtNumber } from "@/app/_lib/format";
 
 export type RevisionState = "open" | "in_review" | "returned" | "sealed" | "replaced";
 
@@ -60,6 +61,7 @@ export function unitText(unit: string): string {
 /** Compact "4.213(25)" of a value and σ in the same unit; "—" for null. */
 export function compact(value: number | null | undefined, sigma?: number | null): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return "—";
+  if (sigma === null || sigma === undefined || sigma === 0) return fmtNumber(value, 6);
   try {
     return formatUncertainty(value, sigma ?? null, { exponent: "times" });
   } catch {

@@ -39,6 +39,13 @@ export default async function GroupHome({ params }: { params: Promise<{ slug: st
             ? " You can read everything the group stores, comment, and review submitted analyses."
             : " You can read everything the group stores."}
       </p>
+      <form className="inline-form" role="search" action={`${p.home}/search`}>
+        <div className="field">
+          <label htmlFor="home-q">Search samples and analyses</label>
+          <input id="home-q" name="q" type="search" size={36} placeholder="label, formula, series, title…" />
+        </div>
+        <button type="submit" className="quiet">Search</button>
+      </form>
       <div className="columns">
         <section className="sheet" aria-labelledby="waiting" data-testid="waiting-for-me">
           <h2 id="waiting">Waiting for me</h2>

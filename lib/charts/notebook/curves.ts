@@ -35,8 +35,8 @@ export function addendaPlot(r: AddendaStepResult, opts: { width?: number; height
   const title = (d: AddendaRow) => `${d.series}\nT = ${fmt(d.t)} K\nC = ${fmt(d.c)} ${unit}`;
   return {
     ...frame(opts.width, opts.height ?? 320),
-    x: xAxis("T (K)", { type: log ? "log" : "linear" }),
-    y: yAxis(`C (${unit}, whole sample)`, { type: log ? "log" : "linear" }),
+    x: xAxis("T (K)", { type: log ? "log" : "linear", nice: !log }),
+    y: yAxis(`C (${unit}, whole sample)`, { type: log ? "log" : "linear", nice: !log }),
     color: { domain: [...SERIES], range: [COLOURS.ink, COLOURS.addenda, COLOURS.copper], legend: true },
     marks: [
       Plot.frame({ stroke: COLOURS.frame }),

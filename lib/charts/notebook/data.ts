@@ -63,8 +63,8 @@ export function dataPlot(series: readonly DataSeries[], opts: DataPlotOptions = 
   const title = (d: DataRow) => `${d.label}, point ${d.index + 1}\nT = ${fmt(d.t)} K\nC = ${fmt(d.c)} ${unit}${d.reason ? `\nleft out: ${d.reason}` : d.state === "outside" ? "\noutside the chosen range" : ""}`;
   return {
     ...frame(opts.width, opts.height ?? 320),
-    x: xAxis("T (K)", { type }),
-    y: yAxis(`C (${unit})`, { type }),
+    x: xAxis("T (K)", { type, nice: !opts.log }),
+    y: yAxis(`C (${unit})`, { type, nice: !opts.log }),
     marks: [
       Plot.frame({ stroke: COLOURS.frame }),
       ...(lo !== null || hi !== null ? [Plot.rect([{ x1: lo ?? Math.min(...rows.map((d) => d.t)), x2: hi ?? Math.max(...rows.map((d) => d.t)) }], { x1: "x1", x2: "x2", fill: COLOURS.window, fillOpacity: 0.45 })] : []),
