@@ -115,27 +115,26 @@ export function solveLinearLeastSquares(
       bs += b[i] = y[i] * w[i];
     }
   } else for (let i = 0; i < m; i++) bs += b[i] = y[i];
-  const { a, scale, finite } = scaledDesign(design, m, n, w, false);
+  const { a, scale, finite } = scaledDesign(design, m, n, w, false, 1);
   if (!finite || !Number.isFinite(bs)) checkInputs(design, m, n, y, sigma);
   if (m < n || n === 0) return emptyResult(m, Math.min(m, n), Infinity);
-  const f = qrFactor(a, m, n);
+  // b rides along as column n, so the factorisation leaves Qᵀb there
+  a.set(b, n * m);
+  const f = qrFactor(a, m, n, 1);
   const rank = rankOf(f, scale);
   if (rank < n) return emptyResult(m, rank, Infinity);
   const rinv = invertR(f);
   const kappa = conditionEstimate(f, rinv, scale);
   const unit = new Float64Array(n).fill(1);
-  const z = new Float64Array(b);
-  applyQt(f, z);
+  const z = a.slice(n * m, n * m + n);
   solveR(f, z);
   const maxSteps = options.refine === "auto" || options.refine === undefined ? (kappa > REFINE_KAPPA ? 4 : 0) : options.refine;
   const r = new Float64Array(b);
   let steps = 0;
   if (maxSteps > 0) {
     // Björck: start from r = Q[0; c₂] and refine (r, z) together against the unfactored design
-    const c = new Float64Array(b);
-    applyQt(f, c);
     r.fill(0, 0, n);
-    r.set(c.subarray(n), n);
+    r.set(a.subarray(n * m + n, (n + 1) * m), n);
     applyQ(f, r);
     const as = scaledDesign(design, m, n, w, false).a;
     const hi = new Float64Array(m);

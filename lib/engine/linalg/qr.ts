@@ -38,11 +38,17 @@ function scaledNorm(a: Float64Array, from: number, to: number): number {
   return scale * Math.sqrt(sum);
 }
 
-/** Factor `a` (overwritten) as Q R. Cost 2mn² − 2n³/3 flops. */
-export function qrFactor(a: Float64Array, m: number, n: number): QRFactor {
+/**
+ * Factor the first n columns of `a` (overwritten) as Q R, applying each reflector also to
+ * `extra` further columns (so a right-hand side stored there becomes Qᵀb). Cost
+ * 2mn² − 2n³/3 flops plus 4mn per extra column. Trailing columns are updated two at a time
+ * (one sweep over the reflector per pair), and the norm of the next column is carried from
+ * its update; the arithmetic is the same as column by column.
+ */
+export function qrFactor(a: Float64Array, m: number, n: number, extra = 0): QRFactor {
   const rdiag = new Float64Array(n);
   const beta = new Float64Array(n);
-  // ‖a_k(k:m)‖², carried from the update of column k in step k−1 (saves a pass per column)
+  const cols = n + extra;
   let nextSq = -1;
   for (let k = 0; k < n; k++) {
     const ck = k * m;
@@ -55,22 +61,51 @@ export function qrFactor(a: Float64Array, m: number, n: number): QRFactor {
     const b = 1 / (-alpha * v0);
     beta[k] = b;
     rdiag[k] = alpha;
-    for (let j = k + 1; j < n; j++) {
-      const cj = j * m;
-      let s = 0;
-      for (let i = k; i < m; i++) s += a[ck + i] * a[cj + i];
-      s *= b;
-      a[cj + k] -= s * a[ck + k];
-      let sq = 0;
-      for (let i = k + 1; i < m; i++) {
-        const v = a[cj + i] - s * a[ck + i];
-        a[cj + i] = v;
-        sq += v * v;
-      }
+    let j = k + 1;
+    for (; j + 1 < cols; j += 2) {
+      const sq = reflectPair(a, ck, j * m, (j + 1) * m, k, m, b);
+      if (j === k + 1) nextSq = sq;
+    }
+    if (j < cols) {
+      const sq = reflectPair(a, ck, j * m, -1, k, m, b);
       if (j === k + 1) nextSq = sq;
     }
   }
   return { qr: a, m, n, rdiag, beta };
+}
+
+/** Apply H = I − β v vᵀ (v in column at ck from row k) to columns c1 and c2 (c2 < 0: none); returns ‖c1(k+1:m)‖². */
+function reflectPair(a: Float64Array, ck: number, c1: number, c2: number, k: number, m: number, b: number): number {
+  let s1 = 0;
+  let s2 = 0;
+  if (c2 >= 0) {
+    for (let i = k; i < m; i++) {
+      const v = a[ck + i];
+      s1 += v * a[c1 + i];
+      s2 += v * a[c2 + i];
+    }
+  } else for (let i = k; i < m; i++) s1 += a[ck + i] * a[c1 + i];
+  s1 *= b;
+  s2 *= b;
+  a[c1 + k] -= s1 * a[ck + k];
+  if (c2 >= 0) a[c2 + k] -= s2 * a[ck + k];
+  let sq = 0;
+  if (c2 >= 0) {
+    for (let i = k + 1; i < m; i++) {
+      const v = a[ck + i];
+      const u = a[c1 + i] - s1 * v;
+      a[c1 + i] = u;
+      sq += u * u;
+      a[c2 + i] -= s2 * v;
+    }
+  } else {
+    for (let i = k + 1; i < m; i++) {
+      const u = a[c1 + i] - s1 * a[ck + i];
+      a[c1 + i] = u;
+      sq += u * u;
+    }
+  }
+  return sq;
 }
 
 /** b ← Qᵀ b (b has length m). */

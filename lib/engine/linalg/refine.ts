@@ -50,10 +50,11 @@ export function subtractDesign(design: Float64Array, m: number, n: number, w: Fl
 
 /**
  * The weighted design W·A (w = 1/σ; one pass per column) and the exact power-of-two column
- * scaling S that brings each column to unit norm, applied to the copy only when `apply`.
+ * scaling S that brings each column to unit norm, applied to the copy only when `apply`;
+ * `extraColumns` zero columns are left after the design for right-hand sides.
  */
-export function scaledDesign(design: Float64Array, m: number, n: number, w: Float64Array | null, apply: boolean): { a: Float64Array; scale: Float64Array; finite: boolean } {
-  const a = new Float64Array(m * n);
+export function scaledDesign(design: Float64Array, m: number, n: number, w: Float64Array | null, apply: boolean, extraColumns = 0): { a: Float64Array; scale: Float64Array; finite: boolean } {
+  const a = new Float64Array(m * (n + extraColumns));
   const sc = new Float64Array(n);
   let finite = true;
   for (let j = 0; j < n; j++) {
