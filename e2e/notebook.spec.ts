@@ -1,5 +1,5 @@
 /**
- * The analysis notebook on the demo data (invented): brush a new fit window and see γ change,
+ * The analysis notebook on the demo data (invented; NM-05 is the drafting one): brush a new fit window and see γ change,
  * add a fit step with a user expression, comment on a range of points, and a second member's
  * browser sees the comment and the change without reloading (server-sent events).
  */
@@ -8,9 +8,9 @@ import { DEMO, uiSignIn } from "./helpers";
 
 const GROUP = "/g/cryogenic-calorimetry-lab-demo";
 
-async function openNm03(page: Page): Promise<void> {
+async function openDraft(page: Page): Promise<void> {
   await page.goto(`${GROUP}/analyses`);
-  await page.getByRole("link", { name: /NM-03 .*γ and Θ_D/ }).click();
+  await page.getByRole("link", { name: /NM-05 .*γ and Θ_D/ }).click();
   await expect(page.getByTestId("revision-state")).toHaveText("Drafting");
   await expect(page.getByTestId("chart-fit").locator("svg").first()).toBeVisible();
 }
@@ -35,8 +35,8 @@ test("notebook: brush a window, add an expression fit, comment on a range; a sec
   const owner = await (await browser.newContext({ viewport: { width: 1366, height: 900 } })).newPage();
   await uiSignIn(analyst, DEMO.analyst);
   await uiSignIn(owner, DEMO.owner);
-  await openNm03(analyst);
-  await openNm03(owner);
+  await openDraft(analyst);
+  await openDraft(owner);
 
   const fit = analyst.getByTestId("step-fit").first();
   const gammaBefore = (await fit.getByTestId("param-gamma").textContent())!;

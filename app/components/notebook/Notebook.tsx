@@ -12,6 +12,7 @@ import { StepCard } from "./StepCard";
 import { AddStep } from "./AddStep";
 import { Threads, type Composer } from "./Threads";
 import { RevisionBar } from "./RevisionBar";
+import { ReviewBar } from "@/app/components/review/ReviewBar";
 import type { Anchor, MeasurementChoice, ModelInfo, NotebookContext, NotebookData, ThreadData } from "./types";
 
 interface Props {
@@ -105,7 +106,9 @@ export function Notebook(props: Props) {
 
   return (
     <div className="nb-page">
-      <RevisionBar nb={nb} slug={slug} live={live} onChanged={refresh} />
+      <RevisionBar nb={nb} live={live} />
+      {/* The review actions (app/components/review); remounted when the revision's state or version moves. */}
+      <ReviewBar key={`${nb.revision.id}:${nb.revision.state}:${nb.revision.version}`} slug={slug} analysisId={analysisId} revision={{ id: nb.revision.id }} onChanged={() => void refresh()} />
       {flash && <div className="nb-flash" role="status" data-testid="live-notice">{flash}</div>}
       {loadError && <p className="form-error" role="alert">The notebook could not be re-read: {loadError}</p>}
       <div className="nb-layout">

@@ -1,13 +1,12 @@
 "use client";
-/** The bar above the chain: revision number and state in our words, other revisions, timing, live status, the review slot. */
+/** The sticky bar above the chain: revision number and state in our words, other revisions, server time, live status. */
 import Link from "next/link";
 import { STATE_LABEL, num, when } from "./display";
-import { ReviewSlot } from "./ReviewSlot";
 import type { NotebookData } from "./types";
 
-export function RevisionBar({ nb, slug, live, onChanged }: { nb: NotebookData; slug: string; live: "connecting" | "live" | "offline"; onChanged: () => void }) {
+export function RevisionBar({ nb, live }: { nb: NotebookData; live: "connecting" | "live" | "offline" }) {
   const r = nb.revision;
-  const base = `/g/${encodeURIComponent(slug)}/analyses/${nb.analysis.id}`;
+  const base = `?`;
   return (
     <div className="nb-revbar" data-testid="revision-bar">
       <div className="nb-rev-main">
@@ -20,10 +19,9 @@ export function RevisionBar({ nb, slug, live, onChanged }: { nb: NotebookData; s
         <nav className="nb-revs small" aria-label="Revisions">
           {nb.revisions.map((x) => x.id === r.id
             ? <strong key={x.id}>r{x.number}</strong>
-            : <Link key={x.id} href={`${base}?revision=${x.id}`} title={STATE_LABEL[x.state]}>r{x.number}</Link>)}
+            : <Link key={x.id} href={`${base}revision=${x.id}`} title={STATE_LABEL[x.state]}>r{x.number}</Link>)}
         </nav>
       )}
-      <ReviewSlot slug={slug} analysisId={nb.analysis.id} revision={r} onChanged={onChanged} />
       <span className="nb-rev-spacer" />
       <span className="small muted" data-testid="compute-millis">server {num(nb.computeMillis, 3)} ms</span>
       <span className={`small nb-live nb-live-${live}`} title="Changes by others appear without reloading">{live === "live" ? "● live" : live === "connecting" ? "○ connecting" : "○ offline — reload to catch up"}</span>

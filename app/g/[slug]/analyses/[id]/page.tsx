@@ -10,7 +10,6 @@ import { renderMarkdown } from "@/lib/server/markdown";
 import { MODELS } from "@/lib/engine/models";
 import { groupPaths } from "@/app/_lib/paths";
 import { Notebook } from "@/app/components/notebook/Notebook";
-import { ReviewBar } from "@/app/components/review/ReviewBar";
 import type { MeasurementChoice, ModelInfo, NotebookData, ThreadData } from "@/app/components/notebook/types";
 
 export const dynamic = "force-dynamic";
@@ -39,8 +38,8 @@ export default async function AnalysisPage({ params, searchParams }: { params: P
     <>
       <div className="crumbs"><Link href={`${p.home}/analyses`}>Analyses</Link> / <Link href={p.sample(nb.analysis.sampleId)}>{nb.analysis.sampleLabel}</Link></div>
       <h1 data-testid="analysis-title">{nb.analysis.title} {nb.analysis.archived && <span className="tag">archived</span>}</h1>
-      <ReviewBar slug={slug} analysisId={nb.analysis.id} revisionId={revision ?? null} />
       <Notebook
+        key={revision ?? "newest"}
         slug={slug}
         initial={nb as unknown as NotebookData}
         initialThreads={threads as ThreadData[]}
