@@ -5,7 +5,8 @@
  * http://localhost:3000. Ctrl-C stops the server and the database cleanly.
  *
  * Options: --port N (or PORT), --data-dir DIR (default .data), --fresh (wipe DIR first),
- *          --no-seed, --dev (next dev instead of a production build).
+ *          --no-seed, --dev (next dev instead of a production build), --no-build (serve the
+ *          existing build as it is; the test runner builds just before the browser tests).
  */
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { existsSync, mkdirSync, readFileSync, writeFileSync, statSync, readdirSync, rmSync } from "node:fs";
@@ -74,7 +75,9 @@ async function main(): Promise<void> {
   }
   process.env.NEXTAUTH_SECRET = secret();
   process.env.NEXTAUTH_URL ??= `http://localhost:${port}`;
-  if (!dev) buildIfStale();
+  if (!dev && flag("no-build")) {
+    if (!existsSync(join(".next", "BUILD_ID"))) throw new Error("--no-build, but there is no build: run `npx next build` first");
+  } else if (!dev) buildIfStale();
   const args = ["node_modules/next/dist/bin/next", dev ? "dev" : "start", "-H", "127.0.0.1", "-p", String(port)];
   const child: ChildProcess = spawn(process.execPath, args, { stdio: "inherit", env: process.env });
   console.log(`heatbook: serving on http://localhost:${port}`);
