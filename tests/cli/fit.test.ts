@@ -47,6 +47,13 @@ describe("heatbook fit", () => {
     expect(j.window.nPoints).toBe(16);
     expect(j.parameters.map((p: { name: string }) => p.name)).toEqual(["g", "b"]);
   });
+  it("heatbook fit --fix takes display units (β in mJ/(mol K⁴)) and holds the parameter", async () => {
+    const r = await runCli(["fit", "a.csv", "--json", "--fix", "beta=0.0204"], { "a.csv": csv("mJ") });
+    expect(r.code, r.err).toBe(0);
+    const beta = JSON.parse(r.out).parameters.find((p: { name: string }) => p.name === "beta");
+    expect(beta.fixed).toBe(true);
+    expectClose(beta.value, 0.0204, { rel: 1e-12 });
+  });
   it("heatbook fit --scan reports the window scan and fits the recommended window", async () => {
     const r = await runCli(["fit", "a.csv", "--scan", "--json"], { "a.csv": csv("mJ") });
     expect(r.code, r.err).toBe(0);

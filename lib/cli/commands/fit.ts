@@ -3,7 +3,8 @@
  * Columns by header (T, C, optional σ; guessed by the importer, or named with --t-col,
  * --c-col, --sigma-col by name or 1-based number). Units: --c-unit (mathjs syntax, default
  * the header's unit or J/(mol*K)); T in the header's unit or K. Window bounds inclusive.
- * Output γ in mJ/(mol K²), β in mJ/(mol K⁴) (display units of each parameter).
+ * Output γ in mJ/(mol K²), β in mJ/(mol K⁴) (display units of each parameter); --fix and
+ * --start take the same display units for registered models (SI for expressions).
  * Exit 0 success, 1 the fit failed (reason printed), 2 bad usage or input (what and where).
  */
 import type { CliIo } from "../io";
@@ -25,8 +26,8 @@ const FLAGS: Record<string, FlagSpec> = {
   "c-col": { kind: "string", meta: "NAME|N", help: "heat-capacity column" },
   "sigma-col": { kind: "string", meta: "NAME|N", help: "column of standard uncertainties of C (same unit as C)" },
   r: { kind: "number", meta: "N", help: "atoms per formula unit for Θ_D and lattice models (default 1)" },
-  fix: { kind: "assignments", meta: "p=v,...", help: "hold parameters fixed (SI units)" },
-  start: { kind: "assignments", meta: "p=v,...", help: "starting values (SI units)" },
+  fix: { kind: "assignments", meta: "p=v,...", help: "hold parameters fixed (display units, as printed: γ in mJ/(mol K²); SI for expressions)" },
+  start: { kind: "assignments", meta: "p=v,...", help: "starting values (same units as --fix)" },
   "scale-errors": { kind: "boolean", help: "scale standard errors by χ²_red even with σ given" },
   json: { kind: "boolean", help: "print one JSON object" },
   help: { kind: "boolean", help: "show this help" },
@@ -96,6 +97,12 @@ function displayParameters(fit: HeatCapacityFitResult) {
   });
 }
 
+/** Display-unit values (as printed) → SI for a registered model; unknown names pass through to be refused by the engine. */
+function fromDisplay(modelName: string, values: Record<string, number>): Record<string, number> {
+  const specs = MODELS[modelName].parameters;
+  return Object.fromEntries(Object.entries(values).map(([k, v]) => [k, v / (specs.find((p) => p.name === k)?.displayFactor ?? 1)]));
+}
+
 /** Θ_D ± σ [K] from β (σ_Θ = Θ σ_β / (3β)), when the model has β > 0. */
 function thetaFromBeta(fit: HeatCapacityFitResult) {
   const b = fit.parameters.find((p) => p.name === "beta");
@@ -149,7 +156,8 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
       scan = scanWindows({ temperatureK: sub(data.temperatureK), heatCapacity: sub(data.heatCapacity), sigma: data.sigma ? sub(data.sigma) : undefined }, { model, r: getNumber(args, "r") });
       if (scan.recommended) [tMinK, tMaxK] = [scan.recommended.tMinK, scan.recommended.tMaxK];
     }
-    const fit = fitHeatCapacity(data, { model, tMinK, tMaxK, r: getNumber(args, "r"), fixed: getAssignments(args, "fix"), start: getAssignments(args, "start"), scaleErrors: getBoolean(args, "scale-errors") });
+    const toSi = (values: Record<string, number> | undefined) => (values && typeof model === "string" ? fromDisplay(model, values) : values);
+    const fit = fitHeatCapacity(data, { model, tMinK, tMaxK, r: getNumber(args, "r"), fixed: toSi(getAssignments(args, "fix")), start: toSi(getAssignments(args, "start")), scaleErrors: getBoolean(args, "scale-errors") });
     if (getBoolean(args, "json")) {
       io.out(JSON.stringify({ file: args.positionals[0], columns: data.columns, model: fit.modelName, window: { tMinK: fit.window.tMinK, tMaxK: fit.window.tMaxK, nPoints: fit.window.nPoints }, parameters: displayParameters(fit), derived: thetaFromBeta(fit), statistics: statistics(fit), correlation: fit.correlation, warnings: fit.warnings, ...(scan ? { scan: scanJson(scan) } : {}) }));
     } else {
