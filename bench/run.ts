@@ -7,6 +7,7 @@ import { cpus, totalmem } from "node:os";
 const parts: Record<string, () => Promise<string>> = {
   engine: async () => (await import("./engine")).runEngineBench(),
   import: async () => (await import("./import")).runImportBench(),
+  notebook: async () => (await import("./notebook")).runNotebookBench(),
 };
 
 const wanted = process.argv.slice(2).filter((a) => !a.startsWith("-"));
