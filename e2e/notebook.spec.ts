@@ -4,7 +4,7 @@
  * browser sees the comment and the change without reloading (server-sent events).
  */
 import { test, expect, type Locator, type Page } from "@playwright/test";
-import { DEMO, uiSignIn } from "./helpers";
+import { DEMO, apiSignIn, uiSignIn } from "./helpers";
 
 const GROUP = "/g/cryogenic-calorimetry-lab-demo";
 
@@ -18,6 +18,7 @@ async function openDraft(page: Page): Promise<void> {
 /** Drag across the main SVG of a chart from fraction a to fraction b of its inner width. */
 async function dragAcross(page: Page, chart: Locator, a: number, b: number, shift = false): Promise<void> {
   const svg = chart.locator(".chart-canvas svg").last();
+  await svg.scrollIntoViewIfNeeded();
   const box = (await svg.boundingBox())!;
   const scale = box.width / Number(await svg.getAttribute("width"));
   const left = box.x + 68 * scale, inner = box.width - 86 * scale, y = box.y + box.height / 2;
@@ -31,10 +32,12 @@ async function dragAcross(page: Page, chart: Locator, a: number, b: number, shif
 }
 
 test("notebook: brush a window, add an expression fit, comment on a range; a second member sees it live", async ({ browser }) => {
+  test.setTimeout(150_000);
   const analyst = await (await browser.newContext({ viewport: { width: 1366, height: 900 } })).newPage();
-  const owner = await (await browser.newContext({ viewport: { width: 1366, height: 900 } })).newPage();
+  const ownerContext = await browser.newContext({ viewport: { width: 1366, height: 900 } });
+  const owner = await ownerContext.newPage();
   await uiSignIn(analyst, DEMO.analyst);
-  await uiSignIn(owner, DEMO.owner);
+  await apiSignIn(ownerContext.request, DEMO.owner); // the context's request shares its cookies with the page
   await openDraft(analyst);
   await openDraft(owner);
 
