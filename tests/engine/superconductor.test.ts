@@ -104,6 +104,16 @@ describe("analyzeJump", () => {
     expect(r.idealised.cElOverT[k - 3]).toBeGreaterThan(GN);
   });
 
+  it("analyzeJump's ΔC and its σ are consistent with ΔC = (ΔC/γ_nT_c)·γ_n·T_c (identity)", () => {
+    const r = analyzeJump(synthetic(0.15, 0.004, 3));
+    expect(r.deltaC.value).toBeCloseTo(r.jumpRatio.value * GN * r.tc.value * 1e3, 9);
+    // The relative σ of ΔC cannot exceed the ratio's and T_c's combined by much, nor be far below the ratio's.
+    const relJump = r.jumpRatio.stdError! / r.jumpRatio.value, relTc = r.tc.stdError! / r.tc.value;
+    const relDeltaC = r.deltaC.stdError! / r.deltaC.value;
+    expect(relDeltaC).toBeLessThan(2 * Math.hypot(relJump, relTc) + 1e-9);
+    expect(relDeltaC).toBeGreaterThan(0.2 * relJump);
+  });
+
   it("analyzeJump's σ(T_c) grows with the normal-state σ(γ_n)", () => {
     const base = synthetic(0.15, 0, 1);
     const small = analyzeJump(base).jumpRatio.stdError ?? NaN;

@@ -86,7 +86,7 @@ export function analyzeJump(input: JumpInput): JumpResult {
   return Object.freeze({
     normalState: input.normalState,
     tc: quantity("tc", "T_c", c.tcK, sTc, "K", "equal-area construction"),
-    deltaC: quantity("deltaC", "ΔC", c.tcK * c.jumpOverTc * 1e3, Math.hypot(sys.deltaC, c.tcK * noise.jump, c.jumpOverTc * noise.tc) * 1e3, "mJ mol^-1 K^-1"),
+    deltaC: quantity("deltaC", "ΔC", c.tcK * c.jumpOverTc * 1e3, Math.hypot(sys.deltaC, c.tcK * noise.jump * gammaN, c.jumpOverTc * noise.tc) * 1e3, "mJ mol^-1 K^-1"),
     jumpRatio: quantity("jumpRatio", "ΔC/(γ_n T_c)", ratio, sJ, "1", `BCS weak coupling ${BCS_JUMP_RATIO.toFixed(3)}`),
     jumpRatioSuperconductingPart: res.corrected,
     gammaResidual: res.gammaR,
