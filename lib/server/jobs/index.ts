@@ -9,7 +9,7 @@
  */
 export { enqueueJob, enqueueSchema, type EnqueueInput } from "./enqueue";
 export { listJobs, jobStatus } from "./status";
-export { listRuns, getRun, runById, jobPool, type JobView, type JobState, type JobAttempt } from "./runs";
+export { listRuns, getRun, runById, jobPool, closeJobPool, type JobView, type JobState, type JobAttempt } from "./runs";
 export { startWorker, type WorkerOptions, type RunningWorker } from "./worker";
 export { runRefitSeries, refitTargets, type RefitSummary, type RefitTarget } from "./refitSeries";
 export { runWindowScan, type WindowScanParams, type WindowScanSummary } from "./windowScan";

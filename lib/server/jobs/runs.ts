@@ -113,3 +113,10 @@ export async function failAttempt(q: Queryable, id: string, error: string, final
     [id, error.slice(0, 2000), final ? "failed" : "queued"],
   );
 }
+
+/** End the bookkeeping pool of `url` (a stopping worker); a later jobPool(url) opens a new one. */
+export async function closeJobPool(url: string): Promise<void> {
+  const pool = pools.get(url);
+  pools.delete(url);
+  await pool?.end();
+}

@@ -15,7 +15,7 @@ import type PgBoss from "pg-boss";
 import { hostname } from "node:os";
 import { createDb } from "../db/client";
 import { JOB_KINDS, startBoss, type JobKind } from "./queue";
-import { failAttempt, finishRun, jobPool, runById, setProgress, startAttempt } from "./runs";
+import { closeJobPool, failAttempt, finishRun, jobPool, runById, setProgress, startAttempt } from "./runs";
 import { runRefitSeries } from "./refitSeries";
 import { runWindowScan, type WindowScanParams } from "./windowScan";
 import type { JobContext } from "./context";
@@ -88,7 +88,7 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
     name,
     async stop() {
       await boss.stop({ graceful: true, timeout: 30_000, wait: true });
-      await pool.end().catch(() => undefined);
+      await closeJobPool(opts.url).catch(() => undefined);
       await db.$disconnect();
     },
   };
