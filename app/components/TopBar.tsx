@@ -6,6 +6,7 @@ import Link from "next/link";
 import { currentUser } from "@/lib/server/session";
 import { getDb } from "@/lib/server/db/client";
 import { listMyGroups } from "@/lib/server/groups";
+import { listNotices } from "@/lib/server/review";
 import { Logo } from "./Logo";
 import { GroupNav } from "./GroupNav";
 import { SignOutButton } from "./SignOutButton";
@@ -13,6 +14,7 @@ import { SignOutButton } from "./SignOutButton";
 export async function TopBar() {
   const user = await currentUser();
   const groups = user ? await listMyGroups(getDb(), user.id) : [];
+  const unread = user ? await Promise.all(groups.map(async (g) => (await listNotices(getDb(), user.id, { groupId: g.id, take: 1 })).unread)) : [];
   return (
     <header className="topbar">
       <div className="topbar-inner">
@@ -22,7 +24,7 @@ export async function TopBar() {
         </Link>
         {user ? (
           <>
-            <GroupNav groups={groups.map((g) => ({ slug: g.slug, name: g.name, role: g.role }))} />
+            <GroupNav groups={groups.map((g, i) => ({ slug: g.slug, name: g.name, role: g.role, unread: unread[i] ?? 0 }))} />
             <details className="usermenu" data-testid="user-menu">
               <summary>{user.name || user.email}</summary>
               <div className="usermenu-panel">
