@@ -5,6 +5,8 @@ export default defineConfig({
   resolve: { alias: { "@": fileURLToPath(new URL("./", import.meta.url)) } },
   test: {
     include: ["tests/**/*.test.ts"],
+    // tests/ops need built servers of their own: `npm run test:ops` (vitest.ops.config.ts).
+    exclude: ["**/node_modules/**", "tests/ops/**"],
     globalSetup: ["tests/helpers/globalSetup.ts"],
     testTimeout: 30_000,
     hookTimeout: 60_000,
