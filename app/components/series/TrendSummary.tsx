@@ -27,6 +27,7 @@ export function TrendSummary({ fit, degree, quantity, axisLabel, trendFrom }: Pr
       <div className="small">
         n = {fit.n} {trendFrom === "sealed" ? "sealed" : "shown"} values, {WEIGHTING[fit.weighting]}; χ²_red = {fit.reducedChiSquare === null ? "—" : formatUncertainty(fit.reducedChiSquare, null, { plainDigits: 3 })}; shaded band: ±1σ of the fitted trend.
         {fit.warnings.length > 0 && <> {fit.warnings.join("; ")}.</>}
+        {fit.weighting === "absolute" && fit.reducedChiSquare !== null && fit.reducedChiSquare > 3 && <> The values scatter far more than their σ&apos;s (χ²_red ≫ 1, threshold 3 by common practice): this {degree === 1 ? "straight line" : "parabola"} does not describe the series within its errors, and the band understates the trend&apos;s uncertainty.</>}
       </div>
     </div>
   );
