@@ -6,7 +6,7 @@ export default defineConfig({
   test: {
     include: ["tests/**/*.test.ts"],
     // tests/ops need built servers of their own: `npm run test:ops` (vitest.ops.config.ts).
-    exclude: ["**/node_modules/**", "tests/ops/**"],
+    exclude: ["**/node_modules/**", "tests/ops/**", "tests/**/*.ops.test.ts"],
     globalSetup: ["tests/helpers/globalSetup.ts"],
     testTimeout: 30_000,
     hookTimeout: 60_000,
