@@ -94,6 +94,9 @@ function cases(): RouteCase[] {
     { method: "GET", path: `${g}/tokens` },
     { method: "POST", path: `${g}/tokens`, body: { name: "viewer's script", scope: "read" }, viewer: 201 },
     { method: "DELETE", path: `${g}/tokens/${NO_SUCH_ID}`, viewer: 404 },
+    { method: "GET", path: `${g}/jobs` },
+    { method: "POST", path: `${g}/jobs`, body: { kind: "refit-series", seriesId: ids.seriesId } },
+    { method: "GET", path: `${g}/jobs/${NO_SUCH_ID}`, viewer: 404 },
   ];
 }
 

@@ -69,8 +69,7 @@ test("sign up, create a group, invite a colleague, create a sample, upload a CSV
   await page.getByLabel("Heat capacity unit").selectOption("mJ/K");
   await page.getByLabel("Measurement label").fill("T-1 zero field");
   await page.getByRole("button", { name: /store measurement/i }).click();
-  const stored = page.getByText("Stored", { exact: true }).locator("..");
-  await stored.getByRole("link").first().click();
+  await page.getByRole("status").getByRole("link", { name: "T-1 zero field" }).click();
   await expect(page).toHaveURL(/\/measurements\//, { timeout: 20_000 });
   await expect(page.getByTestId("chart-c-vs-t").locator("svg").first()).toBeVisible();
   await expect(page.getByTestId("chart-ct-vs-t2").locator("svg").first()).toBeVisible();

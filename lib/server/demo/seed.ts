@@ -23,12 +23,13 @@ export const DEMO_ACCOUNTS = [
   { email: "sven.second@demo.heatbook", name: "Sven Second", role: "owner of the second group" },
 ] as const;
 
+// γ follows 7.7 − 9.2x + 3.4x² mJ mol⁻¹ K⁻² (invented, smooth so the demo's quadratic trend fits).
 const SERIES: { x: number; spec: CurveSpec; massMg: number; density: number }[] = [
   { x: 0, massMg: 21.4, density: 8.57, spec: { gammaMJ: 7.7, thetaDK: 276, deltaMJ: 2e-6, tcK: 9.1, residualGammaFraction: 0.03, tcSpreadK: 0.08 } },
-  { x: 0.2, massMg: 18.9, density: 8.92, spec: { gammaMJ: 5.9, thetaDK: 298, deltaMJ: 1.5e-6 } },
-  { x: 0.4, massMg: 24.1, density: 9.26, spec: { gammaMJ: 4.1, thetaDK: 327, deltaMJ: 1.2e-6 } },
-  { x: 0.6, massMg: 19.7, density: 9.55, spec: { gammaMJ: 2.8, thetaDK: 362, deltaMJ: 1e-6 } },
-  { x: 0.8, massMg: 22.8, density: 9.86, spec: { gammaMJ: 2.1, thetaDK: 404, deltaMJ: 8e-7 } },
+  { x: 0.2, massMg: 18.9, density: 8.92, spec: { gammaMJ: 6.0, thetaDK: 298, deltaMJ: 1.5e-6 } },
+  { x: 0.4, massMg: 24.1, density: 9.26, spec: { gammaMJ: 4.56, thetaDK: 327, deltaMJ: 1.2e-6 } },
+  { x: 0.6, massMg: 19.7, density: 9.55, spec: { gammaMJ: 3.4, thetaDK: 362, deltaMJ: 1e-6 } },
+  { x: 0.8, massMg: 22.8, density: 9.86, spec: { gammaMJ: 2.52, thetaDK: 404, deltaMJ: 8e-7 } },
   { x: 1, massMg: 26.3, density: 10.2, spec: { gammaMJ: 1.9, thetaDK: 448, deltaMJ: 6e-7, nuclearAMJ: 0.004 } },
 ];
 

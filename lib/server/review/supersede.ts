@@ -4,6 +4,7 @@
  * sealed one (`supersedeSealed`, the only change the database allows to a sealed revision:
  * state sealed → replaced, nothing else).
  */
+import { notify } from "../notebook/events";
 import type { Db } from "../db/client";
 import { ConflictError, NotFoundError } from "../../engine/errors";
 import { recordAudit } from "../audit";
@@ -68,6 +69,7 @@ export async function reviseSealed(db: Db, member: Member, analysisId: string): 
       groupId: member.group.id, actorId: member.userId, action: "revision.revise", objectType: "analysisRevision", objectId: created.id,
       detail: { analysisId: a.id, number, basedOnId: sealed.id, basedOnNumber: sealed.number, steps: steps.length },
     });
+    await notify(tx, { groupId: member.group.id, analysisId: a.id, revisionId: created.id, kind: "review", actorId: member.userId });
     return { revisionId: created.id, number, basedOnId: sealed.id, version: created.version, steps: steps.length };
   }).catch((err: unknown) => {
     throw lockViolation(err);

@@ -16,6 +16,7 @@ import { parseInput } from "../validate";
 import { contentHash } from "../hash";
 import { uuidOrNone } from "../samples";
 import { computeRevisionSteps } from "../notebook/compute";
+import { notify } from "../notebook/events";
 import { inputHashes, loadContext } from "../notebook/context";
 import type { StepSpec } from "../../engine/notebook";
 import { checkTransition, REVIEW_ACTIONS, type ReviewAction, type RevisionState, type TransitionRule } from "./states";
@@ -130,6 +131,8 @@ export async function reviewTransition(db: Db, member: Member, analysisId: strin
       groupId: member.group.id, actorId: member.userId, action: `revision.${rule.action}`, objectType: "analysisRevision", objectId: rev.id, beforeHash, afterHash,
       detail: { analysisId: a.id, number: rev.number, from: rev.state, to: rule.to, ...(req.comment?.trim() ? { comment: req.comment.trim() } : {}), ...(decisionId ? { decisionId } : {}), ...(replaced.length ? { replaced } : {}) },
     });
+    // Open notebook pages (any instance) refresh on this, like on a step change.
+    await notify(tx, { groupId: member.group.id, analysisId: a.id, revisionId: rev.id, kind: "review", actorId: member.userId });
     return { revisionId: rev.id, number: rev.number, from: rev.state, state: rule.to, version: rev.version + 1, contentHash: sealed?.contentHash ?? null, decisionId, replacedRevisionIds: replaced };
   }, { timeout: 60_000 }).catch((err: unknown) => {
     throw lockViolation(err);
