@@ -7,15 +7,9 @@ import { formatUncertainty } from "@/lib/engine/units/format";
 import { prettyUnit } from "@/lib/charts/notebook";
 import { fmtNumber } from "@/app/_lib/format";
 
-export type RevisionState = "open" | "in_review" | "returned" | "sealed" | "replaced";
-
-export const STATE_LABEL: Record<RevisionState, string> = {
-  open: "Drafting",
-  in_review: "With reviewer",
-  returned: "Changes requested",
-  sealed: "Sealed",
-  replaced: "Superseded",
-};
+// One set of words for revision states across the app.
+export { STATE_LABEL, when } from "@/app/components/review/labels";
+export type { RevisionState } from "@/lib/server/review";
 
 export const KIND_LABEL: Record<string, string> = {
   data: "Data",
@@ -83,8 +77,3 @@ export const BASIS_LABEL: Record<string, string> = {
 };
 
 /** ISO → "2026-12-02 14:05 UTC". */
-export function when(iso: string | null): string {
-  if (!iso) return "—";
-  const d = new Date(iso);
-  return Number.isNaN(d.getTime()) ? iso : d.toISOString().slice(0, 16).replace("T", " ") + " UTC";
-}
