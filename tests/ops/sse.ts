@@ -12,7 +12,7 @@ export async function openEvents(url: string, cookie: string): Promise<EventStre
   const reader = res.body.getReader();
   const decoder = new TextDecoder();
   let buffer = "";
-  let connected: () => void;
+  let connected: () => void = () => undefined;
   const ready = new Promise<void>((ok) => (connected = ok));
   void (async () => {
     try {
