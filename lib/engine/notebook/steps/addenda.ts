@@ -7,7 +7,7 @@ import { z } from "zod";
 import { subtractAddenda } from "../../corrections";
 import { InputError } from "../../errors";
 import type { Dataset } from "../types";
-import { StepFailure, requireDataset, type StepDefinition } from "./shared";
+import { StepFailure, requireDataset, thinCurve, type StepDefinition } from "./shared";
 
 export const addendaConfig = z.object({
   addendaMeasurementId: z.string().min(1, "choose the addenda measurement"),
@@ -55,7 +55,9 @@ export const addendaStep: StepDefinition<AddendaConfig> = {
         provenance: r.provenance,
         excluded: r.excluded,
         maxAddendaFraction: Math.max(...fractions),
-        curve: { temperatureK: r.temperatureK, totalJPerK: total, addendaJPerK: r.addendaJPerK, netJPerK: r.heatCapacityJPerK },
+        // For the plot: at most 600 points, evenly by index (the chain below uses every point).
+        curve: thinCurve({ temperatureK: r.temperatureK, totalJPerK: total, addendaJPerK: r.addendaJPerK, netJPerK: r.heatCapacityJPerK }),
+        curvePoints: r.temperatureK.length,
       },
       warnings: r.warnings,
       state: { ...state, dataset },

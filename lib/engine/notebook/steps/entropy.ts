@@ -5,7 +5,7 @@
 import { z } from "zod";
 import { entropyFromData, enthalpyFromData } from "../../thermo";
 import { InputError } from "../../errors";
-import { StepFailure, requireDataset, type StepDefinition } from "./shared";
+import { StepFailure, requireDataset, thinCurve, type StepDefinition } from "./shared";
 import { pickFit } from "./derive";
 
 export const entropyConfig = z.object({ fitStepId: z.string().nullable().default(null) });
@@ -30,7 +30,9 @@ export const entropyStep: StepDefinition<EntropyConfig> = {
       const sigma = data.sigma ?? undefined;
       const entropy = entropyFromData(data.temperatureK, data.heatCapacity, low, sigma);
       const enthalpy = enthalpyFromData(data.temperatureK, data.heatCapacity, low, sigma);
-      return { result: { fitStepId: fit.stepId, basis: data.basis, entropy, enthalpy }, warnings: [], state };
+      // Curves thinned to at most 600 points for display; the integrals used every point.
+      const show = (c: typeof entropy) => ({ ...c, ...thinCurve({ temperatureK: c.temperatureK, values: c.values, ...(c.stdErrors ? { stdErrors: c.stdErrors } : {}) }) });
+      return { result: { fitStepId: fit.stepId, basis: data.basis, points: data.temperatureK.length, entropy: show(entropy), enthalpy: show(enthalpy) }, warnings: [], state };
     } catch (err) {
       if (err instanceof InputError) throw new StepFailure(err.message, err.field);
       throw err;

@@ -43,6 +43,22 @@ function summary(fit: ReturnType<typeof fitHeatCapacity>, basis: FitSummary["bas
   };
 }
 
+/**
+ * The scan grid around the chosen window (our choice for the notebook): lower edges from the
+ * lowest point up to the middle of the window, upper edges from there to 1.5 × the window's
+ * upper edge — data temperatures, at most 16 of each, so the scan asks "does γ hold if the
+ * window moves or shrinks?" without fitting far outside the range a physicist would use.
+ */
+function scanGrid(T: readonly number[], lo: number, hi: number): { tMinGridK: number[]; tMaxGridK: number[] } {
+  const mid = (lo + hi) / 2;
+  const pick = (a: number, b: number) => {
+    const inside = T.filter((t) => t >= a && t <= b);
+    if (inside.length <= 16) return inside;
+    return Array.from({ length: 16 }, (_, k) => inside[Math.round((k * (inside.length - 1)) / 15)]!);
+  };
+  return { tMinGridK: [...new Set(pick(T[0]!, mid))], tMaxGridK: [...new Set(pick(mid, Math.min(1.5 * hi, T[T.length - 1]!)))] };
+}
+
 export const fitStep: StepDefinition<FitConfig> = {
   kind: "fit",
   title: "Model fit",
@@ -57,7 +73,8 @@ export const fitStep: StepDefinition<FitConfig> = {
     const input = { temperatureK: data.temperatureK, heatCapacity: data.heatCapacity, ...(config.weighting === "sigma" && data.sigma ? { sigma: data.sigma } : {}) };
     const r = data.basis === "atom" ? 1 : ctx.sample.atomsPerFormulaUnit;
     const window = { ...(config.tMinK !== null ? { tMinK: config.tMinK } : {}), ...(config.tMaxK !== null ? { tMaxK: config.tMaxK } : {}) };
-    const common = { fixed: config.fixed, scaleErrors: config.scaleErrors, r };
+    const fixed = Object.keys(config.fixed).length ? config.fixed : undefined;
+    const common = { ...(fixed ? { fixed } : {}), scaleErrors: config.scaleErrors, r };
     let fit;
     try {
       fit = fitHeatCapacity(input, { ...common, ...window, model: isExpression ? { expression: config.expression! } : config.model, start: config.start });
@@ -72,7 +89,7 @@ export const fitStep: StepDefinition<FitConfig> = {
     const span = { tMinK: data.temperatureK[0]!, tMaxK: data.temperatureK[data.temperatureK.length - 1]! };
     let scan = null, comparison = null;
     try {
-      if (config.scan && !isExpression && fit.model !== "expression") scan = scanWindows(input, { model: config.model, r, fixed: config.fixed });
+      if (config.scan && !isExpression && fit.model !== "expression") scan = scanWindows(input, { model: config.model, r, ...(fixed ? { fixed } : {}), ...scanGrid(data.temperatureK, lo, hi) });
       if (config.compare.length > 1 && !isExpression) {
         comparison = compareModels(input, config.compare.filter((m) => MODELS[m as keyof typeof MODELS]), window, common).map(({ fit: f, ...row }) => ({ ...row, gamma: f.parameters.find((p) => p.name === "gamma") ?? null, beta: f.parameters.find((p) => p.name === "beta") ?? null }));
       }

@@ -39,3 +39,11 @@ export function thin<T>(values: readonly T[], max = 600): T[] {
   for (let k = 0; k < max; k++) out.push(values[Math.round(k * step)]!);
   return out;
 }
+
+/** Thin every array of a curve alike (the same indices), for display. */
+export function thinCurve<T extends Record<string, readonly number[]>>(curve: T, max = 600): T {
+  const n = Object.values(curve)[0]?.length ?? 0;
+  if (n <= max) return curve;
+  const keep = thin(Array.from({ length: n }, (_, i) => i), max);
+  return Object.fromEntries(Object.entries(curve).map(([k, v]) => [k, keep.map((i) => v[i]!)])) as unknown as T;
+}
