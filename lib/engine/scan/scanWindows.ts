@@ -68,7 +68,7 @@ export function scanWindows(data: HeatCapacityInput, options: ScanOptions = {}):
   const firstUpper = Math.min(1, (minPoints - 1) / Math.max(1, s.T.length - 1));
   const tMinGrid = [...(options.tMinGridK ?? quantileEdges(s.T, 0, 0.5, 20))].sort((a, b) => a - b);
   const tMaxGrid = [...(options.tMaxGridK ?? quantileEdges(s.T, firstUpper, 1, 20))].sort((a, b) => a - b);
-  const linear = model.linear && !options.fixed;
+  const linear = model.linear && (!options.fixed || Object.keys(options.fixed).length === 0);
   const cells: ScanCell[] = [];
   const pos: [number, number][] = [];
   const design = linear ? buildDesign(model.basis!, s.T) : null;
