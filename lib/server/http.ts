@@ -26,9 +26,16 @@ export function errorResponse(raw: unknown): NextResponse<ErrorBody> {
   return NextResponse.json({ error: "internal error" }, { status: 500 });
 }
 
-function isDatabaseDown(err: unknown): boolean {
-  const text = String((err as { code?: string; message?: string })?.code ?? "") + " " + String((err as Error)?.message ?? "");
-  return /ECONNREFUSED|ECONNRESET|57P01|57P03|terminating connection|Connection terminated|DatabaseNotReachable/i.test(text);
+const DOWN_CODES = new Set(["P1001", "P1002", "P1008", "P1017", "ECONNREFUSED", "ECONNRESET", "57P01", "57P02", "57P03", "08000", "08003", "08006"]);
+const DOWN_TEXT = /ECONNREFUSED|ECONNRESET|terminating connection|Connection terminated|connection (?:is )?closed|Can't reach database server|DatabaseNotReachable|the database system is (?:starting up|shutting down)/i;
+
+/** PostgreSQL unreachable or restarting (Prisma's P1001/P1017, pg's connection errors), anywhere in the cause chain. */
+function isDatabaseDown(err: unknown, depth = 0): boolean {
+  if (!err || typeof err !== "object" || depth > 5) return false;
+  const e = err as { code?: unknown; errorCode?: unknown; message?: unknown; cause?: unknown; meta?: { driverAdapterError?: { cause?: unknown } } };
+  if ((typeof e.code === "string" && DOWN_CODES.has(e.code)) || (typeof e.errorCode === "string" && DOWN_CODES.has(e.errorCode))) return true;
+  if (typeof e.message === "string" && DOWN_TEXT.test(e.message)) return true;
+  return isDatabaseDown(e.cause, depth + 1) || isDatabaseDown(e.meta?.driverAdapterError?.cause, depth + 1);
 }
 
 type Handler<C> = (req: Request, ctx: C) => Promise<Response>;
