@@ -1,6 +1,6 @@
 /**
  * `npm run bench:load`: signed-in clients against `next start` + PostgreSQL on loopback,
- * with autocannon, bounded in time (--seconds per run, default 5; --rounds, default 2).
+ * with autocannon, bounded in time (--seconds per run, default 5; --rounds, default 3).
  * Scenarios: reading a notebook (cached step outputs), listing samples, and a recompute cycle
  * (read notebook → save a new fit window → read again, which recomputes the fit and the
  * derived step; one analysis per connection so saves never conflict). Each at 8, 32 and 128
@@ -26,7 +26,7 @@ function option(name: string, fallback: number): number {
 }
 
 const SECONDS = option("seconds", 5);
-const ROUNDS = option("rounds", 2);
+const ROUNDS = option("rounds", 3);
 const LEVELS = [8, 32, 128];
 if (process.env.HEATBOOK_BENCH_APP_DIR) process.env.HEATBOOK_OPS_APP_DIR = process.env.HEATBOOK_BENCH_APP_DIR;
 
@@ -62,7 +62,9 @@ async function main(): Promise<void> {
 
   // Recompute cycle: each cycle takes a free analysis, reads it, saves a new window with the
   // version it read, reads again (recomputes fit + derive), and frees the analysis.
-  const free = analyses.slice(1).map((_, i) => i + 1);
+  // Refilled before each run: a cycle cut off by the end of a run never frees its analysis.
+  const free: number[] = [];
+  const refill = () => free.splice(0, free.length, ...analyses.slice(1).map((_, i) => i + 1));
   let flip = 0;
   const cycle: autocannon.Request[] = [
     { method: "GET", setupRequest: (req, ctx) => { ctx.k = free.shift() ?? 1; return { ...req, path: `/api/groups/${f.slug}/analyses/${analyses[ctx.k as number]!.id}` }; },
@@ -74,7 +76,7 @@ async function main(): Promise<void> {
   const scenarios: [string, (n: number) => Promise<Omit<Row, "scenario" | "connections">>, ((c: import("pg").Pool) => Promise<void>) | null][] = [
     ["notebook read", (n) => cannon({ url: `${api}/analyses/${read.id}`, connections: n, headers }), (c) => notebookQueries(c, ids)],
     ["sample list", (n) => cannon({ url: `${api}/samples`, connections: n, headers }), (c) => sampleListQueries(c, ids)],
-    ["recompute cycle (read, save window, read)", (n) => cannon({ url: app.base, connections: Math.min(n, analyses.length - 1), headers, requests: cycle }), null],
+    ["recompute cycle (read, save window, read)", (n) => (refill(), cannon({ url: app.base, connections: Math.min(n, analyses.length - 1), headers, requests: cycle })), null],
   ];
 
   const pid = app.child.pid!;
@@ -88,7 +90,6 @@ async function main(): Promise<void> {
   rss.push(`| after warm-up | ${fmt(rssMiB(pid))} MiB |`);
   for (let round = 1; round <= ROUNDS; round++) {
     for (const [name, run] of scenarios) for (const n of LEVELS) rows.push({ scenario: `${name} · round ${round}`, connections: n, ...(await run(n)) });
-    global.gc?.();
     rss.push(`| after round ${round} | ${fmt(rssMiB(pid))} MiB |`);
   }
   for (const [name, , op] of scenarios) {
