@@ -36,7 +36,7 @@ function cell(r: SeriesRow, k: Key, slug: string) {
   if (k === "ea") return r.electronsPerAtom === null ? "—" : r.electronsPerAtom.toFixed(3);
   if (k === "gammaFree") return r.gammaFree === null ? "—" : formatUncertainty(r.gammaFree, null, { plainDigits: 4 });
   if (k === "status") {
-    if (!r.revision) return <span className="muted">no analysis{r.warnings.length ? "" : ""}</span>;
+    if (!r.revision) return <span className="muted" title={r.warnings.join("; ")}>no sealed revision yet</span>;
     const href = `/g/${encodeURIComponent(slug)}/analyses/${r.revision.analysisId}?revision=${r.revision.revisionId}`;
     return <Link href={href} title={r.revision.analysisTitle}>r{r.revision.revisionNumber} · {STATE_LABEL[r.revision.state]}</Link>;
   }
