@@ -38,7 +38,8 @@ export interface BossOptions {
 export async function startBoss(url: string, opts: BossOptions): Promise<PgBoss> {
   const boss = new PgBoss({
     connectionString: url,
-    max: 4,
+    // Workers fetch, supervise and complete; the app only sends.
+    max: opts.supervise ? 4 : 2,
     application_name: opts.supervise ? "heatbook-worker" : "heatbook-app",
     supervise: opts.supervise,
     schedule: false,

@@ -10,6 +10,7 @@ import { NotFoundError } from "../../engine/errors";
 import { computeChain, parseStepConfig, type StepSpec } from "../../engine/notebook";
 import { findPlateau, quantileEdges, scanWindows, type ScanCell } from "../../engine/scan";
 import type { FitConfig } from "../../engine/notebook/steps/fit";
+import { getModel } from "../../engine/models/registry";
 import { loadContext } from "../notebook/context";
 import type { JobContext } from "./context";
 
@@ -47,7 +48,8 @@ async function fitInput(ctx: JobContext, p: WindowScanParams) {
 export async function runWindowScan(ctx: JobContext, p: WindowScanParams): Promise<WindowScanSummary> {
   const { input, options } = await fitInput(ctx, p);
   const sorted = Float64Array.from(input.temperatureK).sort();
-  const minPoints = 8;
+  // The notebook scan's own rule (scanWindows): at least 8 points and 3 more than the parameters.
+  const minPoints = Math.max(8, getModel(options.model).parameters.length + 3);
   const tMin = quantileEdges(sorted, 0, 0.5, p.gridSize);
   const tMax = quantileEdges(sorted, Math.min(1, (minPoints - 1) / Math.max(1, sorted.length - 1)), 1, p.gridSize);
   const cells: ScanCell[] = [];
