@@ -93,3 +93,9 @@ describe("compileExpression", () => {
     expect(out[0]).toBe(10);
   });
 });
+
+describe("parseUserExpression and names from Object.prototype", () => {
+  it.each(["hasOwnProperty(T)", "constructor(T)", "toString()", "__proto__(T)", "valueOf(T)"])("parseUserExpression(%s) refuses the call with InputError", (text) => {
+    expect(() => parseUserExpression(text)).toThrow(InputError);
+  });
+});

@@ -51,7 +51,7 @@ function checkNode(node: AnyNode, text: string): void {
     case "FunctionNode": {
       const fnNode = node.fn as AnyNode;
       const name = fnNode.type === "SymbolNode" ? String(fnNode.name) : "";
-      const arity = ALLOWED_FUNCTIONS[name];
+      const arity = Object.prototype.hasOwnProperty.call(ALLOWED_FUNCTIONS, name) ? ALLOWED_FUNCTIONS[name] : undefined;
       if (!name || !arity) refuse(text, `function "${name || "?"}" is not allowed (allowed: ${Object.keys(ALLOWED_FUNCTIONS).join(", ")})`, name ? `${name}(` : "(");
       const nArgs = (node.args as unknown[]).length;
       if (!arity.includes(nArgs)) refuse(text, `${name} takes ${arity.join(" or ")} argument(s), got ${nArgs}`, `${name}(`);
