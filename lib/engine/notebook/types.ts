@@ -12,6 +12,8 @@ export interface ChainMeasurement {
   basis: "sample" | "molar" | "specific";
   fieldT: number;
   sha256: string;
+  /** Number of points (set when the arrays are not loaded, e.g. for hashing only). */
+  pointCount?: number;
   temperatureK: readonly number[];
   heatCapacity: readonly number[];
   sigma: readonly number[] | null;

@@ -47,13 +47,15 @@ export async function computeRevisionSteps(db: Db, groupId: string, sampleId: st
   const t0 = performance.now();
   const rows: StepRow[] = await db.step.findMany({ where: { revisionId }, orderBy: { position: "asc" } });
   const specs: StepSpec[] = rows.map((r) => ({ id: r.id, kind: r.kind as StepSpec["kind"], config: r.config }));
-  const context = await loadContext(db, groupId, sampleId, specs);
+  // Hashes need no point arrays; load them only if something must be computed.
+  let context = await loadContext(db, groupId, sampleId, specs, { points: false });
   const hashes = inputHashes(specs, context);
   const stale = rows.map((r, i) => r.inputHash !== hashes[i] || r.output === null);
   let outputs: (StoredOutput | null)[] = rows.map((r) => (r.output as StoredOutput | null) ?? null);
   const computed = mode === "edit" && stale.some(Boolean);
   const now = new Date();
   if (computed) {
+    context = await loadContext(db, groupId, sampleId, specs);
     outputs = computeChain(specs, context).map(strip);
     await db.$transaction(
       rows

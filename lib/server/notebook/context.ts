@@ -33,22 +33,32 @@ export function referencedMeasurements(steps: readonly StepSpec[]): string[] {
   return [...ids];
 }
 
-export async function loadMeasurements(db: Db, groupId: string, ids: readonly string[]): Promise<Record<string, ChainMeasurement>> {
+/** Measurements by id (group-scoped). With `points: false` only what the input hashes read (no point arrays). */
+export async function loadMeasurements(db: Db, groupId: string, ids: readonly string[], opts: { points?: boolean } = {}): Promise<Record<string, ChainMeasurement>> {
   const uuids = ids.filter((id) => /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id));
   if (uuids.length === 0) return {};
-  const rows = await db.measurement.findMany({ where: { groupId, id: { in: uuids } }, include: { file: { select: { sha256: true } } } });
+  const withPoints = opts.points ?? true;
+  const rows = await db.measurement.findMany({
+    where: { groupId, id: { in: uuids } },
+    select: {
+      id: true, label: true, kind: true, basis: true, fieldT: true, pointCount: true, file: { select: { sha256: true } },
+      ...(withPoints ? { temperatureK: true, heatCapacity: true, sigma: true } : {}),
+    },
+  });
   const out: Record<string, ChainMeasurement> = {};
   for (const m of rows) {
+    const r = m as typeof m & { temperatureK?: Uint8Array; heatCapacity?: Uint8Array; sigma?: Uint8Array | null };
     out[m.id] = {
-      id: m.id, label: m.label, kind: m.kind, basis: m.basis, fieldT: m.fieldT, sha256: m.file.sha256,
-      temperatureK: unpackFloat64(m.temperatureK), heatCapacity: unpackFloat64(m.heatCapacity), sigma: m.sigma ? unpackFloat64(m.sigma) : null,
+      id: m.id, label: m.label, kind: m.kind, basis: m.basis, fieldT: m.fieldT, sha256: m.file.sha256, pointCount: m.pointCount,
+      temperatureK: r.temperatureK ? unpackFloat64(r.temperatureK) : [], heatCapacity: r.heatCapacity ? unpackFloat64(r.heatCapacity) : [], sigma: r.sigma ? unpackFloat64(r.sigma) : null,
     };
   }
   return out;
 }
 
-export async function loadContext(db: Db, groupId: string, sampleId: string, steps: readonly StepSpec[]): Promise<ChainContext> {
-  const [sample, measurements] = await Promise.all([loadSample(db, groupId, sampleId), loadMeasurements(db, groupId, referencedMeasurements(steps))]);
+/** What a chain reads. `points: false` is enough for input hashes (a cached notebook needs no more). */
+export async function loadContext(db: Db, groupId: string, sampleId: string, steps: readonly StepSpec[], opts: { points?: boolean } = {}): Promise<ChainContext> {
+  const [sample, measurements] = await Promise.all([loadSample(db, groupId, sampleId), loadMeasurements(db, groupId, referencedMeasurements(steps), opts)]);
   return { sample, measurements };
 }
 
@@ -63,7 +73,7 @@ function externalInputs(step: StepSpec, ctx: ChainContext): unknown {
   return {
     measurements: deps.measurementIds.map((id) => {
       const m = ctx.measurements[id];
-      return m ? { id, sha256: m.sha256, basis: m.basis, fieldT: m.fieldT, n: m.temperatureK.length } : { id, missing: true };
+      return m ? { id, sha256: m.sha256, basis: m.basis, fieldT: m.fieldT, n: m.pointCount ?? m.temperatureK.length } : { id, missing: true };
     }),
     sample: Object.fromEntries(deps.sampleFields.map((f) => [f, ctx.sample[f]])),
   };
