@@ -19,7 +19,7 @@ export default defineConfig({
     },
   },
   webServer: {
-    command: `node node_modules/tsx/dist/cli.mjs scripts/start.ts --port ${PORT} --data-dir .data/e2e --fresh --no-build`,
+    command: `node node_modules/tsx/dist/cli.mjs scripts/start.ts --port ${PORT} --data-dir .data/e2e --fresh --no-build --no-worker`,
     url: `http://localhost:${PORT}/signin`,
     timeout: 240_000,
     reuseExistingServer: false,

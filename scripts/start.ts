@@ -6,7 +6,8 @@
  *
  * Options: --port N (or PORT), --data-dir DIR (default .data), --fresh (wipe DIR first),
  *          --no-seed, --dev (next dev instead of a production build), --no-build (serve the
- *          existing build as it is; the test runner builds just before the browser tests).
+ *          existing build as it is; the test runner builds just before the browser tests),
+ *          --no-worker (do not start the one background-job worker that `npm start` runs).
  */
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { existsSync, mkdirSync, readFileSync, writeFileSync, statSync, readdirSync, rmSync } from "node:fs";
@@ -81,12 +82,18 @@ async function main(): Promise<void> {
   const args = ["node_modules/next/dist/bin/next", dev ? "dev" : "start", "-H", "127.0.0.1", "-p", String(port)];
   const child: ChildProcess = spawn(process.execPath, args, { stdio: "inherit", env: process.env });
   console.log(`heatbook: serving on http://localhost:${port}`);
+  // One job worker beside the app, so background jobs (series refits, large scans) run in the demo too.
+  const worker: ChildProcess | null = flag("no-worker")
+    ? null
+    : spawn(process.execPath, ["--import", "tsx", "scripts/worker.ts", "--name", "npm-start"], { stdio: ["ignore", "inherit", "inherit"], env: process.env });
   let stopping = false;
   const stop = async (code: number) => {
     if (stopping) return;
     stopping = true;
     if (child.exitCode === null) child.kill("SIGTERM");
+    if (worker && worker.exitCode === null) worker.kill("SIGTERM");
     await new Promise((r) => (child.exitCode === null ? child.once("exit", r) : r(null)));
+    if (worker) await new Promise((r) => (worker.exitCode === null ? worker.once("exit", r) : r(null)));
     if (embedded) await embedded.stop();
     process.exit(code);
   };

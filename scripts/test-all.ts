@@ -1,6 +1,7 @@
 /**
  * `npm test`: everything CI checks, in order — type check, vitest (unit + integration on a real
- * PostgreSQL), next build, Playwright in Debian's Chromium — then one closing line
+ * PostgreSQL), next build, the fault tests against real `next start` servers (tests/ops), Playwright
+ * in Debian's Chromium — then one closing line
  * "N passed, N failed" summing both runners. Exits non-zero if anything failed.
  * `npm test -- --quick` skips the build and the browser tests.
  */
@@ -50,6 +51,11 @@ if (!quick) {
   if (!built) total.failed++;
   ok = built && ok;
   if (built) {
+    rmSync(".data/vitest-ops.json", { force: true });
+    ok = run("fault tests (tests/ops)", process.execPath, ["node_modules/vitest/vitest.mjs", "run", "--config", "vitest.ops.config.ts", "--reporter=default", "--reporter=json", "--outputFile.json=.data/vitest-ops.json"], { HEATBOOK_BCRYPT_COST: "4" }) && ok;
+    const o = vitestCounts(".data/vitest-ops.json");
+    total.passed += o.passed;
+    total.failed += o.failed;
     rmSync(".data/playwright.json", { force: true });
     ok = run("playwright", process.execPath, ["node_modules/@playwright/test/cli.js", "test"], { PLAYWRIGHT_JSON_OUTPUT_NAME: ".data/playwright.json" }) && ok;
     const p = playwrightCounts(".data/playwright.json");

@@ -9,10 +9,15 @@ import CredentialsProvider from "next-auth/providers/credentials";
 import { getDb } from "../db/client";
 import { authenticate, findOrCreateExternalUser } from "../users";
 
+/**
+ * The client address for sign-in throttling. X-Forwarded-For is believed only behind a proxy we
+ * were told about (HEATBOOK_TRUST_PROXY=1), since anyone can send the header; otherwise the
+ * address is unknown ("") and only the per-e-mail limit applies.
+ */
 function clientIp(headers: Record<string, unknown> | undefined): string {
   const forwarded = headers?.["x-forwarded-for"];
-  if (typeof forwarded === "string" && forwarded) return forwarded.split(",")[0]!.trim();
-  return "local";
+  if (process.env.HEATBOOK_TRUST_PROXY === "1" && typeof forwarded === "string" && forwarded) return forwarded.split(",")[0]!.trim();
+  return "";
 }
 
 function providers(): Provider[] {

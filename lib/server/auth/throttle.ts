@@ -1,5 +1,5 @@
 /**
- * Sign-in throttling: after 5 failed attempts for one e-mail (or 30 from one address) within
+ * Sign-in throttling: after 5 failed attempts for one e-mail (or 30 from one known address) within
  * 15 minutes, further attempts are refused until the window passes. Attempts are kept in
  * PostgreSQL so the limit holds across app instances.
  */
@@ -11,7 +11,8 @@ export async function isThrottled(db: Db, email: string, ip: string, now = new D
   const since = new Date(now.getTime() - THROTTLE.windowMs);
   const [byEmail, byIp] = await Promise.all([
     db.signInAttempt.count({ where: { email, succeeded: false, at: { gte: since } } }),
-    db.signInAttempt.count({ where: { ip, succeeded: false, at: { gte: since } } }),
+    // An unknown address ("") is never counted as one client.
+    ip ? db.signInAttempt.count({ where: { ip, succeeded: false, at: { gte: since } } }) : Promise.resolve(0),
   ]);
   return byEmail >= THROTTLE.perEmail || byIp >= THROTTLE.perIp;
 }

@@ -3,6 +3,8 @@ import Link from "next/link";
 import { orNotFound, pageMember } from "@/app/_server/guard";
 import { listSeries, seriesView } from "@/lib/server/series";
 import { SeriesExplorer } from "@/app/components/series/SeriesExplorer";
+import { JobsPanel } from "@/app/components/jobs/JobsPanel";
+import { can } from "@/lib/server/permissions";
 import "@/app/components/series/series.css";
 
 export const dynamic = "force-dynamic";
@@ -21,6 +23,7 @@ export default async function SeriesPage({ params }: { params: Promise<{ slug: s
       <h1 data-testid="series-title">{view.series.name}</h1>
       {view.series.description && <p className="lede">{view.series.description}</p>}
       <SeriesExplorer slug={slug} initial={view} others={others} />
+      {can(member.role, "series.write") && <JobsPanel slug={slug} seriesId={id} />}
     </>
   );
 }
