@@ -3,7 +3,7 @@
  * data → addenda → normalise → fit → derive recovers the γ and β the data were made from.
  */
 import { describe, it, expect } from "vitest";
-import { computeChain, computeStep, EMPTY_STATE, parseStepConfig, type ChainContext, type StepSpec } from "../../lib/engine/notebook";
+import { computeChain, computeChainFrom, computeStep, EMPTY_STATE, parseStepConfig, type ChainContext, type StepSpec } from "../../lib/engine/notebook";
 import { GAS_CONSTANT_J_PER_MOL_K } from "../../lib/engine/constants";
 import { expectClose } from "../helpers/expectClose";
 
@@ -55,6 +55,13 @@ describe("computeChain", () => {
     const thetaD = q.find((x) => x.name === "thetaD")!.value;
     // Analytic identity: Θ_D = (12π⁴R/(5β))^{1/3} with r = 1.
     expectClose(thetaD, Math.cbrt((12 * Math.PI ** 4 * GAS_CONSTANT_J_PER_MOL_K) / (5 * b.value)), { rel: 1e-9 });
+  });
+
+  it("computeChainFrom resumed below the normalisation gives exactly what the whole chain gives", () => {
+    const ctx = context();
+    const whole = computeChain(chain, ctx);
+    const resumed = computeChainFrom(chain, ctx, 3, whole[2]!.state);
+    expect(resumed.map((o) => JSON.stringify(o.result))).toEqual(whole.slice(3).map((o) => JSON.stringify(o.result)));
   });
 
   it("computeChain reports a fit above a missing normalisation as a step error, not an exception", () => {

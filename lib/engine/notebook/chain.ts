@@ -49,9 +49,16 @@ export function computeStep(spec: StepSpec, state: ChainState, ctx: ChainContext
 
 /** Compute the whole chain from the top. */
 export function computeChain(steps: readonly StepSpec[], ctx: ChainContext): StepOutput[] {
+  return computeChainFrom(steps, ctx, 0, EMPTY_STATE);
+}
+
+/**
+ * Compute steps[from..] given the state the step above `from` handed down (its outputs only;
+ * the caller keeps those of the steps above). Used to resume a chain whose top is unchanged.
+ */
+export function computeChainFrom(steps: readonly StepSpec[], ctx: ChainContext, from: number, state: ChainState): StepOutput[] {
   const out: StepOutput[] = [];
-  let state = EMPTY_STATE;
-  for (const s of steps) {
+  for (const s of steps.slice(from)) {
     const o = computeStep(s, state, ctx);
     out.push(o);
     state = o.state;

@@ -6,7 +6,7 @@
  */
 import type { Db } from "../db/client";
 import { ENGINE_VERSION } from "../../engine/version";
-import { computeChain, type StepOutput, type StepSpec, type ChainContext } from "../../engine/notebook";
+import { computeChainFrom, EMPTY_STATE, type ChainState, type StepOutput, type StepSpec, type ChainContext } from "../../engine/notebook";
 import { inputHashes, loadContext } from "./context";
 
 export type StoredOutput = Omit<StepOutput, "state">;
@@ -30,6 +30,33 @@ export interface StepView {
 type StepRow = Awaited<ReturnType<Db["step"]["findMany"]>>[number];
 
 const strip = ({ state: _state, ...rest }: StepOutput): StoredOutput => rest;
+
+/**
+ * The state each computed step handed down, by its input hash (per process, small LRU). A hash
+ * names the step's inputs exactly, so a hit is the state that step would hand down now; it lets a
+ * changed fit window recompute the fit and the steps below without redoing the data steps above.
+ */
+const STATE_CACHE_SIZE = 128;
+const stateCache = new Map<string, ChainState>();
+
+function rememberState(hash: string, state: ChainState): void {
+  stateCache.delete(hash);
+  stateCache.set(hash, state);
+  while (stateCache.size > STATE_CACHE_SIZE) stateCache.delete(stateCache.keys().next().value!);
+}
+
+/** The first step to compute, and the state to start it from: after the longest fresh, cached top. */
+function resumePoint(stale: readonly boolean[], hashes: readonly string[]): { from: number; state: ChainState } {
+  let from = 0;
+  let state: ChainState = EMPTY_STATE;
+  for (let i = 0; i < stale.length && !stale[i]; i++) {
+    const cached = stateCache.get(hashes[i]!);
+    if (!cached) break;
+    from = i + 1;
+    state = cached;
+  }
+  return { from, state };
+}
 
 export interface ComputeResult {
   steps: StepView[];
@@ -56,7 +83,10 @@ export async function computeRevisionSteps(db: Db, groupId: string, sampleId: st
   const now = new Date();
   if (computed) {
     context = await loadContext(db, groupId, sampleId, specs);
-    outputs = computeChain(specs, context).map(strip);
+    const { from, state } = resumePoint(stale, hashes);
+    const fresh = computeChainFrom(specs, context, from, state);
+    fresh.forEach((o, k) => rememberState(hashes[from + k]!, o.state));
+    outputs = [...outputs.slice(0, from), ...fresh.map(strip)];
     await db.$transaction(
       rows
         .map((r, i) => ({ r, i }))
