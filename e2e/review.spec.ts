@@ -17,12 +17,15 @@ async function signedIn(browser: Browser, email: string): Promise<Page> {
   return page;
 }
 
-/** A fresh copy of NM-05's analysis (drafting) so other specs keep theirs. */
+/**
+ * A new analysis of NM-05's sample with the standard starting chain, so this flow does not depend
+ * on what other specs did to the demo's own drafting analysis.
+ */
 async function copyOfDraft(page: Page): Promise<string> {
   const list = await (await page.request.get(`${API}/analyses`)).json();
-  const nm05 = (list.analyses as { id: string; title: string }[]).find((a) => a.title.startsWith("NM-05"));
+  const nm05 = (list.analyses as { id: string; title: string; sampleId: string }[]).find((a) => a.title.startsWith("NM-05"));
   expect(nm05, "the demo has NM-05's analysis").toBeTruthy();
-  const res = await page.request.post(`${API}/analyses/${nm05!.id}`, { data: { action: "duplicate", title: "NM-05 for review (e2e)" } });
+  const res = await page.request.post(`${API}/analyses`, { data: { sampleId: nm05!.sampleId, title: "NM-05 for review (e2e)", starter: "standard" } });
   expect(res.status()).toBe(201);
   return (await res.json()).analysis.id as string;
 }

@@ -64,6 +64,14 @@ describe("computeChain", () => {
     expect(resumed.map((o) => JSON.stringify(o.result))).toEqual(whole.slice(3).map((o) => JSON.stringify(o.result)));
   });
 
+  it("computeChain's derive step passes over an expression fit without γ and β and uses the fit above it", () => {
+    const steps: StepSpec[] = [...chain.slice(0, 4), { id: "x", kind: "fit", config: { model: "expression", expression: "g*T + b*T^3" } }, { id: "v", kind: "derive", config: {} }];
+    const out = computeChain(steps, context());
+    expect(out[4]!.ok).toBe(true);
+    expect(out[5]!.error).toBeNull();
+    expect((out[5]!.result as { fitStepId: string }).fitStepId).toBe("f");
+  });
+
   it("computeChain reports a fit above a missing normalisation as a step error, not an exception", () => {
     const out = computeChain([chain[0]!, chain[3]!], context());
     expect(out[0]!.ok).toBe(true);

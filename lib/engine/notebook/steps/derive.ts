@@ -27,10 +27,21 @@ export const deriveConfig = z.object({
 });
 export type DeriveConfig = z.infer<typeof deriveConfig>;
 
+/**
+ * The fit whose γ and β a step uses: the one named, or else the nearest fit above that has γ and
+ * β (a user-expression fit with other parameter names is passed over).
+ */
 export function pickFit(state: ChainState, stepId: string | null, what: string): FitSummary {
-  const fit = stepId ? state.fits[stepId] : state.fit;
-  if (!fit) throw new StepFailure(stepId ? "the chosen fit step is not above this step" : `${what} needs a fit step above it`, "fitStepId");
-  if (!fit.gamma || !fit.beta) throw new StepFailure(`the fit (model ${fit.model}) has no γ and β`, "fitStepId");
+  if (stepId) {
+    const named = state.fits[stepId];
+    if (!named) throw new StepFailure("the chosen fit step is not above this step", "fitStepId");
+    if (!named.gamma || !named.beta) throw new StepFailure(`the chosen fit (model ${named.model}) has no γ and β`, "fitStepId");
+    return named;
+  }
+  if (state.fit?.gamma && state.fit.beta) return state.fit;
+  const withGammaBeta = Object.values(state.fits).filter((f) => f.gamma && f.beta);
+  const fit = withGammaBeta[withGammaBeta.length - 1];
+  if (!fit) throw new StepFailure(state.fit ? `the fit above (model ${state.fit.model}) has no γ and β: name them gamma and beta, or choose a fit step` : `${what} needs a fit step above it`, "fitStepId");
   return fit;
 }
 
