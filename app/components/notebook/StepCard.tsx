@@ -12,6 +12,7 @@ import { KIND_LABEL, when } from "./display";
 import { summaryLine } from "./summary";
 import { StepForm, type Draft } from "./StepForm";
 import { FitView } from "./FitView";
+import { JobsPanel } from "@/app/components/jobs/JobsPanel";
 import { DataView } from "./DataView";
 import { AddendaView, DeriveView, EntropyView, NormaliseView, TransitionView } from "./ResultViews";
 import { AddStep } from "./AddStep";
@@ -55,6 +56,7 @@ function NewerValues({ mine, theirs, note, onKeep, onTake }: { mine: Draft; thei
 }
 
 export function StepCard({ step, first, last, ctx, noteHtml, basisAbove }: Props) {
+  const [jobsOpen, setJobsOpen] = useState(false);
   const [open, setOpen] = useState(false);
   const [draft, setDraft] = useState<Draft>(step.config);
   const [title, setTitle] = useState(step.title);
@@ -145,6 +147,12 @@ export function StepCard({ step, first, last, ctx, noteHtml, basisAbove }: Props
       {o?.ok && (
         <>
           {step.kind === "fit" && <FitView step={step} result={o.result as FitStepResult} ctx={ctx} save={saveDirect} />}
+          {step.kind === "fit" && ctx.editable && (
+            <details className="nb-jobs" onToggle={(e) => setJobsOpen(e.currentTarget.open)}>
+              <summary>Large window scan in the background (a job with progress; the page stays usable)</summary>
+              {jobsOpen && <JobsPanel slug={ctx.slug} analysisId={ctx.analysisId} fitStepId={step.id} />}
+            </details>
+          )}
           {step.kind === "data" && <DataView step={step} ctx={ctx} save={saveDirect} />}
           {step.kind === "addenda" && <AddendaView r={o.result as AddendaStepResult} />}
           {step.kind === "normalise" && <NormaliseView r={o.result as Record<string, unknown>} />}
