@@ -10,8 +10,8 @@
  * Converged only when, after an accepted step, the relative step or the relative χ²
  * change (actual and predicted) is below tolerance, or when the scaled gradient vanishes;
  * anything else (evaluation limit, λ overflow, non-finite model) is converged: false with
- * a message. References: Marquardt, J. SIAM 11 (1963) 431; Moré, Lecture Notes in
- * Mathematics 630 (1978) 105; Nielsen, IMM-REP-1999-05 (DTU, 1999).
+ * a message. References: Marquardt, J. SIAM 11 (1963) 431; Moré, in G. A. Watson (ed.),
+ * Numerical Analysis, Springer LNM 630 (1978) 105; Nielsen, IMM-REP-1999-05 (DTU, 1999).
  */
 import { applyQt, qrFactor } from "../linalg/qr";
 import { activeColumns, clampInto, dampedStep, deadColumn, gaussNewtonRelativeStep, onBounds } from "./lmSteps";
