@@ -3,14 +3,8 @@
  * convert to SI, store original bytes + packed points + audit row in one transaction) against the
  * embedded PostgreSQL. Prints wall time and peak RSS / heap growth.
  */
-import { rmSync } from "node:fs";
-import { startEmbeddedDatabase } from "../lib/server/db/embedded";
-import { migrate } from "../lib/server/db/migrate";
-import { createDb } from "../lib/server/db/client";
-import { createGroup } from "../lib/server/groups";
-import { memberOf } from "../lib/server/access";
-import { createSample } from "../lib/server/samples";
 import { importMeasurement } from "../lib/server/measurements";
+import { withBenchDatabase } from "./fixture";
 
 function bigFile(rows: number): Uint8Array {
   const lines = ["# benchmark file (synthetic)", "Temperature (K),Heat capacity (µJ/K),Uncertainty (µJ/K)"];
@@ -23,16 +17,7 @@ function bigFile(rows: number): Uint8Array {
 }
 
 export async function runImportBench(): Promise<string> {
-  const dir = ".data/bench-pg";
-  rmSync(dir, { recursive: true, force: true });
-  const pg = await startEmbeddedDatabase({ dir });
-  try {
-    await migrate(pg.url);
-    const db = createDb(pg.url, 4);
-    const user = await db.user.create({ data: { email: "bench@example.org", name: "bench" } });
-    const group = await createGroup(db, user.id, { name: "Bench group" });
-    const member = await memberOf(db, user.id, group.slug);
-    const sample = await createSample(db, member, { label: "bench", formula: "Nb", massMg: 20 });
+  return withBenchDatabase(".data/bench-pg", async ({ db, member, sample }) => {
     const rows: string[] = ["| rows | file size | wall time | peak RSS | RSS growth |", "|---:|---:|---:|---:|---:|"];
     for (const n of [10_000, 100_000]) {
       const bytes = bigFile(n);
@@ -49,11 +34,6 @@ export async function runImportBench(): Promise<string> {
       peak = Math.max(peak, process.memoryUsage().rss);
       rows.push(`| ${n.toLocaleString("en")} | ${(bytes.byteLength / 1e6).toFixed(1)} MB | ${(ms / 1000).toFixed(2)} s | ${(peak / 2 ** 20).toFixed(0)} MiB | +${((peak - rss0) / 2 ** 20).toFixed(0)} MiB |`);
     }
-    await db.$disconnect();
     return "### Measurement import (parse → validate → SI → one transaction)\n\n" + rows.join("\n");
-  } finally {
-    await pg.stop();
-    rmSync(dir, { recursive: true, force: true });
-    rmSync(`${dir}.log`, { force: true });
-  }
+  });
 }

@@ -4,14 +4,8 @@
  * PostgreSQL — cold (every output recomputed) and cached (hashes match, nothing computed) — and
  * to save a new fit window and reopen (the fit step and those below recomputed).
  */
-import { rmSync } from "node:fs";
-import { startEmbeddedDatabase } from "../lib/server/db/embedded";
-import { migrate } from "../lib/server/db/migrate";
-import { createDb } from "../lib/server/db/client";
-import { createGroup } from "../lib/server/groups";
-import { memberOf } from "../lib/server/access";
-import { createSample } from "../lib/server/samples";
 import { importMeasurement } from "../lib/server/measurements";
+import { withBenchDatabase } from "./fixture";
 import { addStep, createAnalysis, openNotebook, updateStep } from "../lib/server/notebook";
 
 function csv(n: number, f: (T: number) => number, tMin: number, tMax: number): Uint8Array {
@@ -27,16 +21,7 @@ function csv(n: number, f: (T: number) => number, tMin: number, tMax: number): U
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 
 export async function runNotebookBench(): Promise<string> {
-  const dir = ".data/bench-nb-pg";
-  rmSync(dir, { recursive: true, force: true });
-  const pg = await startEmbeddedDatabase({ dir });
-  try {
-    await migrate(pg.url);
-    const db = createDb(pg.url, 4);
-    const user = await db.user.create({ data: { email: "bench@example.org", name: "bench" } });
-    const group = await createGroup(db, user.id, { name: "Bench group" });
-    const m = await memberOf(db, user.id, group.slug);
-    const sample = await createSample(db, m, { label: "bench Nb", formula: "Nb", massMg: 20, densityGPerCm3: 8.57 });
+  return withBenchDatabase(".data/bench-nb-pg", async ({ db, member: m, sample }) => {
     const n = 20e-3 / 92.90637;
     const addenda = (T: number) => 1.6e-7 * T + 2.2e-9 * T ** 3;
     const units = { temperature: "K", heatCapacity: "J/K" };
@@ -66,7 +51,6 @@ export async function runNotebookBench(): Promise<string> {
     }
     const kinds = nb.steps.map((s) => s.kind).join(" → ");
     const failed = nb.steps.filter((s) => !s.output?.ok).map((s) => `${s.kind}: ${s.output?.error}`);
-    await db.$disconnect();
     const rows = [
       "| case | median | target |", "|---|---:|---:|",
       `| open, cold (all ${nb.steps.length} steps computed) | ${median(cold).toFixed(0)} ms | < 300 ms |`,
@@ -74,9 +58,5 @@ export async function runNotebookBench(): Promise<string> {
       `| save a new fit window and reopen (fit and below recomputed) | ${median(refit).toFixed(0)} ms | < 100 ms |`,
     ];
     return `### Notebook (server side, 2 000-point measurement, 7 runs)\n\nChain: ${kinds}${failed.length ? `\n\nSTEP ERRORS: ${failed.join("; ")}` : ""}\n\n${rows.join("\n")}`;
-  } finally {
-    await pg.stop();
-    rmSync(dir, { recursive: true, force: true });
-    rmSync(`${dir}.log`, { force: true });
-  }
+  });
 }
