@@ -128,3 +128,16 @@ export function getAssignments(args: ParsedArgs, name: string): Record<string, n
   const v = args.flags[name];
   return v && typeof v === "object" && !Array.isArray(v) ? v : undefined;
 }
+
+/**
+ * The exit code for an error thrown by a command, after telling the user: bad usage or input
+ * (InputError) → 2 with a pointer to `--help`; anything else → 1 with its message.
+ */
+export function reportFailure(command: string, e: unknown, err: (text: string) => void): number {
+  if (e instanceof InputError) {
+    err(`heatbook ${command}: ${e.message}\nrun 'heatbook ${command} --help' for the options`);
+    return 2;
+  }
+  err(`heatbook ${command}: ${(e as Error).message}`);
+  return 1;
+}

@@ -8,7 +8,7 @@
  * Exit 0 success, 1 the fit failed (reason printed), 2 bad usage or input (what and where).
  */
 import type { CliIo } from "../io";
-import { formatFlagHelp, getAssignments, getBoolean, getNumber, getString, parseArgs, type FlagSpec, type ParsedArgs } from "../args";
+import { formatFlagHelp, getAssignments, getBoolean, getNumber, getString, parseArgs, type FlagSpec, type ParsedArgs, reportFailure } from "../args";
 import { InputError } from "../../engine/errors";
 import { parseDelimited, guessColumnRoles, extractPoints, type ParsedTable } from "../../engine/importer";
 import { toSI, heatCapacityBasis } from "../../engine/units";
@@ -170,11 +170,6 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
     }
     return 0;
   } catch (e) {
-    if (e instanceof InputError) {
-      io.err(`heatbook fit: ${e.message}\nrun 'heatbook fit --help' for the options`);
-      return 2;
-    }
-    io.err(`heatbook fit: ${(e as Error).message}`);
-    return 1;
+    return reportFailure("fit", e, io.err);
   }
 }

@@ -7,7 +7,7 @@
  * Exit 0 success, 2 bad usage or input.
  */
 import type { CliIo } from "../io";
-import { formatFlagHelp, getAssignments, getBoolean, getList, parseArgs, type FlagSpec } from "../args";
+import { formatFlagHelp, getAssignments, getBoolean, getList, parseArgs, type FlagSpec, reportFailure } from "../args";
 import { InputError } from "../../engine/errors";
 import { getModel, MODELS, type HeatCapacityModel } from "../../engine/models";
 
@@ -63,11 +63,6 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
     }
     return 0;
   } catch (e) {
-    if (e instanceof InputError) {
-      io.err(`heatbook model: ${e.message}\nrun 'heatbook model --help' for the options`);
-      return 2;
-    }
-    io.err(`heatbook model: ${(e as Error).message}`);
-    return 1;
+    return reportFailure("model", e, io.err);
   }
 }

@@ -7,7 +7,7 @@
  * Exit 0 success, 1 the fit failed (reason printed), 2 bad usage or input.
  */
 import type { CliIo } from "../io";
-import { formatFlagHelp, getAssignments, getBoolean, getString, parseArgs, type FlagSpec } from "../args";
+import { formatFlagHelp, getAssignments, getBoolean, getString, parseArgs, type FlagSpec, reportFailure } from "../args";
 import { InputError } from "../../engine/errors";
 import { fitCurve } from "../../engine/fit";
 import { findColumn, readTable, statistics } from "./fit";
@@ -65,11 +65,6 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
     }
     return 0;
   } catch (e) {
-    if (e instanceof InputError) {
-      io.err(`heatbook regress: ${e.message}\nrun 'heatbook regress --help' for the options`);
-      return 2;
-    }
-    io.err(`heatbook regress: ${(e as Error).message}`);
-    return 1;
+    return reportFailure("regress", e, io.err);
   }
 }
