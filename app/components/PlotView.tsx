@@ -5,19 +5,12 @@
  */
 import * as Plot from "@observablehq/plot";
 import { useEffect, useRef, useState } from "react";
+import { useContainerWidth } from "@/app/components/useContainerWidth";
 
 export function PlotView({ build, testId, label }: { build: (width: number) => Plot.PlotOptions; testId?: string; label: string }) {
   const host = useRef<HTMLDivElement>(null);
-  const [width, setWidth] = useState(0);
+  const width = useContainerWidth(host);
   const [error, setError] = useState<string | null>(null);
-
-  useEffect(() => {
-    const el = host.current;
-    if (!el) return;
-    const observer = new ResizeObserver(([entry]) => setWidth(Math.floor(entry?.contentRect.width ?? 0)));
-    observer.observe(el);
-    return () => observer.disconnect();
-  }, []);
 
   useEffect(() => {
     const el = host.current;

@@ -8,6 +8,7 @@
  */
 import * as Plot from "@observablehq/plot";
 import { useEffect, useRef, useState, type ReactNode } from "react";
+import { useContainerWidth } from "@/app/components/useContainerWidth";
 import { downloadPng, downloadText, mainSvg, svgText } from "./exportChart";
 
 export interface RangePick {
@@ -49,16 +50,8 @@ export function ChartBox({ title, name, label, testId, build, csv, onRange, drag
   const scales = useRef<Scales | null>(null);
   const drag = useRef<{ x0: number; shift: boolean; id: number } | null>(null);
   const [overlay, setOverlay] = useState<{ left: number; width: number } | null>(null);
-  const [width, setWidth] = useState(0);
+  const width = useContainerWidth(host);
   const [error, setError] = useState<string | null>(null);
-
-  useEffect(() => {
-    const el = host.current;
-    if (!el) return;
-    const observer = new ResizeObserver(([entry]) => setWidth(Math.floor(entry?.contentRect.width ?? 0)));
-    observer.observe(el);
-    return () => observer.disconnect();
-  }, []);
 
   useEffect(() => {
     const el = host.current;

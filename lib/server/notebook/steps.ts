@@ -40,6 +40,15 @@ async function analysisOf(db: Db, member: Member, analysisId: string) {
   return a;
 }
 
+/** The analysis and one of its steps, which must be in an editable revision (else 404 / 409). */
+async function editableStep(db: Db, member: Member, analysisId: string, stepId: string) {
+  const a = await analysisOf(db, member, analysisId);
+  const step = await db.step.findFirst({ where: { id: uuidOrNone(stepId), revision: { analysisId: a.id } } });
+  if (!step) throw new NotFoundError("step");
+  await editableRevision(db, a.id, step.revisionId);
+  return { a, step };
+}
+
 type Tx = Parameters<Parameters<Db["$transaction"]>[0]>[0];
 
 /** Bump the revision version if it is still `expected`; otherwise another structural edit won. */
@@ -86,10 +95,7 @@ function defaultConfig(kind: StepKind): unknown {
 export async function updateStep(db: Db, member: Member, analysisId: string, stepId: string, input: unknown) {
   authorise(member, "analysis.write");
   const req = parseInput(updateStepSchema, input);
-  const a = await analysisOf(db, member, analysisId);
-  const step = await db.step.findFirst({ where: { id: uuidOrNone(stepId), revision: { analysisId: a.id } } });
-  if (!step) throw new NotFoundError("step");
-  await editableRevision(db, a.id, step.revisionId);
+  const { a, step } = await editableStep(db, member, analysisId, stepId);
   const config = parseStepConfig(step.kind, req.config);
   return db.$transaction(async (tx) => {
     const r = await tx.step.updateMany({
@@ -112,10 +118,7 @@ export async function updateStep(db: Db, member: Member, analysisId: string, ste
 export async function removeStep(db: Db, member: Member, analysisId: string, stepId: string, input: unknown): Promise<void> {
   authorise(member, "analysis.write");
   const req = parseInput(removeStepSchema, input);
-  const a = await analysisOf(db, member, analysisId);
-  const step = await db.step.findFirst({ where: { id: uuidOrNone(stepId), revision: { analysisId: a.id } } });
-  if (!step) throw new NotFoundError("step");
-  await editableRevision(db, a.id, step.revisionId);
+  const { a, step } = await editableStep(db, member, analysisId, stepId);
   await db.$transaction(async (tx) => {
     await claimRevision(tx, step.revisionId, req.revisionVersion);
     await tx.step.delete({ where: { id: step.id } });
@@ -129,10 +132,7 @@ export async function removeStep(db: Db, member: Member, analysisId: string, ste
 export async function moveStep(db: Db, member: Member, analysisId: string, stepId: string, input: unknown): Promise<void> {
   authorise(member, "analysis.write");
   const req = parseInput(moveStepSchema, input);
-  const a = await analysisOf(db, member, analysisId);
-  const step = await db.step.findFirst({ where: { id: uuidOrNone(stepId), revision: { analysisId: a.id } } });
-  if (!step) throw new NotFoundError("step");
-  await editableRevision(db, a.id, step.revisionId);
+  const { a, step } = await editableStep(db, member, analysisId, stepId);
   await db.$transaction(async (tx) => {
     await claimRevision(tx, step.revisionId, req.revisionVersion);
     const order = (await tx.step.findMany({ where: { revisionId: step.revisionId }, orderBy: { position: "asc" }, select: { id: true } })).map((s) => s.id).filter((id) => id !== step.id);
