@@ -4,6 +4,7 @@ import { freshDatabase, type TestDatabase } from "../helpers/db";
 import { makeGroup, type GroupFixture } from "./fixtures";
 import { createSample, updateSample } from "../../lib/server/samples";
 import { importMeasurement } from "../../lib/server/measurements";
+import { sourceAt, type PackedSources } from "../../lib/engine/notebook";
 import { addStep, createAnalysis, createThread, listThreads, openNotebook, removeStep, replyToThread, setThreadState, updateStep, moveStep } from "../../lib/server/notebook";
 
 let t: TestDatabase;
@@ -106,6 +107,32 @@ describe("notebooks", () => {
     await removeStep(t.db, g.members.analyst, analysisId, stepId, { revisionVersion: now.revision.version });
     now = await openNotebook(t.db, g.members.analyst, analysisId);
     expect(now.steps.map((s) => s.position)).toEqual([0, 1, 2, 3]);
+  });
+
+  it("openNotebook reads a step rewritten elsewhere afresh: outputs are cached by step and stored input hash", async () => {
+    const nb = await openNotebook(t.db, g.members.viewer, analysisId);
+    const fit = nb.steps.find((s) => s.kind === "fit")!;
+    // As if another instance (say, another engine version) had rewritten the stored output.
+    const marked = { ...(fit.output as object), warnings: ["written elsewhere"] };
+    await t.db.$executeRaw`UPDATE "Step" SET "output" = ${JSON.stringify(marked)}::json, "inputHash" = ${"elsewhere-" + fit.inputHash} WHERE "id" = ${fit.id}::uuid`;
+    const viewer = await openNotebook(t.db, g.members.viewer, analysisId);
+    expect(viewer.steps.find((s) => s.kind === "fit")!.output!.warnings).toEqual(["written elsewhere"]);
+    expect(viewer.steps.find((s) => s.kind === "fit")!.fresh).toBe(false);
+    // An analyst's open recomputes it (its hash no longer matches) and the viewer then sees that.
+    const analyst = await openNotebook(t.db, g.members.analyst, analysisId);
+    expect(analyst.steps.find((s) => s.kind === "fit")!.output!.warnings).not.toContain("written elsewhere");
+    const after = await openNotebook(t.db, g.members.viewer, analysisId);
+    expect(after.steps.find((s) => s.kind === "fit")!).toMatchObject({ fresh: true, inputHash: fit.inputHash });
+    expect(after.steps.find((s) => s.kind === "fit")!.output!.warnings).not.toContain("written elsewhere");
+  });
+
+  it("the fit step's output names each point's measurement and index, packed", async () => {
+    const nb = await openNotebook(t.db, g.members.analyst, analysisId);
+    const r = nb.steps.find((s) => s.kind === "fit")!.output!.result as { points: { temperatureK: number[]; source: PackedSources } };
+    const m = await t.db.measurement.findFirstOrThrow({ where: { groupId: g.members.analyst.group.id } });
+    expect(r.points.source.measurementIds).toEqual([m.id]);
+    expect(r.points.source.index).toHaveLength(r.points.temperatureK.length);
+    expect(sourceAt(r.points.source, 3)).toEqual({ measurementId: m.id, index: 3 });
   });
 
   it("a viewer opens the notebook without computing and cannot edit it", async () => {

@@ -10,6 +10,7 @@ import { fitPlot, residualPlot, scanPlot, fitCsv, scanCsv, defaultMaxTK, type Fi
 import { ChartBox, type RangePick } from "./ChartBox";
 import { BASIS_LABEL, compact, num, paramSymbol, unitText } from "./display";
 import type { Anchor, ModelInfo, NotebookContext, StepView } from "./types";
+import { sourceAt } from "@/lib/engine/notebook/pointSource";
 
 interface Props {
   step: StepView;
@@ -44,7 +45,7 @@ export function FitView({ step, result: r, ctx, save }: Props) {
     const lo = Math.sqrt(Math.max(pick.xMin, 0)), hi = Math.sqrt(Math.max(pick.xMax, 0));
     const inside = r.points.temperatureK.map((t, i) => ({ t, i })).filter(({ t }) => t >= lo && t <= hi);
     if (pick.shift || mode === "comment") {
-      const anchor: Anchor = { plot: "ct-vs-t2", xMin: pick.xMin, xMax: pick.xMax, points: inside.map(({ i }) => r.points.source[i]!).filter(Boolean) };
+      const anchor: Anchor = { plot: "ct-vs-t2", xMin: pick.xMin, xMax: pick.xMax, points: inside.map(({ i }) => sourceAt(r.points.source, i)).filter((s) => s !== null) };
       ctx.startThread(step.id, anchor);
       return;
     }

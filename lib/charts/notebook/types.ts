@@ -12,17 +12,15 @@ import type { IntegratedCurve } from "../../engine/thermo/entropy";
 
 export type MoleBasis = "formula-unit" | "atom";
 
-export interface PointSource {
-  measurementId: string;
-  index: number;
-}
+import type { PackedSources, PointSource } from "../../engine/notebook/pointSource";
+export type { PackedSources, PointSource };
 
 /** Result of a fit step (lib/engine/notebook/steps/fit.ts). */
 export interface FitStepResult {
   fit: HeatCapacityFitResult;
   basis: MoleBasis;
   window: { tMinK: number; tMaxK: number; requestedMinK: number | null; requestedMaxK: number | null; nPoints: number };
-  points: { temperatureK: number[]; heatCapacity: number[]; sigma: number[] | null; inWindow: boolean[]; source: PointSource[] };
+  points: { temperatureK: number[]; heatCapacity: number[]; sigma: number[] | null; inWindow: boolean[]; source: PackedSources | PointSource[] };
   curve: { temperatureK: number[]; heatCapacity: number[] };
   scan: ScanResult | null;
   comparison: (Omit<ModelComparisonRow, "fit"> & { gamma: FitParameter | null; beta: FitParameter | null })[] | null;

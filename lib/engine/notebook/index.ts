@@ -11,5 +11,6 @@
 export { computeChain, computeChainFrom, computeStep, parseStepConfig, stepDefinition, EMPTY_STATE } from "./chain";
 export { STEP_DEFINITIONS, STEP_ORDER } from "./registry";
 export { StepFailure } from "./steps/shared";
+export { packSources, sourceAt, type PackedSources, type PointSource } from "./pointSource";
 export type { StepDefinition, StepComputation } from "./steps/shared";
 export type * from "./types";

@@ -70,6 +70,24 @@ function toRevision(r: RevRow): RevisionInfo {
   };
 }
 
+type SummaryRow = {
+  id: string; title: string; sampleId: string; archivedAt: Date | null; updatedAt: Date;
+  sample: { label: string };
+  revisions: { id: string; number: number; state: RevisionStateName; contentHash: string | null }[];
+};
+
+/** The summary of an analysis row read with its sample label and revisions (newest first). */
+function toSummary(a: SummaryRow): AnalysisSummary {
+  const latest = a.revisions[0];
+  const sealed = a.revisions.find((r) => r.state === "sealed");
+  return {
+    id: a.id, title: a.title, sampleId: a.sampleId, sampleLabel: a.sample.label, archived: a.archivedAt !== null,
+    latestRevision: latest ? { id: latest.id, number: latest.number, state: latest.state } : null,
+    sealedRevision: sealed ? { id: sealed.id, number: sealed.number, contentHash: sealed.contentHash } : null,
+    updatedAt: a.updatedAt.toISOString(),
+  };
+}
+
 async function summaries(db: Db, where: object): Promise<AnalysisSummary[]> {
   const rows = await db.analysis.findMany({
     where,
@@ -77,16 +95,7 @@ async function summaries(db: Db, where: object): Promise<AnalysisSummary[]> {
     orderBy: { updatedAt: "desc" },
     take: 300,
   });
-  return rows.map((a) => {
-    const latest = a.revisions[0];
-    const sealed = a.revisions.find((r) => r.state === "sealed");
-    return {
-      id: a.id, title: a.title, sampleId: a.sampleId, sampleLabel: a.sample.label, archived: a.archivedAt !== null,
-      latestRevision: latest ? { id: latest.id, number: latest.number, state: latest.state } : null,
-      sealedRevision: sealed ? { id: sealed.id, number: sealed.number, contentHash: sealed.contentHash } : null,
-      updatedAt: a.updatedAt.toISOString(),
-    };
-  });
+  return rows.map(toSummary);
 }
 
 export async function listAnalyses(db: Db, member: Member, opts: { sampleId?: string; q?: string; archived?: boolean } = {}): Promise<AnalysisSummary[]> {
@@ -168,8 +177,13 @@ export async function duplicateAnalysis(db: Db, member: Member, id: string, inpu
 /** The notebook: one revision (default: the newest) with its steps computed. */
 export async function openNotebook(db: Db, member: Member, analysisId: string, revisionId?: string): Promise<NotebookView> {
   authorise(member, "group.read");
-  const a = await findAnalysis(db, member, analysisId);
-  const revisions = (await db.analysisRevision.findMany({ where: { analysisId: a.id }, select: REV_SELECT, orderBy: { number: "desc" } })) as RevRow[];
+  // One query for the analysis, its sample's label and every revision (the summary and the list).
+  const a = await db.analysis.findFirst({
+    where: { id: uuidOrNone(analysisId), groupId: member.group.id },
+    include: { sample: { select: { label: true } }, revisions: { select: REV_SELECT, orderBy: { number: "desc" } } },
+  });
+  if (!a) throw new NotFoundError("analysis");
+  const revisions = a.revisions as RevRow[];
   const rev = revisionId ? revisions.find((r) => r.id === revisionId) : revisions[0];
   if (!rev) throw new NotFoundError("revision");
   const editable = EDITABLE_STATES.includes(rev.state);
@@ -177,7 +191,7 @@ export async function openNotebook(db: Db, member: Member, analysisId: string, r
   const mode = editable && (member.role === "owner" || member.role === "analyst") ? "edit" : "frozen";
   const computed = await computeRevisionSteps(db, member.group.id, a.sampleId, rev.id, mode);
   return {
-    analysis: (await summaries(db, { id: a.id }))[0]!,
+    analysis: toSummary({ ...a, revisions }),
     revision: toRevision(rev),
     revisions: revisions.map(toRevision),
     editable: editable && (member.role === "owner" || member.role === "analyst"),

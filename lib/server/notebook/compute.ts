@@ -3,6 +3,11 @@
  * output matches its hash, nothing is computed; otherwise the chain is computed (it is cheap:
  * milliseconds for thousands of points) and the outputs that changed are written back —
  * only for editable revisions (sealed ones are immutable and were fresh when sealed).
+ *
+ * Stored outputs are read only when needed and kept per process by (step id, stored input
+ * hash): a step's output and its input hash are always written together, and the hash names
+ * every input of the engine's deterministic computation, so the pair names one output for
+ * good — a cached copy can never be out of date, whichever instance wrote the row.
  */
 import type { Db } from "../db/client";
 import { ENGINE_VERSION } from "../../engine/version";
@@ -27,7 +32,9 @@ export interface StepView {
   updatedAt: string;
 }
 
-type StepRow = Awaited<ReturnType<Db["step"]["findMany"]>>[number];
+/** Everything of a step row but its output (which is read separately, and only if needed). */
+const STEP_META = { id: true, position: true, kind: true, title: true, config: true, version: true, inputHash: true, engineVersion: true, computedAt: true, updatedAt: true } as const;
+type StepRow = { id: string; position: number; kind: string; title: string; config: unknown; version: number; inputHash: string | null; engineVersion: string | null; computedAt: Date | null; updatedAt: Date };
 
 const strip = ({ state: _state, ...rest }: StepOutput): StoredOutput => rest;
 
@@ -58,6 +65,44 @@ function resumePoint(stale: readonly boolean[], hashes: readonly string[]): { fr
   return { from, state };
 }
 
+/** Stored outputs by `${step id} ${input hash}` (per process, LRU; each entry is immutable and shared). */
+const OUTPUT_CACHE_SIZE = 256;
+const outputCache = new Map<string, StoredOutput>();
+const outputKey = (id: string, hash: string) => `${id} ${hash}`;
+
+function rememberOutput(key: string, output: StoredOutput): void {
+  outputCache.delete(key);
+  outputCache.set(key, output);
+  while (outputCache.size > OUTPUT_CACHE_SIZE) outputCache.delete(outputCache.keys().next().value!);
+}
+
+/**
+ * The stored output of each wanted row (null when it has none), from the cache or in one query.
+ * `hashes` starts as each row's stored input hash and is updated if a row was rewritten since
+ * it was read, so output and hash always belong together.
+ */
+async function storedOutputs(db: Db, rows: readonly StepRow[], wanted: readonly boolean[], hashes: (string | null)[]): Promise<(StoredOutput | null)[]> {
+  const out: (StoredOutput | null)[] = rows.map(() => null);
+  const missing: string[] = [];
+  rows.forEach((r, i) => {
+    if (!wanted[i] || hashes[i] === null) return;
+    const key = outputKey(r.id, hashes[i]!);
+    const hit = outputCache.get(key);
+    if (hit) rememberOutput(key, (out[i] = hit));
+    else missing.push(r.id);
+  });
+  if (missing.length === 0) return out;
+  const got = await db.step.findMany({ where: { id: { in: missing } }, select: { id: true, inputHash: true, output: true } });
+  for (const g of got) {
+    const i = rows.findIndex((r) => r.id === g.id);
+    const output = (g.output as StoredOutput | null) ?? null;
+    hashes[i] = g.inputHash;
+    out[i] = output;
+    if (output && g.inputHash) rememberOutput(outputKey(g.id, g.inputHash), output);
+  }
+  return out;
+}
+
 export interface ComputeResult {
   steps: StepView[];
   context: ChainContext;
@@ -72,13 +117,18 @@ export interface ComputeResult {
  */
 export async function computeRevisionSteps(db: Db, groupId: string, sampleId: string, revisionId: string, mode: "edit" | "frozen"): Promise<ComputeResult> {
   const t0 = performance.now();
-  const rows: StepRow[] = await db.step.findMany({ where: { revisionId }, orderBy: { position: "asc" } });
+  const rows: StepRow[] = await db.step.findMany({ where: { revisionId }, orderBy: { position: "asc" }, select: STEP_META });
   const specs: StepSpec[] = rows.map((r) => ({ id: r.id, kind: r.kind as StepSpec["kind"], config: r.config }));
   // Hashes need no point arrays; load them only if something must be computed.
   let context = await loadContext(db, groupId, sampleId, specs, { points: false });
   const hashes = inputHashes(specs, context);
-  const stale = rows.map((r, i) => r.inputHash !== hashes[i] || r.output === null);
-  let outputs: (StoredOutput | null)[] = rows.map((r) => (r.output as StoredOutput | null) ?? null);
+  const storedHash = rows.map((r) => r.inputHash);
+  let stale = rows.map((r, i) => storedHash[i] !== hashes[i]);
+  // Editing recomputes from the first stale step down, so only the outputs above it are read.
+  const firstStale = stale.indexOf(true);
+  const wanted = rows.map((_, i) => mode === "frozen" || firstStale < 0 || i < firstStale);
+  let outputs = await storedOutputs(db, rows, wanted, storedHash);
+  stale = rows.map((_, i) => storedHash[i] !== hashes[i] || (wanted[i] && outputs[i] === null));
   const computed = mode === "edit" && stale.some(Boolean);
   const now = new Date();
   if (computed) {
@@ -87,17 +137,18 @@ export async function computeRevisionSteps(db: Db, groupId: string, sampleId: st
     const fresh = computeChainFrom(specs, context, from, state);
     fresh.forEach((o, k) => rememberState(hashes[from + k]!, o.state));
     outputs = [...outputs.slice(0, from), ...fresh.map(strip)];
+    // Raw SQL: the output goes as one JSON text parameter. (Prisma's own Json write walks the
+    // object and took ~3× as long for a 400 kB fit output; measured, see DEVELOPERS.md.)
+    // The columns are those Prisma would write, @updatedAt included; a row whose version
+    // changed meanwhile (someone saved it) is left alone.
+    const at = now.toISOString();
     await db.$transaction(
       rows
         .map((r, i) => ({ r, i }))
         .filter(({ i }) => stale[i])
-        .map(({ r, i }) =>
-          db.step.updateMany({
-            where: { id: r.id, version: r.version },
-            data: { output: outputs[i] as object, inputHash: hashes[i]!, engineVersion: ENGINE_VERSION, computedAt: now },
-          }),
-        ),
+        .map(({ r, i }) => db.$executeRaw`UPDATE "Step" SET "output" = ${JSON.stringify(outputs[i])}::json, "inputHash" = ${hashes[i]!}, "engineVersion" = ${ENGINE_VERSION}, "computedAt" = (${at}::timestamptz AT TIME ZONE 'UTC'), "updatedAt" = (${at}::timestamptz AT TIME ZONE 'UTC') WHERE "id" = ${r.id}::uuid AND "version" = ${r.version}`),
     );
+    rows.forEach((r, i) => { if (i >= from) rememberOutput(outputKey(r.id, hashes[i]!), outputs[i]!); });
   }
   const steps = rows.map((r, i): StepView => {
     const recomputed = computed && stale[i];

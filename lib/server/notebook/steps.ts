@@ -43,7 +43,7 @@ async function analysisOf(db: Db, member: Member, analysisId: string) {
 /** The analysis and one of its steps, which must be in an editable revision (else 404 / 409). */
 async function editableStep(db: Db, member: Member, analysisId: string, stepId: string) {
   const a = await analysisOf(db, member, analysisId);
-  const step = await db.step.findFirst({ where: { id: uuidOrNone(stepId), revision: { analysisId: a.id } } });
+  const step = await db.step.findFirst({ where: { id: uuidOrNone(stepId), revision: { analysisId: a.id } }, select: { id: true, revisionId: true, kind: true, config: true } });
   if (!step) throw new NotFoundError("step");
   await editableRevision(db, a.id, step.revisionId);
   return { a, step };
@@ -103,7 +103,7 @@ export async function updateStep(db: Db, member: Member, analysisId: string, ste
       data: { config: config as object, ...(req.title !== undefined ? { title: req.title } : {}), version: { increment: 1 }, updatedById: member.userId },
     });
     if (r.count === 0) {
-      const current = await tx.step.findUnique({ where: { id: step.id } });
+      const current = await tx.step.findUnique({ where: { id: step.id }, select: { id: true, version: true, title: true, config: true, updatedAt: true } });
       throw new ConflictError(
         "this step was saved by someone else after you opened it; your edit was not applied — compare with the newer version below and save again",
         current ? { id: current.id, version: current.version, title: current.title, config: current.config, updatedAt: current.updatedAt.toISOString() } : undefined,

@@ -11,6 +11,7 @@ import { InputError } from "../../errors";
 import type { FitSummary } from "../types";
 import { StepFailure, requireDataset, type StepDefinition } from "./shared";
 import { modelCurve } from "./curve";
+import { packSources } from "../pointSource";
 
 const paramMap = z.record(z.string(), z.number().finite());
 
@@ -105,7 +106,7 @@ export const fitStep: StepDefinition<FitConfig> = {
         window: { tMinK: lo, tMaxK: hi, requestedMinK: config.tMinK, requestedMaxK: config.tMaxK, nPoints: fit.window.nPoints },
         points: {
           temperatureK: data.temperatureK, heatCapacity: data.heatCapacity, sigma: data.sigma,
-          inWindow: data.temperatureK.map((_, i) => inWindow.has(i)), source: data.source,
+          inWindow: data.temperatureK.map((_, i) => inWindow.has(i)), source: packSources(data.source),
         },
         curve,
         scan,
