@@ -12,7 +12,7 @@
 import type { Db } from "../db/client";
 import { ENGINE_VERSION } from "../../engine/version";
 import { computeChainFrom, EMPTY_STATE, type ChainState, type StepOutput, type StepSpec, type ChainContext } from "../../engine/notebook";
-import { inputHashes, loadContext } from "./context";
+import { inputHashes, loadContext, loadMeasurements, referencedMeasurements } from "./context";
 
 export type StoredOutput = Omit<StepOutput, "state">;
 
@@ -103,6 +103,26 @@ async function storedOutputs(db: Db, rows: readonly StepRow[], wanted: readonly 
   return out;
 }
 
+/**
+ * Write recomputed outputs in one statement (one JSON text parameter per row; Prisma's own Json
+ * write walks the object and took ~3× as long for a 400 kB fit output). The columns are those
+ * Prisma would write, @updatedAt included; a row whose version changed meanwhile (someone saved
+ * it) is left alone. Not waiting for the commit to reach disk is safe here: an output is a cache
+ * of a deterministic computation, written with its input hash in the same row, so a crash can
+ * only lose the new pair and leave the old one, which the next open finds stale and recomputes.
+ */
+async function writeOutputs(db: Db, rows: { id: string; version: number; output: StoredOutput; inputHash: string }[], now: Date): Promise<void> {
+  if (rows.length === 0) return;
+  const at = now.toISOString();
+  await db.$transaction([
+    db.$executeRaw`SET LOCAL synchronous_commit = off`,
+    db.$executeRaw`UPDATE "Step" AS s SET "output" = u.o::json, "inputHash" = u.h, "engineVersion" = ${ENGINE_VERSION},
+      "computedAt" = (${at}::timestamptz AT TIME ZONE 'UTC'), "updatedAt" = (${at}::timestamptz AT TIME ZONE 'UTC')
+      FROM unnest(${rows.map((r) => r.id)}::uuid[], ${rows.map((r) => JSON.stringify(r.output))}::text[], ${rows.map((r) => r.inputHash)}::text[], ${rows.map((r) => r.version)}::int[]) AS u(id, o, h, v)
+      WHERE s."id" = u.id AND s."version" = u.v`,
+  ]);
+}
+
 export interface ComputeResult {
   steps: StepView[];
   context: ChainContext;
@@ -132,22 +152,14 @@ export async function computeRevisionSteps(db: Db, groupId: string, sampleId: st
   const computed = mode === "edit" && stale.some(Boolean);
   const now = new Date();
   if (computed) {
-    context = await loadContext(db, groupId, sampleId, specs);
     const { from, state } = resumePoint(stale, hashes);
+    // Point arrays only for the measurements the steps to compute read (none for a refit).
+    const needed = referencedMeasurements(specs.slice(from));
+    if (needed.length) context = { ...context, measurements: { ...context.measurements, ...(await loadMeasurements(db, groupId, needed)) } };
     const fresh = computeChainFrom(specs, context, from, state);
     fresh.forEach((o, k) => rememberState(hashes[from + k]!, o.state));
     outputs = [...outputs.slice(0, from), ...fresh.map(strip)];
-    // Raw SQL: the output goes as one JSON text parameter. (Prisma's own Json write walks the
-    // object and took ~3× as long for a 400 kB fit output; measured, see DEVELOPERS.md.)
-    // The columns are those Prisma would write, @updatedAt included; a row whose version
-    // changed meanwhile (someone saved it) is left alone.
-    const at = now.toISOString();
-    await db.$transaction(
-      rows
-        .map((r, i) => ({ r, i }))
-        .filter(({ i }) => stale[i])
-        .map(({ r, i }) => db.$executeRaw`UPDATE "Step" SET "output" = ${JSON.stringify(outputs[i])}::json, "inputHash" = ${hashes[i]!}, "engineVersion" = ${ENGINE_VERSION}, "computedAt" = (${at}::timestamptz AT TIME ZONE 'UTC'), "updatedAt" = (${at}::timestamptz AT TIME ZONE 'UTC') WHERE "id" = ${r.id}::uuid AND "version" = ${r.version}`),
-    );
+    await writeOutputs(db, rows.flatMap((r, i) => (stale[i] ? [{ id: r.id, version: r.version, output: outputs[i]!, inputHash: hashes[i]! }] : [])), now);
     rows.forEach((r, i) => { if (i >= from) rememberOutput(outputKey(r.id, hashes[i]!), outputs[i]!); });
   }
   const steps = rows.map((r, i): StepView => {
