@@ -3,3 +3,5 @@ export { scanWindows, type ScanOptions, type ScanCell, type ScanResult } from ".
 export { compareModels, type ModelComparisonRow } from "./compareModels";
 export { findPlateau, type Plateau, type PlateauCell } from "./plateau";
 export { quantileEdges } from "./grid";
+export { solveWindowsByUpdating, type WindowSpan, type WindowSolution } from "./updating";
+export { weightedRows, type WeightedRows } from "./weightedRows";

@@ -1,18 +1,26 @@
 /**
  * scanWindows: fit every window of a T_min × T_max grid and find where γ stops depending
- * on the window (plateau.ts). Linear models use one small Householder QR per window on
- * a design built once (no updating of sums — each window is solved afresh); nonlinear
- * models use fitHeatCapacity per window. Units as fitHeatCapacity (SI).
- * Failure modes: InputError as fitHeatCapacity; an empty grid gives no cells and a reason.
+ * on the window (plateau.ts). Units as fitHeatCapacity (SI).
+ * Linear models (no fixed parameters) are solved by sequential QR row updating
+ * (updating.ts): the weighted design is built once, and for each lower edge the rows are
+ * rotated upward into one triangular factor, each upper edge of the grid reading its
+ * solution, covariance and χ² from it after one corrected-semi-normal-equations step.
+ * A window whose column-scaled condition estimate exceeds 10³ (linearCells.ts) is solved afresh
+ * by solveLinearLeastSquares instead (which refines such problems in double-double; one
+ * fixed-precision correction keeps only ~16 − log10 κ digits there). Nonlinear models, and
+ * linear ones with fixed parameters, use fitHeatCapacity per window.
+ * Failure modes: InputError as fitHeatCapacity, for a model that is not finite at a data
+ * temperature, or for minPoints not a positive integer; an empty grid gives no cells and a reason.
  */
-import { InputError } from "../errors";
-import { solveLinearLeastSquares } from "../linalg/lstsq";
+import { InputError, invalid } from "../errors";
 import { getModel } from "../models/registry";
 import { debyeTemperatureFromBeta } from "../models/debye";
 import { checkSeries } from "../fit/curve";
 import { fitHeatCapacity, type HeatCapacityInput } from "../fit/heatCapacity";
 import { findPlateau } from "./plateau";
 import { lowerIndex, quantileEdges, upperIndex } from "./grid";
+import { linearCells, type CellCore, type SortedSeries } from "./linearCells";
+import type { WindowSpan } from "./updating";
 
 export interface ScanOptions {
   readonly model?: string;
@@ -48,15 +56,28 @@ export interface ScanResult {
   readonly reason: string;
 }
 
-interface Sorted { T: Float64Array; C: Float64Array; S: Float64Array | null }
-
-function sortData(data: HeatCapacityInput): Sorted {
+function sortData(data: HeatCapacityInput): SortedSeries {
   const d = checkSeries(data.temperatureK, data.heatCapacity, data.sigma, ["temperatureK", "heatCapacity", "sigma"]);
+  let sorted = true;
+  for (let i = 1; i < d.x.length && sorted; i++) sorted = d.x[i - 1] <= d.x[i];
+  // checkSeries returned fresh copies: already ascending data (the usual case) needs no reorder
+  if (sorted) return { T: d.x, C: d.y, S: d.sigma };
   const order = Array.from(d.x, (_, i) => i).sort((a, b) => d.x[a] - d.x[b]);
-  return { T: Float64Array.from(order, (i) => d.x[i]), C: Float64Array.from(order, (i) => d.y[i]), S: d.sigma ? Float64Array.from(order, (i) => d.sigma![i]) : null };
+  const pick = (v: Float64Array) => {
+    const out = new Float64Array(v.length);
+    for (let i = 0; i < v.length; i++) out[i] = v[order[i]];
+    return out;
+  };
+  return { T: pick(d.x), C: pick(d.y), S: d.sigma ? pick(d.sigma) : null };
 }
 
 const safe = (v: number | undefined | null) => (v !== undefined && v !== null && Number.isFinite(v) ? v : null);
+
+/** A window of the grid: its grid position and inclusive row range in the sorted data. */
+interface GridWindow extends WindowSpan {
+  readonly i: number;
+  readonly j: number;
+}
 
 /** Fit every window of the grid. */
 export function scanWindows(data: HeatCapacityInput, options: ScanOptions = {}): ScanResult {
@@ -65,56 +86,38 @@ export function scanWindows(data: HeatCapacityInput, options: ScanOptions = {}):
   const s = sortData(data);
   if (s.T.length === 0) throw new InputError("no data points to scan", { field: "temperatureK" });
   const minPoints = options.minPoints ?? Math.max(8, model.parameters.length + 3);
+  if (!Number.isInteger(minPoints) || minPoints < 1) throw invalid("minPoints", minPoints, "must be an integer ≥ 1");
   const firstUpper = Math.min(1, (minPoints - 1) / Math.max(1, s.T.length - 1));
   const tMinGrid = [...(options.tMinGridK ?? quantileEdges(s.T, 0, 0.5, 20))].sort((a, b) => a - b);
   const tMaxGrid = [...(options.tMaxGridK ?? quantileEdges(s.T, firstUpper, 1, 20))].sort((a, b) => a - b);
-  const linear = model.linear && (!options.fixed || Object.keys(options.fixed).length === 0);
-  const cells: ScanCell[] = [];
-  const pos: [number, number][] = [];
-  const design = linear ? buildDesign(model.basis!, s.T) : null;
+  const windows: GridWindow[] = [];
   tMinGrid.forEach((tMin, i) =>
     tMaxGrid.forEach((tMax, j) => {
       const lo = lowerIndex(s.T, tMin);
       const hi = upperIndex(s.T, tMax);
-      if (hi - lo + 1 < minPoints) return;
-      const cell = design ? linearCell(design, s, lo, hi, model.parameters.map((p) => p.name)) : nonlinearCell(s, lo, hi, modelName, options);
-      cells.push(Object.freeze({ ...cell, tMinK: tMin, tMaxK: tMax, beyondT3Range: beyond(modelName, cell.beta, tMax, options.r ?? 1) }));
-      pos.push([i, j]);
+      if (hi - lo + 1 >= minPoints) windows.push({ i, j, lo, hi });
     }),
   );
-  return summarise(modelName, tMinGrid, tMaxGrid, cells, pos);
+  const linear = model.linear && (!options.fixed || Object.keys(options.fixed).length === 0);
+  const cores = linear
+    ? linearCells(model.basis!, model.parameters.map((p) => p.name), s, windows)
+    : windows.map((w) => nonlinearCell(s, w.lo, w.hi, modelName, options));
+  const cells = cores.map((c, k): ScanCell => {
+    const tMaxK = tMaxGrid[windows[k].j];
+    // an explicit literal: spreading `c` costs ~40× more per cell
+    return Object.freeze({
+      tMinK: tMinGrid[windows[k].i], tMaxK, nPoints: c.nPoints, gamma: c.gamma, gammaStdError: c.gammaStdError, beta: c.beta, betaStdError: c.betaStdError,
+      reducedChiSquare: c.reducedChiSquare, converged: c.converged, beyondT3Range: beyond(modelName, c.beta, tMaxK, options.r ?? 1),
+    });
+  });
+  return summarise(modelName, tMinGrid, tMaxGrid, cells, windows.map((w): [number, number] => [w.i, w.j]));
 }
 
 function beyond(modelName: string, beta: number | null, tMax: number, r: number): boolean {
   return ["sommerfeld", "nuclear", "magnon"].includes(modelName) && beta !== null && beta > 0 && tMax > debyeTemperatureFromBeta(beta, r) / 15;
 }
 
-function buildDesign(basis: readonly ((t: number) => number)[], T: Float64Array): Float64Array {
-  const m = T.length;
-  const a = new Float64Array(m * basis.length);
-  basis.forEach((phi, j) => T.forEach((t, i) => (a[j * m + i] = phi(t))));
-  return a;
-}
-
-type CellCore = Omit<ScanCell, "tMinK" | "tMaxK" | "beyondT3Range">;
-
-function linearCell(design: Float64Array, s: Sorted, lo: number, hi: number, names: string[]): CellCore {
-  const m = s.T.length;
-  const n = names.length;
-  const k = hi - lo + 1;
-  const a = new Float64Array(k * n);
-  for (let j = 0; j < n; j++) a.set(design.subarray(j * m + lo, j * m + hi + 1), j * k);
-  const sol = solveLinearLeastSquares(a, k, n, s.C.subarray(lo, hi + 1), { sigma: s.S ? s.S.subarray(lo, hi + 1) : undefined });
-  if (!sol.fullRank) return { nPoints: k, gamma: null, gammaStdError: null, beta: null, betaStdError: null, reducedChiSquare: null, converged: false };
-  const red = sol.chiSquare / (k - n);
-  const f = s.S ? 1 : red;
-  const gi = names.indexOf("gamma");
-  const bi = names.indexOf("beta");
-  const se = (j: number) => (j >= 0 ? safe(Math.sqrt(sol.covariance[j * n + j] * f)) : null);
-  return { nPoints: k, gamma: gi >= 0 ? sol.coefficients[gi] : null, gammaStdError: se(gi), beta: bi >= 0 ? sol.coefficients[bi] : null, betaStdError: se(bi), reducedChiSquare: safe(red), converged: true };
-}
-
-function nonlinearCell(s: Sorted, lo: number, hi: number, model: string, options: ScanOptions): CellCore {
+function nonlinearCell(s: SortedSeries, lo: number, hi: number, model: string, options: ScanOptions): CellCore {
   const sl = (a: Float64Array) => a.subarray(lo, hi + 1);
   const r = fitHeatCapacity({ temperatureK: sl(s.T), heatCapacity: sl(s.C), sigma: s.S ? sl(s.S) : undefined }, { model, r: options.r, fixed: options.fixed });
   const p = (name: string) => r.parameters.find((q) => q.name === name);
