@@ -6,9 +6,11 @@
  * rotation of rows j and x zeroes x_j against R_jj; the last β left over is the component of
  * the new right-hand side that no column can reach, and the residual sum of squares of the
  * enlarged problem grows by exactly β² (in exact arithmetic).
- * References: Golub & Van Loan, Matrix Computations (4th ed.), §5.1.8–5.1.9 (computing a
- * Givens rotation without overflow) and §6.5 (adding a row to a QR factorisation) — both
- * from memory, not re-read for this file.
+ * References: Golub & Van Loan, Matrix Computations (4th ed.), §6.5.3 "Appending or
+ * Deleting a Row" (read); §5.1.8 for Givens rotations and the ratio form that avoids
+ * overflow (from memory). That the rotated-out β² is the growth of the residual sum of
+ * squares follows from ‖b − Ax‖² = ‖Qᵀb − [R; 0]x‖² (orthogonal invariance): the new
+ * component lies below R and no x can reach it (derived here, and checked in the tests).
  */
 
 /** Bounds on R_jj² + x_j² inside which the plain formula keeps full precision. */

@@ -1,12 +1,13 @@
 /**
  * The weighted least-squares system of a whole data set, stored row by row for sequential
- * row updating (updating.ts): row i is w_i·A_i· scaled column by column, with w_i = 1/σ_i
- * (1 without σ) and right-hand side w_i·y_i. Each column j, and the right-hand side, is
- * multiplied by an exact power of two S_j (S_b) that brings its largest |entry| into
- * (½, 1], so that columns such as T/σ and T⁷/σ sit in the same range and no sum of
- * squares over- or underflows; a power of two changes no digit (the idea of lstsq.ts, whose
- * weighted entries w_i·A_ij are the same rounded numbers as here). Solutions of the scaled
- * problem map back exactly: x = S·z / S_b, (AᵀWA)⁻¹ = S (RᵀR)⁻¹ S, χ² = rss / S_b².
+ * row updating (updating.ts): row i is w_i·A_i (w_i = 1/σ_i, or 1 without σ) with
+ * right-hand side w_i·y_i. Each column j, and the right-hand side, is then multiplied by an
+ * exact power of two S_j (S_b) that brings its largest |entry| into (½, 1], so that columns
+ * such as T/σ and T⁷/σ sit in the same range and no square of an entry or of R's diagonal
+ * can overflow. A power of two changes no digit (short of underflow to subnormals), which is
+ * the idea of lstsq.ts, and the weighted entries w_i·A_ij are the same rounded numbers as
+ * there. Solutions of the scaled problem map back exactly: x = S·z / S_b,
+ * (AᵀWA)⁻¹ = S (RᵀR)⁻¹ S, χ² = rss / S_b².
  */
 import { InputError } from "../errors";
 
