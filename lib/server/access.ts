@@ -19,13 +19,17 @@ export interface Member {
   role: Role;
 }
 
-const GROUP_FIELDS = { id: true, slug: true, name: true, allowSelfApproval: true } as const;
+export const GROUP_FIELDS = { id: true, slug: true, name: true, allowSelfApproval: true } as const;
 
 /** The caller's membership of the group with this slug or id, or NotFoundError. */
+/** The Prisma filter for a group named by slug or by id. */
+export function groupWhere(groupSlugOrId: string): { id: string } | { slug: string } {
+  return /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(groupSlugOrId) ? { id: groupSlugOrId } : { slug: groupSlugOrId };
+}
+
 export async function memberOf(db: Db, userId: string, groupSlugOrId: string): Promise<Member> {
-  const isUuid = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(groupSlugOrId);
   const m = await db.membership.findFirst({
-    where: { userId, group: isUuid ? { id: groupSlugOrId } : { slug: groupSlugOrId } },
+    where: { userId, group: groupWhere(groupSlugOrId) },
     select: { role: true, group: { select: GROUP_FIELDS } },
   });
   if (!m) throw new NotFoundError("group");

@@ -3,9 +3,9 @@
  * route's slug, multipart file reading with a size cap, and the same-origin check on writes.
  */
 import { getDb, type Db } from "./db/client";
-import { requireUser } from "./session";
-import { memberOf, type Member } from "./access";
-import { ForbiddenError, InputError } from "../engine/errors";
+import { requireUser, sessionUserId } from "./session";
+import { GROUP_FIELDS, groupWhere, type Member } from "./access";
+import { ForbiddenError, InputError, NotFoundError, UnauthenticatedError } from "../engine/errors";
 import { MAX_UPLOAD_BYTES } from "./measurements";
 import type { UserInfo } from "./users";
 
@@ -35,10 +35,24 @@ export async function signedIn(req: Request): Promise<{ db: Db; user: UserInfo }
   return { db: getDb(), user };
 }
 
+/**
+ * The signed-in user and their membership of the route's group, in one query (the user row
+ * comes along with the membership). No membership: 401 if the user no longer exists, else 404.
+ */
 export async function inGroup(req: Request, slug: string): Promise<GroupContext> {
-  const { db, user } = await signedIn(req);
-  const member = await memberOf(db, user.id, slug);
-  return { db, user, member };
+  if (req.method !== "GET" && req.method !== "HEAD") assertSameOrigin(req);
+  const userId = await sessionUserId();
+  if (!userId) throw new UnauthenticatedError();
+  const db = getDb();
+  const m = await db.membership.findFirst({
+    where: { userId, group: groupWhere(slug) },
+    select: { role: true, group: { select: GROUP_FIELDS }, user: { select: { id: true, email: true, name: true } } },
+  });
+  if (!m) {
+    if (!(await db.user.findUnique({ where: { id: userId }, select: { id: true } }))) throw new UnauthenticatedError();
+    throw new NotFoundError("group");
+  }
+  return { db, user: m.user, member: { userId, group: m.group, role: m.role } };
 }
 
 export interface UploadedForm {

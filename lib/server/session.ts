@@ -1,13 +1,63 @@
-/** The signed-in user of the current request (server components, route handlers, actions). */
-import { getServerSession } from "next-auth";
-import { authOptions } from "./auth/options";
+/**
+ * The signed-in user of the current request (server components, route handlers, actions).
+ *
+ * The session is next-auth's encrypted JWT cookie. We read it with next-auth's own `decode`
+ * (same key derivation, same JWE check, same 15 s clock tolerance) instead of going through
+ * `getServerSession`, which on every call also re-runs the callbacks and re-encrypts a fresh
+ * token that a route handler or server component cannot even send back (in the App Router only
+ * /api/auth/session refreshes the cookie). A decoded token is remembered by its exact text
+ * until its own expiry: the text is unforgeable, so a hit is as good as a fresh decryption.
+ */
+import { cookies } from "next/headers";
+import { decode } from "next-auth/jwt";
+import { getDb } from "./db/client";
 import { UnauthenticatedError } from "../engine/errors";
 import type { UserInfo } from "./users";
-import { getDb } from "./db/client";
+
+/** next-auth's cookie name: with the __Secure- prefix when the public URL is https. */
+function sessionCookieName(): string {
+  return process.env.NEXTAUTH_URL?.startsWith("https://") ? "__Secure-next-auth.session-token" : "next-auth.session-token";
+}
+
+const TOKEN_CACHE_SIZE = 2000;
+const decoded = new Map<string, { uid: string | null; expMs: number }>();
+
+/** The session token of the request: the cookie, or its chunks name.0, name.1, … joined in order. */
+async function sessionToken(): Promise<string | null> {
+  const jar = await cookies();
+  const name = sessionCookieName();
+  const whole = jar.get(name)?.value;
+  if (whole) return whole;
+  const chunks = jar.getAll().filter((c) => c.name.startsWith(`${name}.`) && /^\d+$/.test(c.name.slice(name.length + 1)));
+  if (chunks.length === 0) return null;
+  return chunks.sort((a, b) => Number(a.name.slice(name.length + 1)) - Number(b.name.slice(name.length + 1))).map((c) => c.value).join("");
+}
+
+/** The user id in the request's session, or null (no cookie, bad or expired token). */
+export async function sessionUserId(): Promise<string | null> {
+  const token = await sessionToken();
+  if (!token) return null;
+  const now = Date.now();
+  const hit = decoded.get(token);
+  if (hit && hit.expMs > now) return hit.uid;
+  const secret = process.env.NEXTAUTH_SECRET ?? process.env.AUTH_SECRET;
+  if (!secret) return null;
+  let payload: Awaited<ReturnType<typeof decode>>;
+  try {
+    payload = await decode({ token, secret });
+  } catch {
+    return null;
+  }
+  const uid = typeof payload?.uid === "string" ? payload.uid : null;
+  const exp = typeof payload?.exp === "number" ? payload.exp * 1000 : now;
+  decoded.delete(token);
+  decoded.set(token, { uid, expMs: exp });
+  while (decoded.size > TOKEN_CACHE_SIZE) decoded.delete(decoded.keys().next().value!);
+  return uid;
+}
 
 export async function currentUser(): Promise<UserInfo | null> {
-  const session = await getServerSession(authOptions);
-  const id = (session?.user as { id?: string } | undefined)?.id;
+  const id = await sessionUserId();
   if (!id) return null;
   const user = await getDb().user.findUnique({ where: { id }, select: { id: true, email: true, name: true } });
   return user ?? null;

@@ -10,7 +10,7 @@ import { freshDatabase, type TestDatabase } from "../helpers/db";
 import { makeSeriesFixture, type SeriesFixture } from "../server/jobsFixtures";
 
 const session = vi.hoisted(() => ({ userId: null as string | null }));
-vi.mock("next-auth", () => ({ getServerSession: async () => (session.userId ? { user: { id: session.userId } } : null), default: () => null }));
+vi.mock("next/headers", async () => (await import("../helpers/session")).headersFor(session));
 
 import * as samples from "../../app/api/groups/[slug]/samples/route";
 import * as sample from "../../app/api/groups/[slug]/samples/[id]/route";

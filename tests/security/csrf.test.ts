@@ -14,7 +14,7 @@ import { freshDatabase, type TestDatabase } from "../helpers/db";
 import { makeGroup, type GroupFixture } from "../server/fixtures";
 
 const session = vi.hoisted(() => ({ userId: null as string | null }));
-vi.mock("next-auth", () => ({ getServerSession: async () => (session.userId ? { user: { id: session.userId } } : null), default: () => null }));
+vi.mock("next/headers", async () => (await import("../helpers/session")).headersFor(session));
 
 const WRITE = ["POST", "PATCH", "PUT", "DELETE"] as const;
 

@@ -11,7 +11,7 @@ import { makeGroup, type GroupFixture } from "../server/fixtures";
 import { createSample } from "../../lib/server/samples";
 
 const session = vi.hoisted(() => ({ userId: null as string | null }));
-vi.mock("next-auth", () => ({ getServerSession: async () => (session.userId ? { user: { id: session.userId } } : null), default: () => null }));
+vi.mock("next/headers", async () => (await import("../helpers/session")).headersFor(session));
 
 import { authenticate, signUp } from "../../lib/server/users";
 import { THROTTLE } from "../../lib/server/auth/throttle";

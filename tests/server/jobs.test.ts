@@ -11,7 +11,7 @@ import { ageOpenSteps, makeSeriesFixture, type SeriesFixture } from "./jobsFixtu
 import type { Role } from "../../lib/server/permissions";
 
 const session = vi.hoisted(() => ({ userId: null as string | null }));
-vi.mock("next-auth", () => ({ getServerSession: async () => (session.userId ? { user: { id: session.userId } } : null), default: () => null }));
+vi.mock("next/headers", async () => (await import("../helpers/session")).headersFor(session));
 
 import * as jobsRoute from "../../app/api/groups/[slug]/jobs/route";
 import * as jobRoute from "../../app/api/groups/[slug]/jobs/[id]/route";

@@ -5,7 +5,7 @@ import { makeGroup, type GroupFixture } from "./fixtures";
 import { createSample, updateSample } from "../../lib/server/samples";
 import { importMeasurement } from "../../lib/server/measurements";
 import { sourceAt, type PackedSources } from "../../lib/engine/notebook";
-import { addStep, createAnalysis, createThread, listThreads, openNotebook, removeStep, replyToThread, setThreadState, updateStep, moveStep } from "../../lib/server/notebook";
+import { addStep, createAnalysis, createThread, listThreads, notebookJson, openNotebook, removeStep, replyToThread, setThreadState, updateStep, moveStep } from "../../lib/server/notebook";
 
 let t: TestDatabase;
 let g: GroupFixture;
@@ -124,6 +124,23 @@ describe("notebooks", () => {
     const after = await openNotebook(t.db, g.members.viewer, analysisId);
     expect(after.steps.find((s) => s.kind === "fit")!).toMatchObject({ fresh: true, inputHash: fit.inputHash });
     expect(after.steps.find((s) => s.kind === "fit")!.output!.warnings).not.toContain("written elsewhere");
+  });
+
+  it("notebookJson gives the same JSON as serialising the view, with the stored output texts spliced in", async () => {
+    const nb = await openNotebook(t.db, g.members.analyst, analysisId);
+    expect(JSON.parse(notebookJson(nb))).toEqual(JSON.parse(JSON.stringify({ notebook: nb })));
+    const sealedLike = { ...nb, steps: nb.steps.map((s) => ({ ...s, output: null })) };
+    expect(JSON.parse(notebookJson(sealedLike))).toEqual(JSON.parse(JSON.stringify({ notebook: sealedLike })));
+  });
+
+  it("openNotebook of another analysis's revision id, or an id that is not a UUID, is not found", async () => {
+    const other = await createAnalysis(t.db, g.members.analyst, { sampleId: (await t.db.sample.findFirstOrThrow({ where: { label: "NB-1" } })).id, title: "other" });
+    const otherNb = await openNotebook(t.db, g.members.analyst, other.id);
+    await expect(openNotebook(t.db, g.members.analyst, analysisId, otherNb.revision.id)).rejects.toMatchObject({ name: "NotFoundError" });
+    await expect(openNotebook(t.db, g.members.analyst, analysisId, "not-a-uuid")).rejects.toMatchObject({ name: "NotFoundError" });
+    await expect(openNotebook(t.db, g.members.analyst, "not-a-uuid")).rejects.toMatchObject({ name: "NotFoundError" });
+    const nb = await openNotebook(t.db, g.members.analyst, analysisId);
+    expect((await openNotebook(t.db, g.members.analyst, analysisId, nb.revision.id)).steps.map((s) => s.id)).toEqual(nb.steps.map((s) => s.id));
   });
 
   it("the fit step's output names each point's measurement and index, packed", async () => {

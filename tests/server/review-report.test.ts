@@ -10,7 +10,7 @@ import { buildReport, renderReportPdf, reviewTransition, SAFETY_SENTENCE } from 
 import { expectClose } from "../helpers/expectClose";
 
 const session = vi.hoisted(() => ({ userId: null as string | null }));
-vi.mock("next-auth", () => ({ getServerSession: async () => (session.userId ? { user: { id: session.userId } } : null), default: () => null }));
+vi.mock("next/headers", async () => (await import("../helpers/session")).headersFor(session));
 import * as pdfRoute from "../../app/api/groups/[slug]/analyses/[id]/report.pdf/route";
 
 let t: TestDatabase;

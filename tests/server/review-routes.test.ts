@@ -10,7 +10,7 @@ import { fullChain, makeAnalysis, makeReviewFixture, writeSteps, type ReviewFixt
 import type { Role } from "../../lib/server/permissions";
 
 const session = vi.hoisted(() => ({ userId: null as string | null }));
-vi.mock("next-auth", () => ({ getServerSession: async () => (session.userId ? { user: { id: session.userId } } : null), default: () => null }));
+vi.mock("next/headers", async () => (await import("../helpers/session")).headersFor(session));
 
 import * as review from "../../app/api/groups/[slug]/analyses/[id]/review/route";
 import * as revise from "../../app/api/groups/[slug]/analyses/[id]/review/revise/route";

@@ -11,9 +11,10 @@ import { recordAudit } from "../audit";
 import { authorise, type Member } from "../access";
 import { parseInput } from "../validate";
 import { uuidOrNone } from "../samples";
-import { computeRevisionSteps, type StepView } from "./compute";
+import { computeRevisionSteps, outputJson, type StepView } from "./compute";
 import { notify } from "./events";
 import { starterSteps } from "./starter";
+import { readNotebookRows, type RevisionRow } from "./read";
 
 export const createAnalysisSchema = z.object({
   sampleId: z.string().uuid("choose a sample"),
@@ -59,11 +60,9 @@ export interface NotebookView {
   computeMillis: number;
 }
 
-const REV_SELECT = { id: true, number: true, state: true, version: true, basedOnId: true, contentHash: true, submittedAt: true, sealedAt: true, sealedById: true, createdAt: true } as const;
 
-type RevRow = { id: string; number: number; state: RevisionStateName; version: number; basedOnId: string | null; contentHash: string | null; submittedAt: Date | null; sealedAt: Date | null; sealedById: string | null; createdAt: Date };
 
-function toRevision(r: RevRow): RevisionInfo {
+function toRevision(r: RevisionRow): RevisionInfo {
   return {
     id: r.id, number: r.number, state: r.state, version: r.version, basedOnId: r.basedOnId, contentHash: r.contentHash,
     submittedAt: r.submittedAt?.toISOString() ?? null, sealedAt: r.sealedAt?.toISOString() ?? null, sealedBy: r.sealedById, createdAt: r.createdAt.toISOString(),
@@ -177,19 +176,16 @@ export async function duplicateAnalysis(db: Db, member: Member, id: string, inpu
 /** The notebook: one revision (default: the newest) with its steps computed. */
 export async function openNotebook(db: Db, member: Member, analysisId: string, revisionId?: string): Promise<NotebookView> {
   authorise(member, "group.read");
-  // One query for the analysis, its sample's label and every revision (the summary and the list).
-  const a = await db.analysis.findFirst({
-    where: { id: uuidOrNone(analysisId), groupId: member.group.id },
-    include: { sample: { select: { label: true } }, revisions: { select: REV_SELECT, orderBy: { number: "desc" } } },
-  });
-  if (!a) throw new NotFoundError("analysis");
-  const revisions = a.revisions as RevRow[];
-  const rev = revisionId ? revisions.find((r) => r.id === revisionId) : revisions[0];
+  const rows = await readNotebookRows(db, member.group.id, analysisId, revisionId);
+  if (!rows) throw new NotFoundError("analysis");
+  const a = rows.analysis;
+  const revisions = rows.revisions;
+  const rev = revisions.find((r) => r.id === rows.revisionId);
   if (!rev) throw new NotFoundError("revision");
   const editable = EDITABLE_STATES.includes(rev.state);
   // Viewers and reviewers see what is stored; computing (and writing) is for those who may edit.
   const mode = editable && (member.role === "owner" || member.role === "analyst") ? "edit" : "frozen";
-  const computed = await computeRevisionSteps(db, member.group.id, a.sampleId, rev.id, mode);
+  const computed = await computeRevisionSteps(db, member.group.id, a.sampleId, rev.id, mode, { steps: rows.steps, sample: rows.sample });
   return {
     analysis: toSummary({ ...a, revisions }),
     revision: toRevision(rev),
@@ -209,4 +205,21 @@ export async function editableRevision(db: Pick<Db, "analysisRevision">, analysi
     throw new ConflictError(`revision ${rev.number} cannot be edited: ${why}`);
   }
   return rev;
+}
+
+/** A JSON object's text with one more member whose value is already JSON text. */
+function withMember(objectJson: string, key: string, valueJson: string): string {
+  const member = `${JSON.stringify(key)}:${valueJson}`;
+  return objectJson === "{}" ? `{${member}}` : `${objectJson.slice(0, -1)},${member}}`;
+}
+
+/**
+ * `{"notebook": view}` as JSON text, the same as JSON.stringify would give, but carrying each
+ * step's output as its stored JSON text instead of serialising it again (outputs are most of a
+ * notebook's bytes, and they are the same on every read).
+ */
+export function notebookJson(view: NotebookView): string {
+  const steps = view.steps.map(({ output, ...rest }) => withMember(JSON.stringify(rest), "output", output ? outputJson(output) : "null"));
+  const { steps: _steps, ...head } = view;
+  return `{"notebook":${withMember(JSON.stringify(head), "steps", `[${steps.join(",")}]`)}}`;
 }

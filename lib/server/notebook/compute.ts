@@ -7,12 +7,15 @@
  * Stored outputs are read only when needed and kept per process by (step id, stored input
  * hash): a step's output and its input hash are always written together, and the hash names
  * every input of the engine's deterministic computation, so the pair names one output for
- * good — a cached copy can never be out of date, whichever instance wrote the row.
+ * good — a cached copy can never be out of date, whichever instance wrote the row. The cache
+ * keeps each output's JSON text beside the parsed value, so a notebook response can carry the
+ * text as it is (outputJson) instead of serialising the same output on every read.
  */
 import type { Db } from "../db/client";
 import { ENGINE_VERSION } from "../../engine/version";
-import { computeChainFrom, EMPTY_STATE, type ChainState, type StepOutput, type StepSpec, type ChainContext } from "../../engine/notebook";
-import { inputHashes, loadContext, loadMeasurements, referencedMeasurements } from "./context";
+import { computeChainFrom, EMPTY_STATE, type ChainState, type StepOutput, type StepSpec, type ChainContext, type ChainSample } from "../../engine/notebook";
+import { inputHashes, loadMeasurements, loadSample, referencedMeasurements } from "./context";
+import type { StepRow } from "./read";
 
 export type StoredOutput = Omit<StepOutput, "state">;
 
@@ -34,7 +37,6 @@ export interface StepView {
 
 /** Everything of a step row but its output (which is read separately, and only if needed). */
 const STEP_META = { id: true, position: true, kind: true, title: true, config: true, version: true, inputHash: true, engineVersion: true, computedAt: true, updatedAt: true } as const;
-type StepRow = { id: string; position: number; kind: string; title: string; config: unknown; version: number; inputHash: string | null; engineVersion: string | null; computedAt: Date | null; updatedAt: Date };
 
 const strip = ({ state: _state, ...rest }: StepOutput): StoredOutput => rest;
 
@@ -65,15 +67,41 @@ function resumePoint(stale: readonly boolean[], hashes: readonly string[]): { fr
   return { from, state };
 }
 
-/** Stored outputs by `${step id} ${input hash}` (per process, LRU; each entry is immutable and shared). */
-const OUTPUT_CACHE_SIZE = 256;
+/**
+ * Stored outputs by `${step id} ${input hash}` (per process, LRU, bounded by the total length of
+ * their JSON text; each value is immutable and shared by every view that shows it).
+ */
+const OUTPUT_CACHE_CHARS = 32 * 2 ** 20;
 const outputCache = new Map<string, StoredOutput>();
+const textOf = new WeakMap<object, string>();
+let cachedChars = 0;
 const outputKey = (id: string, hash: string) => `${id} ${hash}`;
 
+/** The output as parsed from its JSON text, remembered with that text. */
+function fromText(text: string): StoredOutput {
+  const value = JSON.parse(text) as StoredOutput;
+  textOf.set(value, text);
+  return value;
+}
+
+/** The JSON text of an output handed out by this module (what is stored), else its serialisation. */
+export function outputJson(output: StoredOutput): string {
+  return textOf.get(output) ?? JSON.stringify(output);
+}
+
 function rememberOutput(key: string, output: StoredOutput): void {
-  outputCache.delete(key);
+  const old = outputCache.get(key);
+  if (old) {
+    outputCache.delete(key);
+    cachedChars -= outputJson(old).length;
+  }
   outputCache.set(key, output);
-  while (outputCache.size > OUTPUT_CACHE_SIZE) outputCache.delete(outputCache.keys().next().value!);
+  cachedChars += outputJson(output).length;
+  while (cachedChars > OUTPUT_CACHE_CHARS && outputCache.size > 1) {
+    const [k, v] = outputCache.entries().next().value!;
+    outputCache.delete(k);
+    cachedChars -= outputJson(v).length;
+  }
 }
 
 /**
@@ -92,10 +120,10 @@ async function storedOutputs(db: Db, rows: readonly StepRow[], wanted: readonly 
     else missing.push(r.id);
   });
   if (missing.length === 0) return out;
-  const got = await db.step.findMany({ where: { id: { in: missing } }, select: { id: true, inputHash: true, output: true } });
+  const got = await db.$queryRaw<{ id: string; inputHash: string | null; output: string | null }[]>`SELECT "id"::text AS "id", "inputHash", "output"::text AS "output" FROM "Step" WHERE "id" = ANY(${missing}::uuid[])`;
   for (const g of got) {
     const i = rows.findIndex((r) => r.id === g.id);
-    const output = (g.output as StoredOutput | null) ?? null;
+    const output = g.output === null || g.output === "null" ? null : fromText(g.output);
     hashes[i] = g.inputHash;
     out[i] = output;
     if (output && g.inputHash) rememberOutput(outputKey(g.id, g.inputHash), output);
@@ -118,7 +146,7 @@ async function writeOutputs(db: Db, rows: { id: string; version: number; output:
     db.$executeRaw`SET LOCAL synchronous_commit = off`,
     db.$executeRaw`UPDATE "Step" AS s SET "output" = u.o::json, "inputHash" = u.h, "engineVersion" = ${ENGINE_VERSION},
       "computedAt" = (${at}::timestamptz AT TIME ZONE 'UTC'), "updatedAt" = (${at}::timestamptz AT TIME ZONE 'UTC')
-      FROM unnest(${rows.map((r) => r.id)}::uuid[], ${rows.map((r) => JSON.stringify(r.output))}::text[], ${rows.map((r) => r.inputHash)}::text[], ${rows.map((r) => r.version)}::int[]) AS u(id, o, h, v)
+      FROM unnest(${rows.map((r) => r.id)}::uuid[], ${rows.map((r) => outputJson(r.output))}::text[], ${rows.map((r) => r.inputHash)}::text[], ${rows.map((r) => r.version)}::int[]) AS u(id, o, h, v)
       WHERE s."id" = u.id AND s."version" = u.v`,
   ]);
 }
@@ -135,12 +163,16 @@ export interface ComputeResult {
  * only if the step's version is still the one computed from). "frozen" (sealed revisions):
  * stored outputs as they are; `fresh` says whether today's engine and inputs give the same hash.
  */
-export async function computeRevisionSteps(db: Db, groupId: string, sampleId: string, revisionId: string, mode: "edit" | "frozen"): Promise<ComputeResult> {
+export async function computeRevisionSteps(
+  db: Db, groupId: string, sampleId: string, revisionId: string, mode: "edit" | "frozen",
+  preloaded?: { steps: StepRow[]; sample: ChainSample },
+): Promise<ComputeResult> {
   const t0 = performance.now();
-  const rows: StepRow[] = await db.step.findMany({ where: { revisionId }, orderBy: { position: "asc" }, select: STEP_META });
+  const rows: StepRow[] = preloaded?.steps ?? (await db.step.findMany({ where: { revisionId }, orderBy: { position: "asc" }, select: STEP_META }));
   const specs: StepSpec[] = rows.map((r) => ({ id: r.id, kind: r.kind as StepSpec["kind"], config: r.config }));
   // Hashes need no point arrays; load them only if something must be computed.
-  let context = await loadContext(db, groupId, sampleId, specs, { points: false });
+  const [sample, meta] = await Promise.all([preloaded?.sample ?? loadSample(db, groupId, sampleId), loadMeasurements(db, groupId, referencedMeasurements(specs), { points: false })]);
+  let context: ChainContext = { sample, measurements: meta };
   const hashes = inputHashes(specs, context);
   const storedHash = rows.map((r) => r.inputHash);
   let stale = rows.map((r, i) => storedHash[i] !== hashes[i]);
@@ -158,7 +190,8 @@ export async function computeRevisionSteps(db: Db, groupId: string, sampleId: st
     if (needed.length) context = { ...context, measurements: { ...context.measurements, ...(await loadMeasurements(db, groupId, needed)) } };
     const fresh = computeChainFrom(specs, context, from, state);
     fresh.forEach((o, k) => rememberState(hashes[from + k]!, o.state));
-    outputs = [...outputs.slice(0, from), ...fresh.map(strip)];
+    // Each new output as its JSON text reads back: the same value whether computed or stored.
+    outputs = [...outputs.slice(0, from), ...fresh.map((o) => fromText(JSON.stringify(strip(o))))];
     await writeOutputs(db, rows.flatMap((r, i) => (stale[i] ? [{ id: r.id, version: r.version, output: outputs[i]!, inputHash: hashes[i]! }] : [])), now);
     rows.forEach((r, i) => { if (i >= from) rememberOutput(outputKey(r.id, hashes[i]!), outputs[i]!); });
   }

@@ -3,7 +3,7 @@
  * optimistic concurrency), server-side computation cached by input hash, discussion threads,
  * and change notices over PostgreSQL LISTEN/NOTIFY.
  */
-export { listAnalyses, createAnalysis, renameAnalysis, setAnalysisArchived, duplicateAnalysis, openNotebook, editableRevision, EDITABLE_STATES } from "./analyses";
+export { listAnalyses, createAnalysis, renameAnalysis, setAnalysisArchived, duplicateAnalysis, openNotebook, notebookJson, editableRevision, EDITABLE_STATES } from "./analyses";
 export type { AnalysisSummary, RevisionInfo, NotebookView, RevisionStateName } from "./analyses";
 export { addStep, updateStep, removeStep, moveStep } from "./steps";
 export { computeRevisionSteps, type StepView, type StoredOutput, type ComputeResult } from "./compute";

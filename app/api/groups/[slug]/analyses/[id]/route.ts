@@ -2,7 +2,7 @@ import { NextResponse } from "next/server";
 import { z } from "zod";
 import { route, jsonBody } from "@/lib/server/http";
 import { inGroup } from "@/lib/server/handler";
-import { duplicateAnalysis, openNotebook, renameAnalysis, setAnalysisArchived } from "@/lib/server/notebook";
+import { duplicateAnalysis, notebookJson, openNotebook, renameAnalysis, setAnalysisArchived } from "@/lib/server/notebook";
 import { parseInput } from "@/lib/server/validate";
 
 export const dynamic = "force-dynamic";
@@ -13,7 +13,7 @@ export const GET = route(async (req, { params }: Ctx) => {
   const { slug, id } = await params;
   const { db, member } = await inGroup(req, slug);
   const revision = new URL(req.url).searchParams.get("revision") ?? undefined;
-  return NextResponse.json({ notebook: await openNotebook(db, member, id, revision) });
+  return new NextResponse(notebookJson(await openNotebook(db, member, id, revision)), { headers: { "content-type": "application/json" } });
 });
 
 export const PATCH = route(async (req, { params }: Ctx) => {
