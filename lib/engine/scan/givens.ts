@@ -16,43 +16,65 @@
 /** Bounds on R_jj² + x_j² inside which the plain formula keeps full precision. */
 const TINY = 2 ** -960;
 const HUGE = 2 ** 960;
+/** c, s, h of the last rotation (module scratch: no allocation per row). */
+const CSH = new Float64Array(3);
 
 /**
- * Rotate row `x` (n entries from `a[off]`, copied into `work`) and right-hand side `beta`
- * into R and qtb; returns the rotated-out component. c = R_jj/h, s = x_j/h with the new
- * R_jj = h = √(R_jj² + x_j²) ≥ 0; when the squares would leave the exponent range (never for
- * the power-of-two scaled rows of weightedRows.ts in practice) h comes from a ratio instead.
+ * The rotation taking (p, q), q ≠ 0, to (h, 0): c = p/h, s = q/h, h = √(p² + q²) ≥ 0, left
+ * in CSH. When the squares would leave the exponent range (never for the power-of-two
+ * scaled rows of weightedRows.ts in practice) h comes from a ratio instead.
+ */
+function rotation(p: number, q: number): void {
+  const h2 = p * p + q * q;
+  if (h2 > TINY && h2 < HUGE) {
+    const h = Math.sqrt(h2);
+    const inv = 1 / h;
+    CSH[0] = p * inv;
+    CSH[1] = q * inv;
+    CSH[2] = h;
+  } else if (Math.abs(q) > Math.abs(p)) {
+    const t = p / q;
+    const u = Math.sqrt(1 + t * t);
+    const s = (q < 0 ? -1 : 1) / u;
+    CSH[0] = t * s;
+    CSH[1] = s;
+    CSH[2] = Math.abs(q) * u;
+  } else {
+    const t = q / p;
+    const u = Math.sqrt(1 + t * t);
+    const c = (p < 0 ? -1 : 1) / u;
+    CSH[0] = c;
+    CSH[1] = t * c;
+    CSH[2] = Math.abs(p) * u;
+  }
+}
+
+/**
+ * Rotate row x (n entries from `a[off]`) with right-hand side `beta` into R and qtb (`work`:
+ * n scratch entries); returns the rotated-out component.
  */
 export function appendRow(r: Float64Array, qtb: Float64Array, n: number, a: Float64Array, off: number, beta: number, work: Float64Array): number {
+  if (n === 2) return appendRow2(r, qtb, a, off, beta);
   for (let j = 0; j < n; j++) work[j] = a[off + j];
   let b = beta;
   for (let j = 0; j < n; j++) {
     const xj = work[j];
     if (xj === 0) continue;
     const d = j * n + j;
-    const rjj = r[d];
-    let c: number;
-    let s: number;
-    const h2 = rjj * rjj + xj * xj;
+    const p = r[d];
+    const h2 = p * p + xj * xj;
+    let c: number, s: number;
     if (h2 > TINY && h2 < HUGE) {
       const h = Math.sqrt(h2);
       const inv = 1 / h;
-      c = rjj * inv;
+      c = p * inv;
       s = xj * inv;
       r[d] = h;
-    } else if (Math.abs(xj) > Math.abs(rjj)) {
-      // the squares left the exponent range: take the rotation from a ratio instead
-      const t = rjj / xj;
-      const u = Math.sqrt(1 + t * t);
-      s = (xj < 0 ? -1 : 1) / u;
-      c = t * s;
-      r[d] = Math.abs(xj) * u;
     } else {
-      const t = xj / rjj;
-      const u = Math.sqrt(1 + t * t);
-      c = (rjj < 0 ? -1 : 1) / u;
-      s = t * c;
-      r[d] = Math.abs(rjj) * u;
+      rotation(p, xj);
+      c = CSH[0];
+      s = CSH[1];
+      r[d] = CSH[2];
     }
     for (let k = j + 1; k < n; k++) {
       const rk = r[d + k - j];
@@ -63,6 +85,60 @@ export function appendRow(r: Float64Array, qtb: Float64Array, n: number, a: Floa
     const q = qtb[j];
     qtb[j] = c * q + s * b;
     b = c * b - s * q;
+  }
+  return b;
+}
+
+/**
+ * appendRow for n = 2 (the default model), unrolled, with the in-range branch of rotation()
+ * written out: the same operations in the same order, about 3× faster.
+ */
+function appendRow2(r: Float64Array, qtb: Float64Array, a: Float64Array, off: number, beta: number): number {
+  const x0 = a[off];
+  let x1 = a[off + 1];
+  let b = beta;
+  if (x0 !== 0) {
+    const p = r[0];
+    const h2 = p * p + x0 * x0;
+    let c: number, s: number;
+    if (h2 > TINY && h2 < HUGE) {
+      const h = Math.sqrt(h2);
+      const inv = 1 / h;
+      c = p * inv;
+      s = x0 * inv;
+      r[0] = h;
+    } else {
+      rotation(p, x0);
+      c = CSH[0];
+      s = CSH[1];
+      r[0] = CSH[2];
+    }
+    const r01 = r[1];
+    r[1] = c * r01 + s * x1;
+    x1 = c * x1 - s * r01;
+    const q0 = qtb[0];
+    qtb[0] = c * q0 + s * b;
+    b = c * b - s * q0;
+  }
+  if (x1 !== 0) {
+    const p = r[3];
+    const h2 = p * p + x1 * x1;
+    let c: number, s: number;
+    if (h2 > TINY && h2 < HUGE) {
+      const h = Math.sqrt(h2);
+      const inv = 1 / h;
+      c = p * inv;
+      s = x1 * inv;
+      r[3] = h;
+    } else {
+      rotation(p, x1);
+      c = CSH[0];
+      s = CSH[1];
+      r[3] = CSH[2];
+    }
+    const q1 = qtb[1];
+    qtb[1] = c * q1 + s * b;
+    b = c * b - s * q1;
   }
   return b;
 }
