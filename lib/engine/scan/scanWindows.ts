@@ -9,8 +9,9 @@
  * by solveLinearLeastSquares instead (which refines such problems in double-double; one
  * fixed-precision correction keeps only ~16 − log10 κ digits there). Nonlinear models, and
  * linear ones with fixed parameters, use fitHeatCapacity per window.
- * Failure modes: InputError as fitHeatCapacity, for a model that is not finite at a data
- * temperature, or for minPoints not a positive integer; an empty grid gives no cells and a reason.
+ * Failure modes: InputError as fitHeatCapacity, for a linear model whose basis is not finite
+ * at a data temperature (anywhere in the data, not only inside a window), or for minPoints not
+ * a positive integer; an empty grid gives no cells and a reason.
  */
 import { InputError, invalid } from "../errors";
 import { getModel } from "../models/registry";
