@@ -1,28 +1,31 @@
 /**
  * Weighted linear least squares: minimise Σ_i w_i² (y_i − Σ_j A_ij x_j)², w_i = 1/σ_i.
  *
- * Method: rows scaled by w, columns scaled by exact powers of two S to unit norm,
- * Householder QR (never the normal equations), then — when the scaled problem is
- * ill-conditioned (κ > REFINE_KAPPA) or when asked — Björck's iterative refinement of the
- * augmented system [I A; Aᵀ 0][r; x] = [b; 0] with residuals accumulated in double-double;
- * otherwise one fixed-precision correction. Householder QR commutes exactly with a
- * power-of-two column scaling (every operation is scaled by an exact power of two), so S
- * is applied implicitly: R of the scaled design is R·S bit for bit, and the rank test and
- * the condition estimate κ = ‖RS‖_F‖(RS)⁻¹‖_F use it; x and (AᵀWA)⁻¹ = R⁻¹R⁻ᵀ need no
- * rescaling. The covariance comes from R⁻¹.
+ * Method: rows scaled by w, Householder QR of [WA | Wy] (never the normal equations), then
+ * — when the column-scaled problem is ill-conditioned (κ > REFINE_KAPPA) or when asked —
+ * Björck's iterative refinement of the augmented system [I A; Aᵀ 0][r; x] = [b; 0] with
+ * residuals accumulated in double-double; otherwise one fixed-precision correction
+ * z += R⁻¹·(Qᵀ W(y − Az))[0..n). Columns are scaled by exact powers of two S to about unit
+ * norm for the rank test and the condition estimate κ = ‖RS‖_F‖(RS)⁻¹‖_F. Householder QR
+ * commutes exactly with such a scaling (every operation is scaled by an exact power of two),
+ * so S is applied implicitly: R of the scaled design is R·S bit for bit, S is read off R
+ * (‖R e_j‖ = ‖(WA)_j‖), and x and (AᵀWA)⁻¹ = R⁻¹R⁻ᵀ need no rescaling. The covariance comes
+ * from R⁻¹. Residuals and χ² are those of the returned coefficients, recomputed from the
+ * data in one sweep (after Björck refinement: its refined residual).
  * Reference: Björck, BIT 7 (1967) 257 ("Iterative refinement of linear least squares
  * solutions I"); Golub & Van Loan §5.3.
  *
  * Failure modes: throws InputError on shape mismatch, non-finite input or σ ≤ 0; returns
  * `rank < n` (and no solution) when a column is zero or numerically dependent.
  */
-import { InputError } from "../errors";
-import { applyQ, applyQt, covarianceFromRinv, invertR, qrFactor, solveR, type QRFactor } from "./qr";
-import { refineStep, scaledDesign, subtractDesign } from "./refine";
+import { applyQt, covarianceFromRinv, invertR, qrFactor, solveR, type QRFactor } from "./qr";
+import { checkInputs, columnScale, conditionEstimate, factorIsFinite, rankOf } from "./checks";
+import { refineStep } from "./refine";
+import { weightedResidual, weightedSystem } from "./weighted";
+import { workspace } from "./workspace";
 
 /** Refine when the column-scaled condition estimate exceeds this (plain QR keeps ~16 − 2·log10 κ digits). */
 const REFINE_KAPPA = 1e3;
-const EPS = 2.220446049250313e-16;
 
 export interface LinearLeastSquaresOptions {
   /** Standard uncertainty of each y (same length); weights are 1/σ². */
@@ -50,43 +53,6 @@ export interface LinearLeastSquaresResult {
   readonly refinementSteps: number;
 }
 
-function checkInputs(design: Float64Array, m: number, n: number, y: ArrayLike<number>, sigma?: ArrayLike<number>): void {
-  if (design.length !== m * n) throw new InputError(`design has ${design.length} entries, expected ${m}×${n}`, { field: "design" });
-  if (y.length !== m) throw new InputError(`y has ${y.length} values, design has ${m} rows`, { field: "y" });
-  if (sigma && sigma.length !== m) throw new InputError(`sigma has ${sigma.length} values, expected ${m}`, { field: "sigma" });
-  for (let i = 0; i < m; i++) {
-    if (!Number.isFinite(y[i])) throw new InputError(`invalid y: ${y[i]} (not finite)`, { field: "y", line: i + 1 });
-    if (sigma && !(sigma[i] > 0 && Number.isFinite(sigma[i]))) {
-      throw new InputError(`invalid sigma: ${sigma[i]} (must be finite and > 0)`, { field: "sigma", line: i + 1 });
-    }
-  }
-  for (let k = 0; k < m * n; k++) {
-    if (!Number.isFinite(design[k])) throw new InputError(`invalid design entry: ${design[k]} (not finite)`, { field: "design", line: (k % m) + 1 });
-  }
-}
-
-/** Numerical rank from the diagonal of R·S (S the column scaling). */
-function rankOf(f: QRFactor, scale: Float64Array): number {
-  let max = 0;
-  for (let k = 0; k < f.n; k++) max = Math.max(max, Math.abs(f.rdiag[k] * scale[k]));
-  const tol = Math.max(f.m, f.n) * EPS * max;
-  let rank = 0;
-  for (let k = 0; k < f.n; k++) if (Math.abs(f.rdiag[k] * scale[k]) > tol) rank++;
-  return rank;
-}
-
-/** ‖RS‖_F · ‖(RS)⁻¹‖_F from R and R⁻¹ (column-major n×n). */
-function conditionEstimate(f: QRFactor, rinv: Float64Array, scale: Float64Array): number {
-  let r2 = 0;
-  let i2 = 0;
-  for (let j = 0; j < f.n; j++) {
-    r2 += (f.rdiag[j] * scale[j]) ** 2;
-    for (let i = 0; i < j; i++) r2 += (f.qr[j * f.m + i] * scale[j]) ** 2;
-    for (let i = 0; i <= j; i++) i2 += (rinv[j * f.n + i] / scale[i]) ** 2;
-  }
-  return Math.sqrt(r2) * Math.sqrt(i2);
-}
-
 function emptyResult(m: number, rank: number, kappa: number): LinearLeastSquaresResult {
   return { fullRank: false, rank, coefficients: new Float64Array(0), covariance: new Float64Array(0), residuals: new Float64Array(m), chiSquare: NaN, conditionEstimate: kappa, refinementSteps: 0 };
 }
@@ -103,70 +69,82 @@ export function solveLinearLeastSquares(
   options: LinearLeastSquaresOptions = {},
 ): LinearLeastSquaresResult {
   const { sigma } = options;
-  if (design.length !== m * n || y.length !== m || (sigma && sigma.length !== m)) checkInputs(design, m, n, y, sigma);
-  // rows are weighted by w = 1/σ (computed once; the same rounded w everywhere below)
-  const w = sigma ? new Float64Array(m) : null;
-  const b = new Float64Array(m);
-  let bs = 0;
-  if (w) {
-    for (let i = 0; i < m; i++) {
-      if (!(sigma![i] > 0 && sigma![i] < Infinity)) checkInputs(design, m, n, y, sigma);
-      w[i] = 1 / sigma![i];
-      bs += b[i] = y[i] * w[i];
-    }
-  } else for (let i = 0; i < m; i++) bs += b[i] = y[i];
-  const { a, scale, finite } = scaledDesign(design, m, n, w, false, 1);
-  if (!finite || !Number.isFinite(bs)) checkInputs(design, m, n, y, sigma);
+  if (design.length !== m * n || y.length !== m || (sigma && sigma.length !== m) || m < n || n === 0) checkInputs(design, m, n, y, sigma);
   if (m < n || n === 0) return emptyResult(m, Math.min(m, n), Infinity);
-  // b rides along as column n, so the factorisation leaves Qᵀb there
-  a.set(b, n * m);
-  const f = qrFactor(a, m, n, 1);
+  // one work array: [WA | Wy] (factored in place), then w = 1/σ (the same rounded w
+  // everywhere below), then the correction
+  const work = workspace(m * (n + 3));
+  const a = work.subarray(0, m * (n + 1));
+  const w = work.subarray(m * (n + 1), m * (n + 2));
+  weights(w, sigma, () => checkInputs(design, m, n, y, sigma));
+  const gram = new Float64Array(n + 1);
+  weightedSystem(design, m, n, w, y, a, gram);
+  // only the first n entries of Qᵀ(Wy) are used
+  const f = qrFactor(a, m, n, 1, { gram, extraHeadOnly: true });
+  if (!factorIsFinite(f)) checkInputs(design, m, n, y, sigma);
+  const scale = columnScale(f);
   const rank = rankOf(f, scale);
   if (rank < n) return emptyResult(m, rank, Infinity);
   const rinv = invertR(f);
   const kappa = conditionEstimate(f, rinv, scale);
-  const unit = new Float64Array(n).fill(1);
   const z = a.slice(n * m, n * m + n);
   solveR(f, z);
   const maxSteps = options.refine === "auto" || options.refine === undefined ? (kappa > REFINE_KAPPA ? 4 : 0) : options.refine;
-  const r = new Float64Array(b);
-  let steps = 0;
+  const base = { fullRank: true, rank: n, covariance: covarianceFromRinv(rinv, n), conditionEstimate: kappa };
+  const residuals = new Float64Array(m);
   if (maxSteps > 0) {
-    // Björck: start from r = Q[0; c₂] and refine (r, z) together against the unfactored design
-    r.fill(0, 0, n);
-    r.set(a.subarray(n * m + n, (n + 1) * m), n);
-    applyQ(f, r);
-    const as = scaledDesign(design, m, n, w, false).a;
-    const hi = new Float64Array(m);
-    const lo = new Float64Array(m);
-    while (steps < maxSteps) {
-      steps++;
-      // the next correction is about κ·ε times this one: stop once that is below rounding
-      if (refineStep(f, as, b, z, r, hi, lo) * kappa <= 1) break;
+    const { r, steps } = refineBjorck(f, design, w, y, z, kappa, maxSteps, residuals);
+    let chi = 0;
+    for (let i = 0; i < m; i++) {
+      chi += r[i] * r[i];
+      residuals[i] = sigma ? r[i] * sigma[i] : r[i];
     }
-  } else {
-    subtractDesign(design, m, n, w, z, unit, r);
-    if (options.refine !== 0) {
-      // one fixed-precision correction z += R⁻¹Qᵀ(b − Az): cheap, and recovers the digits
-      // lost to rounding in the factorisation of a well-conditioned problem
-      const d = new Float64Array(r);
-      applyQt(f, d);
-      solveR(f, d);
-      for (let j = 0; j < n; j++) z[j] += d[j];
-      subtractDesign(design, m, n, w, d.subarray(0, n), unit, r);
-    }
+    return { ...base, coefficients: z, residuals, chiSquare: chi, refinementSteps: steps };
   }
-  return finish(m, n, z, r, rinv, sigma, kappa, steps);
+  if (options.refine !== 0) {
+    // one fixed-precision correction: cheap, and recovers the digits lost to rounding in
+    // the factorisation of a well-conditioned problem
+    const d = work.subarray(m * (n + 2), m * (n + 3));
+    weightedResidual(design, m, n, w, y, z, residuals, d);
+    applyQt(f, d, true);
+    solveR(f, d);
+    for (let j = 0; j < n; j++) z[j] += d[j];
+  }
+  const chi = weightedResidual(design, m, n, w, y, z, residuals, null);
+  return { ...base, coefficients: z, residuals, chiSquare: chi, refinementSteps: 0 };
 }
 
-function finish(m: number, n: number, z: Float64Array, r: Float64Array, rinv: Float64Array, sigma: ArrayLike<number> | undefined, kappa: number, steps: number): LinearLeastSquaresResult {
-  const coefficients = z.slice(0, n);
-  const cov = covarianceFromRinv(rinv, n);
-  let chi = 0;
-  const residuals = new Float64Array(m);
-  for (let i = 0; i < m; i++) {
-    chi += r[i] * r[i];
-    residuals[i] = sigma ? r[i] * sigma[i] : r[i];
+/** w_i = 1/σ_i (all 1 without σ); calls `bad` at the first σ that is not finite and > 0. */
+function weights(w: Float64Array, sigma: ArrayLike<number> | undefined, bad: () => void): void {
+  if (!sigma) {
+    w.fill(1);
+    return;
   }
-  return { fullRank: true, rank: n, coefficients, covariance: cov, residuals, chiSquare: chi, conditionEstimate: kappa, refinementSteps: steps };
+  for (let i = 0; i < w.length; i++) {
+    const s = sigma[i];
+    if (!(s > 0 && s < Infinity)) bad();
+    w[i] = 1 / s;
+  }
+}
+
+/**
+ * Björck: from z and its residual r = W(y − Az) (in working precision; `u` is scratch)
+ * refine (r, z) together against the unfactored weighted design; z is updated in place.
+ */
+function refineBjorck(f: QRFactor, design: Float64Array, w: Float64Array, y: ArrayLike<number>, z: Float64Array, kappa: number, maxSteps: number, u: Float64Array): { r: Float64Array; steps: number } {
+  const { m, n } = f;
+  const r = new Float64Array(m);
+  weightedResidual(design, m, n, w, y, z, u, r);
+  const as = new Float64Array(m * (n + 1));
+  weightedSystem(design, m, n, w, y, as, new Float64Array(n + 1));
+  const b = as.subarray(n * m);
+  const hi = new Float64Array(m);
+  const lo = new Float64Array(m);
+  let steps = 0;
+  while (steps < maxSteps) {
+    steps++;
+    // the next correction is about κ·ε times this one: stop once that is below rounding
+    if (refineStep(f, as, b, z, r, hi, lo) * kappa <= 1) break;
+  }
+  return { r, steps };
 }

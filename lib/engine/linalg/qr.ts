@@ -6,6 +6,7 @@
  * `rdiag`. No normal equations are ever formed. Reference: Golub & Van Loan, Matrix
  * Computations (4th ed.), §5.1–5.2; Björck, Numerical Methods for Least Squares Problems, §2.4.
  */
+import { gramSums, sweepBlock } from "./reflect";
 
 export interface QRFactor {
   /** m×n column-major: v_k in rows k..m−1 of column k, R strictly above the diagonal. */
@@ -16,14 +17,6 @@ export interface QRFactor {
   readonly rdiag: Float64Array;
   /** Householder coefficients β_k (0 when column k was already zero). */
   readonly beta: Float64Array;
-}
-
-function columnNorm(a: Float64Array, from: number, to: number): number {
-  let sum = 0;
-  for (let i = from; i < to; i++) sum += a[i] * a[i];
-  // one pass unless the sum of squares under- or overflowed; then rescale (two passes)
-  if (sum > 1e-290 && sum < 1e290) return Math.sqrt(sum);
-  return scaledNorm(a, from, to);
 }
 
 function scaledNorm(a: Float64Array, from: number, to: number): number {
@@ -38,87 +31,101 @@ function scaledNorm(a: Float64Array, from: number, to: number): number {
   return scale * Math.sqrt(sum);
 }
 
+/** Options of qrFactor. */
+export interface QRFactorOptions {
+  /**
+   * Σ_{i≥1} a_{i0} a_ij for j = 0..n+extra−1, when the caller summed them while writing a:
+   * saves the first reflector its own sweep. Overwritten.
+   */
+  readonly gram?: Float64Array;
+  /**
+   * Only the first n rows of the extra columns are needed (the leading part of Qᵀb): the last
+   * reflector is then applied to row n−1 of them alone, and their rows ≥ n are left without it.
+   */
+  readonly extraHeadOnly?: boolean;
+}
+
 /**
  * Factor the first n columns of `a` (overwritten) as Q R, applying each reflector also to
  * `extra` further columns (so a right-hand side stored there becomes Qᵀb). Cost
- * 2mn² − 2n³/3 flops plus 4mn per extra column. Trailing columns are updated two at a time
- * (one sweep over the reflector per pair), and the norm of the next column is carried from
- * its update; the arithmetic is the same as column by column.
+ * 2mn² − 2n³/3 flops plus 4mn per extra column. One sweep over the rows per reflector and
+ * block of four trailing columns (reflect.ts) updates the block and sums the products the
+ * next reflector needs (its pivot column's norm and vᵀa_j), so there is no separate dot
+ * pass; the norm falls back to a rescaled two-pass sum when the one-pass sum of squares
+ * under- or overflows.
  */
-export function qrFactor(a: Float64Array, m: number, n: number, extra = 0): QRFactor {
+export function qrFactor(a: Float64Array, m: number, n: number, extra = 0, options: QRFactorOptions = {}): QRFactor {
   const rdiag = new Float64Array(n);
   const beta = new Float64Array(n);
   const cols = n + extra;
-  let nextSq = -1;
+  // g[j] = Σ_{i>k} a_ik a_ij for the current pivot k and j ≥ k (g[k]: its norm² below row k)
+  const g = options.gram ?? new Float64Array(cols);
+  const s = new Float64Array(cols);
+  let ready = options.gram !== undefined;
   for (let k = 0; k < n; k++) {
     const ck = k * m;
-    const nrm = nextSq > 1e-290 && nextSq < 1e290 ? Math.sqrt(nextSq) : columnNorm(a, ck + k, ck + m);
-    nextSq = -1;
+    if (!ready) gramSums(a, m, k, ck, k, cols, g);
+    ready = false;
+    const head = a[ck + k];
+    const sq = head * head + g[k];
+    const nrm = sq > 1e-290 && sq < 1e290 ? Math.sqrt(sq) : scaledNorm(a, ck + k, ck + m);
     if (nrm === 0) continue;
-    const alpha = a[ck + k] > 0 ? -nrm : nrm;
-    const v0 = a[ck + k] - alpha;
+    const alpha = head > 0 ? -nrm : nrm;
+    const v0 = head - alpha;
     a[ck + k] = v0;
     const b = 1 / (-alpha * v0);
     beta[k] = b;
     rdiag[k] = alpha;
-    let j = k + 1;
-    for (; j + 1 < cols; j += 2) {
-      const sq = reflectPair(a, ck, j * m, (j + 1) * m, k, m, b);
-      if (j === k + 1) nextSq = sq;
+    if (k + 1 >= cols) continue;
+    for (let j = k + 1; j < cols; j++) {
+      s[j] = b * (v0 * a[j * m + k] + g[j]);
+      a[j * m + k] -= s[j] * v0;
     }
-    if (j < cols) {
-      const sq = reflectPair(a, ck, j * m, -1, k, m, b);
-      if (j === k + 1) nextSq = sq;
-    }
+    if (k + 1 === n && options.extraHeadOnly) break;
+    for (let j = k + 1; j < cols; j += 4) sweepBlock(a, m, k, ck, ck + m, j, Math.min(4, cols - j), s, g);
+    ready = true;
   }
   return { qr: a, m, n, rdiag, beta };
 }
 
-/** Apply H = I − β v vᵀ (v in column at ck from row k) to columns c1 and c2 (c2 < 0: none); returns ‖c1(k+1:m)‖². */
-function reflectPair(a: Float64Array, ck: number, c1: number, c2: number, k: number, m: number, b: number): number {
-  let s1 = 0;
-  let s2 = 0;
-  if (c2 >= 0) {
-    for (let i = k; i < m; i++) {
-      const v = a[ck + i];
-      s1 += v * a[c1 + i];
-      s2 += v * a[c2 + i];
+/**
+ * b ← Qᵀ b (b has length m): n + 1 sweeps over the rows, each applying H_k and summing
+ * v_{k+1}ᵀb for the next reflector on the way. With `headOnly` only b[0..n) is wanted:
+ * the last reflector then touches b[n−1] alone and the rest of b is left partly transformed.
+ */
+export function applyQt(f: QRFactor, b: Float64Array, headOnly = false): void {
+  const { qr, m, n, beta } = f;
+  if (n === 0) return;
+  let t = 0;
+  for (let i = 0; i < m; i++) t += qr[i] * b[i];
+  for (let k = 0; k < n; k++) {
+    const ck = k * m;
+    // β_k = 0 (a zero column, left as it was): H_k = I, but the sum for k + 1 is still needed
+    const sk = beta[k] * t;
+    b[k] -= sk * qr[ck + k];
+    if (k + 1 === n) {
+      if (!headOnly) for (let i = k + 1; i < m; i++) b[i] -= sk * qr[ck + i];
+      return;
     }
-  } else for (let i = k; i < m; i++) s1 += a[ck + i] * a[c1 + i];
-  s1 *= b;
-  s2 *= b;
-  a[c1 + k] -= s1 * a[ck + k];
-  if (c2 >= 0) a[c2 + k] -= s2 * a[ck + k];
-  let sq = 0;
-  if (c2 >= 0) {
-    for (let i = k + 1; i < m; i++) {
-      const v = a[ck + i];
-      const u = a[c1 + i] - s1 * v;
-      a[c1 + i] = u;
-      sq += u * u;
-      a[c2 + i] -= s2 * v;
-    }
-  } else {
-    for (let i = k + 1; i < m; i++) {
-      const u = a[c1 + i] - s1 * a[ck + i];
-      a[c1 + i] = u;
-      sq += u * u;
-    }
+    t = reflectAndDot(qr, ck, ck + m, b, k + 1, m, sk);
   }
-  return sq;
 }
 
-/** b ← Qᵀ b (b has length m). */
-export function applyQt(f: QRFactor, b: Float64Array): void {
-  const { qr, m, n, beta } = f;
-  for (let k = 0; k < n; k++) {
-    if (beta[k] === 0) continue;
-    const ck = k * m;
-    let s = 0;
-    for (let i = k; i < m; i++) s += qr[ck + i] * b[i];
-    s *= beta[k];
-    for (let i = k; i < m; i++) b[i] -= s * qr[ck + i];
+/** b_i ← b_i − s·q[vOff + i] for i = from..m−1, returning Σ q[nOff + i]·b_i (updated). */
+function reflectAndDot(q: Float64Array, vOff: number, nOff: number, b: Float64Array, from: number, m: number, s: number): number {
+  let t0 = 0, t1 = 0;
+  let i = from;
+  for (; i + 1 < m; i += 2) {
+    const u0 = b[i] - s * q[vOff + i], u1 = b[i + 1] - s * q[vOff + i + 1];
+    b[i] = u0; b[i + 1] = u1;
+    t0 += q[nOff + i] * u0; t1 += q[nOff + i + 1] * u1;
   }
+  if (i < m) {
+    const u0 = b[i] - s * q[vOff + i];
+    b[i] = u0;
+    t0 += q[nOff + i] * u0;
+  }
+  return t0 + t1;
 }
 
 /** b ← Q b (b has length m). */
