@@ -19,7 +19,7 @@ export interface Member {
   role: Role;
 }
 
-export const GROUP_FIELDS = { id: true, slug: true, name: true, allowSelfApproval: true } as const;
+const GROUP_FIELDS = { id: true, slug: true, name: true, allowSelfApproval: true } as const;
 
 /** The caller's membership of the group with this slug or id, or NotFoundError. */
 /** The Prisma filter for a group named by slug or by id. */

@@ -4,7 +4,10 @@
  */
 import { getDb, type Db } from "./db/client";
 import { requireUser, sessionUserId } from "./session";
-import { GROUP_FIELDS, groupWhere, type Member } from "./access";
+import { groupWhere, type Member } from "./access";
+import type { Role } from "./permissions";
+import { uuidOrNone } from "./samples";
+import { Prisma } from "./generated/prisma/client";
 import { ForbiddenError, InputError, NotFoundError, UnauthenticatedError } from "../engine/errors";
 import { MAX_UPLOAD_BYTES } from "./measurements";
 import type { UserInfo } from "./users";
@@ -44,15 +47,22 @@ export async function inGroup(req: Request, slug: string): Promise<GroupContext>
   const userId = await sessionUserId();
   if (!userId) throw new UnauthenticatedError();
   const db = getDb();
-  const m = await db.membership.findFirst({
-    where: { userId, group: groupWhere(slug) },
-    select: { role: true, group: { select: GROUP_FIELDS }, user: { select: { id: true, email: true, name: true } } },
-  });
+  // Raw SQL: every request runs this, and through Prisma the two relations cost two more queries.
+  const where = groupWhere(slug);
+  const rows = await db.$queryRaw<{ role: Role; id: string; slug: string; name: string; allowSelfApproval: boolean; email: string; userName: string }[]>`
+    SELECT m."role"::text AS "role", g."id"::text AS "id", g."slug", g."name", g."allowSelfApproval", u."email", u."name" AS "userName"
+    FROM "Membership" m JOIN "Group" g ON g."id" = m."groupId" JOIN "User" u ON u."id" = m."userId"
+    WHERE m."userId" = ${uuidOrNone(userId)}::uuid AND ${"id" in where ? Prisma.sql`g."id" = ${where.id}::uuid` : Prisma.sql`g."slug" = ${where.slug}`}`;
+  const m = rows[0];
   if (!m) {
-    if (!(await db.user.findUnique({ where: { id: userId }, select: { id: true } }))) throw new UnauthenticatedError();
+    if (!(await db.user.findUnique({ where: { id: uuidOrNone(userId) }, select: { id: true } }))) throw new UnauthenticatedError();
     throw new NotFoundError("group");
   }
-  return { db, user: m.user, member: { userId, group: m.group, role: m.role } };
+  return {
+    db,
+    user: { id: userId, email: m.email, name: m.userName },
+    member: { userId, group: { id: m.id, slug: m.slug, name: m.name, allowSelfApproval: m.allowSelfApproval }, role: m.role },
+  };
 }
 
 export interface UploadedForm {

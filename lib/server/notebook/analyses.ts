@@ -185,7 +185,7 @@ export async function openNotebook(db: Db, member: Member, analysisId: string, r
   const editable = EDITABLE_STATES.includes(rev.state);
   // Viewers and reviewers see what is stored; computing (and writing) is for those who may edit.
   const mode = editable && (member.role === "owner" || member.role === "analyst") ? "edit" : "frozen";
-  const computed = await computeRevisionSteps(db, member.group.id, a.sampleId, rev.id, mode, { steps: rows.steps, sample: rows.sample });
+  const computed = await computeRevisionSteps(db, member.group.id, a.sampleId, rev.id, mode, { steps: rows.steps, sample: rows.sample, measurements: rows.measurements });
   return {
     analysis: toSummary({ ...a, revisions }),
     revision: toRevision(rev),

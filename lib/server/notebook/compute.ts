@@ -13,7 +13,7 @@
  */
 import type { Db } from "../db/client";
 import { ENGINE_VERSION } from "../../engine/version";
-import { computeChainFrom, EMPTY_STATE, type ChainState, type StepOutput, type StepSpec, type ChainContext, type ChainSample } from "../../engine/notebook";
+import { computeChainFrom, EMPTY_STATE, type ChainState, type StepOutput, type StepSpec, type ChainContext, type ChainMeasurement, type ChainSample } from "../../engine/notebook";
 import { inputHashes, loadMeasurements, loadSample, referencedMeasurements } from "./context";
 import type { StepRow } from "./read";
 
@@ -165,13 +165,16 @@ export interface ComputeResult {
  */
 export async function computeRevisionSteps(
   db: Db, groupId: string, sampleId: string, revisionId: string, mode: "edit" | "frozen",
-  preloaded?: { steps: StepRow[]; sample: ChainSample },
+  preloaded?: { steps: StepRow[]; sample: ChainSample; measurements: Record<string, ChainMeasurement> },
 ): Promise<ComputeResult> {
   const t0 = performance.now();
   const rows: StepRow[] = preloaded?.steps ?? (await db.step.findMany({ where: { revisionId }, orderBy: { position: "asc" }, select: STEP_META }));
   const specs: StepSpec[] = rows.map((r) => ({ id: r.id, kind: r.kind as StepSpec["kind"], config: r.config }));
   // Hashes need no point arrays; load them only if something must be computed.
-  const [sample, meta] = await Promise.all([preloaded?.sample ?? loadSample(db, groupId, sampleId), loadMeasurements(db, groupId, referencedMeasurements(specs), { points: false })]);
+  const ids = referencedMeasurements(specs);
+  const [sample, meta] = preloaded
+    ? [preloaded.sample, Object.fromEntries(ids.flatMap((id) => (preloaded.measurements[id] ? [[id, preloaded.measurements[id]!]] : [])))]
+    : await Promise.all([loadSample(db, groupId, sampleId), loadMeasurements(db, groupId, ids, { points: false })]);
   let context: ChainContext = { sample, measurements: meta };
   const hashes = inputHashes(specs, context);
   const storedHash = rows.map((r) => r.inputHash);

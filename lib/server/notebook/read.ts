@@ -2,11 +2,12 @@
  * What opening a notebook reads, in one SQL round trip: the analysis (group-scoped) with its
  * sample's label, every revision, the steps of the chosen revision (default: the newest; a
  * revision id of another analysis finds none) without their outputs, and the sample fields a
- * chain reads. Through Prisma the same took five queries (each include is one more), and that
+ * chain reads, and the group's measurements whose id appears in a step's configuration (a superset
+ * of those the steps name; the caller picks those), without their points. Through Prisma the same took five queries (each include is one more), and that
  * dominated a cached notebook read under load (see "Scaling out" in README.md).
  */
 import type { Db } from "../db/client";
-import type { ChainSample } from "../../engine/notebook";
+import type { ChainMeasurement, ChainSample } from "../../engine/notebook";
 import type { RevisionStateName } from "./analyses";
 import { uuidOrNone } from "../samples";
 
@@ -28,6 +29,8 @@ export interface NotebookRows {
   revisionId: string | null;
   steps: StepRow[];
   sample: ChainSample;
+  /** By id, without point arrays (what input hashes read). */
+  measurements: Record<string, ChainMeasurement>;
 }
 
 const ts = (col: string) => `to_char(${col}, 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
@@ -48,7 +51,11 @@ SELECT json_build_object(
   'steps', (SELECT coalesce(json_agg(json_build_object('id', st."id", 'position', st."position", 'kind', st."kind", 'title', st."title",
       'config', st."config", 'version', st."version", 'inputHash', st."inputHash", 'engineVersion', st."engineVersion",
       'computedAt', ${ts('st."computedAt"')}, 'updatedAt', ${ts('st."updatedAt"')}) ORDER BY st."position"), '[]'::json)
-    FROM "Step" st WHERE st."revisionId" = (SELECT "id" FROM rev))
+    FROM "Step" st WHERE st."revisionId" = (SELECT "id" FROM rev)),
+  'measurements', (SELECT coalesce(json_agg(json_build_object('id', m."id", 'label', m."label", 'kind', m."kind", 'basis', m."basis",
+      'fieldT', m."fieldT", 'pointCount', m."pointCount", 'sha256', f."sha256")), '[]'::json)
+    FROM "Measurement" m JOIN "StoredFile" f ON f."id" = m."fileId"
+    WHERE m."groupId" = $2::uuid AND strpos((SELECT string_agg(c."config"::text, ' ') FROM "Step" c WHERE c."revisionId" = (SELECT "id" FROM rev)), m."id"::text) > 0)
 )::text AS "row"
 FROM a JOIN "Sample" s ON s."id" = a."sampleId"`;
 
@@ -60,6 +67,7 @@ type Raw = {
   revisions: (Omit<RevisionRow, "submittedAt" | "sealedAt" | "createdAt"> & { submittedAt: string | null; sealedAt: string | null; createdAt: string })[];
   revisionId: string | null;
   steps: (Omit<StepRow, "computedAt" | "updatedAt"> & { computedAt: string | null; updatedAt: string })[];
+  measurements: Pick<ChainMeasurement, "id" | "label" | "kind" | "basis" | "fieldT" | "sha256" | "pointCount">[];
 };
 
 /** The notebook's rows, or null when the analysis is not in the group. */
@@ -74,5 +82,6 @@ export async function readNotebookRows(db: Db, groupId: string, analysisId: stri
     revisionId: r.revisionId,
     steps: r.steps.map((s) => ({ ...s, computedAt: date(s.computedAt), updatedAt: new Date(s.updatedAt) })),
     sample: { ...r.sample, valences: r.sample.valences ?? {} },
+    measurements: Object.fromEntries(r.measurements.map((m) => [m.id, { ...m, temperatureK: [], heatCapacity: [], sigma: null }])),
   };
 }
