@@ -18,10 +18,10 @@
  * Failure modes: throws InputError on shape mismatch, non-finite input or σ ≤ 0; returns
  * `rank < n` (and no solution) when a column is zero or numerically dependent.
  */
-import { applyQt, covarianceFromRinv, invertR, qrFactor, solveR, type QRFactor } from "./qr";
+import { applyQtToColumn, covarianceFromRinv, invertR, qrFactor, solveR, type QRFactor } from "./qr";
 import { checkInputs, columnScale, conditionEstimate, factorIsFinite, rankOf } from "./checks";
 import { refineStep } from "./refine";
-import { weightedResidual, weightedSystem } from "./weighted";
+import { correctionResidual, weightedResidual, weightedSystem } from "./weighted";
 import { workspace } from "./workspace";
 
 /** Refine when the column-scaled condition estimate exceeds this (plain QR keeps ~16 − 2·log10 κ digits). */
@@ -71,11 +71,11 @@ export function solveLinearLeastSquares(
   const { sigma } = options;
   if (design.length !== m * n || y.length !== m || (sigma && sigma.length !== m) || m < n || n === 0) checkInputs(design, m, n, y, sigma);
   if (m < n || n === 0) return emptyResult(m, Math.min(m, n), Infinity);
-  // one work array: [WA | Wy] (factored in place), then w = 1/σ (the same rounded w
-  // everywhere below), then the correction
+  // one work array: [WA | Wy] (factored in place) and a scratch column, then w = 1/σ (the
+  // same rounded w everywhere below)
   const work = workspace(m * (n + 3));
-  const a = work.subarray(0, m * (n + 1));
-  const w = work.subarray(m * (n + 1), m * (n + 2));
+  const a = work.subarray(0, m * (n + 2));
+  const w = work.subarray(m * (n + 2), m * (n + 3));
   weights(w, sigma, () => checkInputs(design, m, n, y, sigma));
   const gram = new Float64Array(n + 1);
   weightedSystem(design, m, n, w, y, a, gram);
@@ -93,7 +93,7 @@ export function solveLinearLeastSquares(
   const base = { fullRank: true, rank: n, covariance: covarianceFromRinv(rinv, n), conditionEstimate: kappa };
   const residuals = new Float64Array(m);
   if (maxSteps > 0) {
-    const { r, steps } = refineBjorck(f, design, w, y, z, kappa, maxSteps, residuals);
+    const { r, steps } = refineBjorck(f, design, w, y, z, kappa, maxSteps);
     let chi = 0;
     for (let i = 0; i < m; i++) {
       chi += r[i] * r[i];
@@ -104,13 +104,13 @@ export function solveLinearLeastSquares(
   if (options.refine !== 0) {
     // one fixed-precision correction: cheap, and recovers the digits lost to rounding in
     // the factorisation of a well-conditioned problem
-    const d = work.subarray(m * (n + 2), m * (n + 3));
-    weightedResidual(design, m, n, w, y, z, residuals, d);
-    applyQt(f, d, true);
+    // z += R⁻¹(Qᵀr)[0..n) with r = W(y − Az), worked out in the scratch column n + 1
+    applyQtToColumn(f, n + 1, correctionResidual(design, m, n, w, y, z, a, n + 1));
+    const d = a.slice((n + 1) * m, (n + 1) * m + n);
     solveR(f, d);
     for (let j = 0; j < n; j++) z[j] += d[j];
   }
-  const chi = weightedResidual(design, m, n, w, y, z, residuals, null);
+  const chi = weightedResidual(design, m, n, w, y, z, residuals);
   return { ...base, coefficients: z, residuals, chiSquare: chi, refinementSteps: 0 };
 }
 
@@ -128,13 +128,12 @@ function weights(w: Float64Array, sigma: ArrayLike<number> | undefined, bad: () 
 }
 
 /**
- * Björck: from z and its residual r = W(y − Az) (in working precision; `u` is scratch)
- * refine (r, z) together against the unfactored weighted design; z is updated in place.
+ * Björck: from z and its residual r = W(y − Az) (in working precision) refine (r, z) together against the unfactored weighted design; z is updated in place.
  */
-function refineBjorck(f: QRFactor, design: Float64Array, w: Float64Array, y: ArrayLike<number>, z: Float64Array, kappa: number, maxSteps: number, u: Float64Array): { r: Float64Array; steps: number } {
+function refineBjorck(f: QRFactor, design: Float64Array, w: Float64Array, y: ArrayLike<number>, z: Float64Array, kappa: number, maxSteps: number): { r: Float64Array; steps: number } {
   const { m, n } = f;
-  const r = new Float64Array(m);
-  weightedResidual(design, m, n, w, y, z, u, r);
+  correctionResidual(design, m, n, w, y, z, f.qr, n + 1);
+  const r = f.qr.slice((n + 1) * m, (n + 2) * m);
   const as = new Float64Array(m * (n + 1));
   weightedSystem(design, m, n, w, y, as, new Float64Array(n + 1));
   const b = as.subarray(n * m);
