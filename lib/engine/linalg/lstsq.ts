@@ -11,7 +11,8 @@
  * so S is applied implicitly: R of the scaled design is R·S bit for bit, S is read off R
  * (‖R e_j‖ = ‖(WA)_j‖), and x and (AᵀWA)⁻¹ = R⁻¹R⁻ᵀ need no rescaling. The covariance comes
  * from R⁻¹. Residuals and χ² are those of the returned coefficients, recomputed from the
- * data in one sweep (after Björck refinement: its refined residual).
+ * data in one sweep (after Björck refinement: its refined residual). The work arrays are
+ * reused from call to call (workspace.ts); nothing returned points into them.
  * Reference: Björck, BIT 7 (1967) 257 ("Iterative refinement of linear least squares
  * solutions I"); Golub & Van Loan §5.3.
  *
@@ -102,9 +103,9 @@ export function solveLinearLeastSquares(
     return { ...base, coefficients: z, residuals, chiSquare: chi, refinementSteps: steps };
   }
   if (options.refine !== 0) {
-    // one fixed-precision correction: cheap, and recovers the digits lost to rounding in
-    // the factorisation of a well-conditioned problem
-    // z += R⁻¹(Qᵀr)[0..n) with r = W(y − Az), worked out in the scratch column n + 1
+    // one fixed-precision correction z += R⁻¹(Qᵀr)[0..n), r = W(y − Az) (in the scratch
+    // column n + 1): cheap, and recovers the digits lost to rounding in the factorisation
+    // of a well-conditioned problem
     applyQtToColumn(f, n + 1, correctionResidual(design, m, n, w, y, z, a, n + 1));
     const d = a.slice((n + 1) * m, (n + 1) * m + n);
     solveR(f, d);
@@ -128,7 +129,8 @@ function weights(w: Float64Array, sigma: ArrayLike<number> | undefined, bad: () 
 }
 
 /**
- * Björck: from z and its residual r = W(y − Az) (in working precision) refine (r, z) together against the unfactored weighted design; z is updated in place.
+ * Björck: from z and its residual r = W(y − Az) (in working precision) refine (r, z)
+ * together against the unfactored weighted design; z is updated in place.
  */
 function refineBjorck(f: QRFactor, design: Float64Array, w: Float64Array, y: ArrayLike<number>, z: Float64Array, kappa: number, maxSteps: number): { r: Float64Array; steps: number } {
   const { m, n } = f;

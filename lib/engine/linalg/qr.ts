@@ -9,7 +9,11 @@
 import { gramSums, sweepBlock } from "./reflect";
 
 export interface QRFactor {
-  /** m×n column-major: v_k in rows k..m−1 of column k, R strictly above the diagonal. */
+  /**
+   * The factored array, column-major with m rows: v_k in rows k..m−1 of column k, R strictly
+   * above the diagonal; columns n.. hold the extra columns (now Qᵀ times them) and whatever
+   * further columns the caller keeps there.
+   */
   readonly qr: Float64Array;
   readonly m: number;
   readonly n: number;
