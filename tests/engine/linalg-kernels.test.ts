@@ -8,6 +8,7 @@
  */
 import { describe, it, expect } from "vitest";
 import { qrFactor, applyQt, solveLinearLeastSquares } from "../../lib/engine/linalg";
+import { applyQtToColumn } from "../../lib/engine/linalg/applyQ";
 import { InputError } from "../../lib/engine/errors";
 import { expectClose } from "../helpers/expectClose";
 import { seededRandom } from "./uncertainty.random";
@@ -115,6 +116,21 @@ describe("applyQt", () => {
     const tol = 1e-13 * Math.hypot(...b);
     expected.forEach((e, i) => expectClose(full[i], e, { abs: tol }, `(Qᵀb)[${i}]`));
     for (let i = 0; i < n; i++) expect(head[i]).toBe(full[i]);
+  });
+  it("applyQtToColumn on b stored after the factored columns gives the same first n entries as applyQt", () => {
+    const m = 45;
+    const n = 5;
+    const store = new Float64Array(m * (n + 1));
+    store.set(randomMatrix(m, n, 21));
+    const b = randomMatrix(m, 1, 22);
+    store.set(b, n * m);
+    const f = qrFactor(store, m, n);
+    let t0 = 0;
+    for (let i = 0; i < m; i++) t0 += f.qr[i] * b[i];
+    applyQtToColumn(f, n, t0);
+    const ref = new Float64Array(b);
+    applyQt(f, ref, true);
+    for (let i = 0; i < n; i++) expect(f.qr[n * m + i]).toBe(ref[i]);
   });
 });
 

@@ -19,7 +19,8 @@
  * Failure modes: throws InputError on shape mismatch, non-finite input or σ ≤ 0; returns
  * `rank < n` (and no solution) when a column is zero or numerically dependent.
  */
-import { applyQtToColumn, covarianceFromRinv, invertR, qrFactor, solveR, type QRFactor } from "./qr";
+import { applyQtToColumn } from "./applyQ";
+import { covarianceFromRinv, invertR, qrFactor, solveR, type QRFactor } from "./qr";
 import { checkInputs, columnScale, conditionEstimate, factorIsFinite, rankOf } from "./checks";
 import { refineStep } from "./refine";
 import { correctionResidual, weightedResidual, weightedSystem } from "./weighted";

@@ -3,7 +3,8 @@
  * double-double residuals (lstsq.ts).
  * Reference: Björck, BIT 7 (1967) 257.
  */
-import { applyQ, applyQt, solveR, solveRt, type QRFactor } from "./qr";
+import { applyQ, applyQt } from "./applyQ";
+import { solveR, solveRt, type QRFactor } from "./qr";
 import { ddDot, ddSubtractScaledColumn } from "./dd";
 
 /** One Björck refinement step; returns ‖Δz‖∞/‖z‖∞. */
