@@ -2,12 +2,11 @@
  * Shared steps of the app's route handlers: the signed-in user, the group membership from the
  * route's slug, multipart file reading with a size cap, and the same-origin check on writes.
  */
-import { getDb, type Db } from "./db/client";
+import { getDb, sqlRows, type Db } from "./db/client";
 import { requireUser, sessionUserId } from "./session";
 import { groupWhere, type Member } from "./access";
 import type { Role } from "./permissions";
 import { uuidOrNone } from "./samples";
-import { Prisma } from "./generated/prisma/client";
 import { ForbiddenError, InputError, NotFoundError, UnauthenticatedError } from "../engine/errors";
 import { MAX_UPLOAD_BYTES } from "./measurements";
 import type { UserInfo } from "./users";
@@ -49,10 +48,11 @@ export async function inGroup(req: Request, slug: string): Promise<GroupContext>
   const db = getDb();
   // Raw SQL: every request runs this, and through Prisma the two relations cost two more queries.
   const where = groupWhere(slug);
-  const rows = await db.$queryRaw<{ role: Role; id: string; slug: string; name: string; allowSelfApproval: boolean; email: string; userName: string }[]>`
-    SELECT m."role"::text AS "role", g."id"::text AS "id", g."slug", g."name", g."allowSelfApproval", u."email", u."name" AS "userName"
-    FROM "Membership" m JOIN "Group" g ON g."id" = m."groupId" JOIN "User" u ON u."id" = m."userId"
-    WHERE m."userId" = ${uuidOrNone(userId)}::uuid AND ${"id" in where ? Prisma.sql`g."id" = ${where.id}::uuid` : Prisma.sql`g."slug" = ${where.slug}`}`;
+  const rows = await sqlRows<{ role: Role; id: string; slug: string; name: string; allowSelfApproval: boolean; email: string; userName: string }>(db,
+    `SELECT m."role"::text AS "role", g."id"::text AS "id", g."slug", g."name", g."allowSelfApproval", u."email", u."name" AS "userName"
+     FROM "Membership" m JOIN "Group" g ON g."id" = m."groupId" JOIN "User" u ON u."id" = m."userId"
+     WHERE m."userId" = $1::uuid AND ${"id" in where ? `g."id" = $2::uuid` : `g."slug" = $2`}`,
+    [uuidOrNone(userId), "id" in where ? where.id : where.slug]);
   const m = rows[0];
   if (!m) {
     if (!(await db.user.findUnique({ where: { id: uuidOrNone(userId) }, select: { id: true } }))) throw new UnauthenticatedError();

@@ -2,7 +2,7 @@
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import { freshDatabase, type TestDatabase } from "../helpers/db";
 import { makeGroup, type GroupFixture } from "./fixtures";
-import { createSample, getSample, listSamples, setSampleArchived, updateSample } from "../../lib/server/samples";
+import { createSample, getSample, listSamples, setSampleArchived, toSampleInfo, updateSample } from "../../lib/server/samples";
 import { expectClose } from "../helpers/expectClose";
 
 let t: TestDatabase;
@@ -50,6 +50,19 @@ describe("samples", () => {
     await setSampleArchived(t.db, g.members.analyst, s.id, true);
     expect((await listSamples(t.db, g.members.viewer, { q: "Searchable" })).length).toBe(0);
     expect((await listSamples(t.db, g.members.viewer, { q: "Searchable", archived: true })).length).toBe(1);
+  });
+
+  it("listSamples without a search gives exactly what the Prisma rows map to, in the same order, paged, and refuses a bad page", async () => {
+    for (const [label, series, x] of [["S-b", "NbMo", 0.3], ["S-a", "NbMo", 0.1], ["S-c", null, null], ["S-d", "NbMo", null]] as const)
+      await createSample(t.db, g.members.analyst, { label, formula: "Nb", massMg: 12.5, densityGPerCm3: 8.57, tags: ["t1", "t2"], ...(series ? { seriesLabel: series } : {}), ...(x !== null ? { compositionVariable: "x", compositionValue: x } : {}) });
+    const rows = await t.db.sample.findMany({ where: { groupId: g.groupId, archivedAt: null }, orderBy: [{ seriesLabel: "asc" }, { compositionValue: "asc" }, { label: "asc" }] });
+    const listed = await listSamples(t.db, g.members.viewer);
+    expect(listed).toEqual(rows.map(toSampleInfo));
+    expect(await listSamples(t.db, g.members.viewer, { take: 2, skip: 1 })).toEqual(rows.slice(1, 3).map(toSampleInfo));
+    const archived = await t.db.sample.findMany({ where: { groupId: g.groupId, archivedAt: { not: null } }, orderBy: [{ seriesLabel: "asc" }, { compositionValue: "asc" }, { label: "asc" }] });
+    expect(await listSamples(t.db, g.members.viewer, { archived: true })).toEqual(archived.map(toSampleInfo));
+    await expect(listSamples(t.db, g.members.viewer, { take: Number("many") })).rejects.toMatchObject({ name: "InputError", field: "take" });
+    await expect(listSamples(t.db, g.members.viewer, { skip: -1 })).rejects.toMatchObject({ name: "InputError", field: "skip" });
   });
 
   it("getSample of another group's sample is not found", async () => {

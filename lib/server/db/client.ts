@@ -1,20 +1,27 @@
 /**
  * The Prisma client, over `pg` through @prisma/adapter-pg (no native engine needed).
- * One client per connection string per process.
+ * One client per connection string per process. The client's pg pool is ours, so the few
+ * queries on every request's path (membership, notebook read, sample list) can run on it as
+ * bare `pg` queries: the same connections, without Prisma's per-query work (which was a
+ * quarter of a notebook read's CPU time under load; see "Scaling out" in README.md).
  */
+import pg from "pg";
 import { PrismaPg } from "@prisma/adapter-pg";
 import { PrismaClient } from "../generated/prisma/client";
 
 export type Db = PrismaClient;
 
 const clients = new Map<string, PrismaClient>();
+const pools = new WeakMap<PrismaClient, pg.Pool>();
 
 /** A client for `url`, created once. Pool size from HEATBOOK_DB_POOL (default 10). */
 export function createDb(url: string, poolSize = 10): PrismaClient {
   let client = clients.get(url);
   if (!client) {
-    client = new PrismaClient({ adapter: new PrismaPg({ connectionString: url, max: poolSize }) });
+    const pool = new pg.Pool({ connectionString: url, max: poolSize });
+    client = new PrismaClient({ adapter: new PrismaPg(pool, { disposeExternalPool: true }) });
     clients.set(url, client);
+    pools.set(client, pool);
   }
   return client;
 }
@@ -24,4 +31,15 @@ export function getDb(): PrismaClient {
   const url = process.env.DATABASE_URL;
   if (!url) throw new Error("DATABASE_URL is not set: start the app with `npm start`, which starts its own PostgreSQL");
   return createDb(url, Number(process.env.HEATBOOK_DB_POOL ?? 10));
+}
+
+/**
+ * Rows of one parameterised SQL statement ($1, $2, … bound to `values`) on the client's own pool,
+ * or through Prisma when the client has none (made elsewhere, or disconnected). Only for
+ * statements whose columns are text, numbers, booleans or JSON text: pg's default parsers apply.
+ */
+export async function sqlRows<T>(db: Db, text: string, values: readonly unknown[]): Promise<T[]> {
+  const pool = pools.get(db);
+  if (pool && !pool.ending && !pool.ended) return (await pool.query(text, values as unknown[])).rows as T[];
+  return db.$queryRawUnsafe<T[]>(text, ...values);
 }

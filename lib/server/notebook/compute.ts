@@ -11,7 +11,7 @@
  * keeps each output's JSON text beside the parsed value, so a notebook response can carry the
  * text as it is (outputJson) instead of serialising the same output on every read.
  */
-import type { Db } from "../db/client";
+import { sqlRows, type Db } from "../db/client";
 import { ENGINE_VERSION } from "../../engine/version";
 import { computeChainFrom, EMPTY_STATE, type ChainState, type StepOutput, type StepSpec, type ChainContext, type ChainMeasurement, type ChainSample } from "../../engine/notebook";
 import { inputHashes, loadMeasurements, loadSample, referencedMeasurements } from "./context";
@@ -120,7 +120,7 @@ async function storedOutputs(db: Db, rows: readonly StepRow[], wanted: readonly 
     else missing.push(r.id);
   });
   if (missing.length === 0) return out;
-  const got = await db.$queryRaw<{ id: string; inputHash: string | null; output: string | null }[]>`SELECT "id"::text AS "id", "inputHash", "output"::text AS "output" FROM "Step" WHERE "id" = ANY(${missing}::uuid[])`;
+  const got = await sqlRows<{ id: string; inputHash: string | null; output: string | null }>(db, `SELECT "id"::text AS "id", "inputHash", "output"::text AS "output" FROM "Step" WHERE "id" = ANY($1::uuid[])`, [missing]);
   for (const g of got) {
     const i = rows.findIndex((r) => r.id === g.id);
     const output = g.output === null || g.output === "null" ? null : fromText(g.output);

@@ -6,7 +6,7 @@
  * of those the steps name; the caller picks those), without their points. Through Prisma the same took five queries (each include is one more), and that
  * dominated a cached notebook read under load (see "Scaling out" in README.md).
  */
-import type { Db } from "../db/client";
+import { sqlRows, type Db } from "../db/client";
 import type { ChainMeasurement, ChainSample } from "../../engine/notebook";
 import type { RevisionStateName } from "./analyses";
 import { uuidOrNone } from "../samples";
@@ -73,7 +73,7 @@ type Raw = {
 /** The notebook's rows, or null when the analysis is not in the group. */
 export async function readNotebookRows(db: Db, groupId: string, analysisId: string, revisionId?: string): Promise<NotebookRows | null> {
   // Ids that are not UUIDs name nothing (as the nil UUID, which is never a row's id).
-  const rows = await db.$queryRawUnsafe<{ row: string }[]>(SQL, uuidOrNone(analysisId), groupId, revisionId === undefined ? null : uuidOrNone(revisionId));
+  const rows = await sqlRows<{ row: string }>(db, SQL, [uuidOrNone(analysisId), groupId, revisionId === undefined ? null : uuidOrNone(revisionId)]);
   if (rows.length === 0) return null;
   const r = JSON.parse(rows[0]!.row) as Raw;
   return {
