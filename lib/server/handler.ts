@@ -38,22 +38,33 @@ export async function signedIn(req: Request): Promise<{ db: Db; user: UserInfo }
 }
 
 /**
- * The signed-in user and their membership of the route's group, in one query (the user row
- * comes along with the membership). No membership: 401 if the user no longer exists, else 404.
+ * SQL for one more value read in the same statement as the membership (see inGroupWith): a
+ * scalar subquery giving text, which reads the group's id as `group` (NULL when the caller is not
+ * a member, so it finds nothing) and its own parameters as param(0), param(1), ….
  */
-export async function inGroup(req: Request, slug: string): Promise<GroupContext> {
+export type GroupScopedSql = (group: string, param: (k: number) => string) => string;
+
+type MemberRow = { role: Role; id: string; slug: string; name: string; allowSelfApproval: boolean; email: string; userName: string };
+
+/**
+ * The signed-in user and their membership of the route's group, with the user row, in one
+ * statement — and, if `extra` is given, the value it reads, in that same statement (one round
+ * trip: on this path a query's cost is mostly the round trip). No membership: 401 if the user
+ * no longer exists, else 404. Bare pg on the client's pool: every request runs this.
+ */
+export async function inGroupWith(req: Request, slug: string, extra?: { sql: GroupScopedSql; values: readonly unknown[] }): Promise<GroupContext & { extra: string | null }> {
   if (req.method !== "GET" && req.method !== "HEAD") assertSameOrigin(req);
   const userId = await sessionUserId();
   if (!userId) throw new UnauthenticatedError();
   const db = getDb();
-  // Raw SQL: every request runs this, and through Prisma the two relations cost two more queries.
   const where = groupWhere(slug);
-  const rows = await sqlRows<{ role: Role; id: string; slug: string; name: string; allowSelfApproval: boolean; email: string; userName: string }>(db,
-    `SELECT m."role"::text AS "role", g."id"::text AS "id", g."slug", g."name", g."allowSelfApproval", u."email", u."name" AS "userName"
-     FROM "Membership" m JOIN "Group" g ON g."id" = m."groupId" JOIN "User" u ON u."id" = m."userId"
-     WHERE m."userId" = $1::uuid AND ${"id" in where ? `g."id" = $2::uuid` : `g."slug" = $2`}`,
-    [uuidOrNone(userId), "id" in where ? where.id : where.slug]);
-  const m = rows[0];
+  const text = `WITH mem AS (
+      SELECT m."role"::text AS "role", g."id"::text AS "id", g."slug", g."name", g."allowSelfApproval", u."email", u."name" AS "userName"
+      FROM "Membership" m JOIN "Group" g ON g."id" = m."groupId" JOIN "User" u ON u."id" = m."userId"
+      WHERE m."userId" = $1::uuid AND ${"id" in where ? `g."id" = $2::uuid` : `g."slug" = $2`})
+    SELECT (SELECT row_to_json(mem)::text FROM mem) AS "member"${extra ? `, (${extra.sql(`(SELECT "id"::uuid FROM mem)`, (k) => `$${k + 3}`)}) AS "extra"` : ""}`;
+  const [row] = await sqlRows<{ member: string | null; extra?: string | null }>(db, text, [uuidOrNone(userId), "id" in where ? where.id : where.slug, ...(extra?.values ?? [])]);
+  const m = row?.member ? (JSON.parse(row.member) as MemberRow) : null;
   if (!m) {
     if (!(await db.user.findUnique({ where: { id: uuidOrNone(userId) }, select: { id: true } }))) throw new UnauthenticatedError();
     throw new NotFoundError("group");
@@ -62,7 +73,14 @@ export async function inGroup(req: Request, slug: string): Promise<GroupContext>
     db,
     user: { id: userId, email: m.email, name: m.userName },
     member: { userId, group: { id: m.id, slug: m.slug, name: m.name, allowSelfApproval: m.allowSelfApproval }, role: m.role },
+    extra: row?.extra ?? null,
   };
+}
+
+/** The signed-in user and their membership of the route's group (inGroupWith without more). */
+export async function inGroup(req: Request, slug: string): Promise<GroupContext> {
+  const { extra: _extra, ...ctx } = await inGroupWith(req, slug);
+  return ctx;
 }
 
 export interface UploadedForm {

@@ -112,27 +112,38 @@ export function uuidOrNone(id: string): string {
 const ISO = (col: string) => `to_char(${col}, 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
 
 /**
- * The plain list (no search) in one bare SQL statement as JSON text: it is on every sample
+ * The plain list (no search) in one bare SQL statement as JSON text (group id as the SQL
+ * expression `group`; archived, take, skip as parameters p(0), p(1), p(2)): it is on every sample
  * page's path, and the same rows through Prisma cost several times the CPU (README, "Scaling
  * out"). Same order as the Prisma query below (ascending, nulls last, as PostgreSQL sorts).
  */
-const LIST_SQL = `
+export function sampleListSql(group: string, p: (k: number) => string): string {
+  return `
 SELECT coalesce(json_agg(json_build_object('id', s."id", 'groupId', s."groupId", 'label', s."label", 'formula', s."formula",
   'molarMassGPerMol', s."molarMassGPerMol", 'atomsPerFormulaUnit', s."atomsPerFormulaUnit", 'massMg', s."massMg",
   'densityGPerCm3', s."densityGPerCm3", 'valences', coalesce(s."valences", '{}'::jsonb), 'compositionVariable', s."compositionVariable",
   'compositionValue', s."compositionValue", 'seriesLabel', s."seriesLabel", 'notes', s."notes", 'tags', to_json(s."tags"),
   'archived', s."archivedAt" IS NOT NULL, 'version', s."version", 'createdAt', ${ISO('s."createdAt"')}, 'updatedAt', ${ISO('s."updatedAt"')})
   ORDER BY s."seriesLabel", s."compositionValue", s."label"), '[]'::json)::text AS "list"
-FROM (SELECT * FROM "Sample" WHERE "groupId" = $1::uuid AND ("archivedAt" IS NOT NULL) = $2
-      ORDER BY "seriesLabel", "compositionValue", "label" LIMIT $3 OFFSET $4) s`;
+FROM (SELECT * FROM "Sample" WHERE "groupId" = ${group} AND ("archivedAt" IS NOT NULL) = ${p(0)}::boolean
+      ORDER BY "seriesLabel", "compositionValue", "label" LIMIT ${p(1)}::int OFFSET ${p(2)}::int) s`;
+}
+
+const LIST_SQL = sampleListSql("$1::uuid", (k) => `$${k + 2}`);
+
+/** The list's parameters (archived, take, skip) for sampleListSql; InputError names a bad page field. */
+export function sampleListParams(opts: { archived?: boolean; take?: number; skip?: number }): [boolean, number, number] {
+  for (const [field, v] of [["take", opts.take], ["skip", opts.skip]] as const)
+    if (v !== undefined && !(Number.isInteger(v) && v >= 0)) throw new InputError(`invalid ${field}: ${v} (a whole number ≥ 0)`, { field });
+  return [opts.archived === true, Math.min(opts.take ?? 200, 500), opts.skip ?? 0];
+}
 
 export async function listSamples(db: Db, member: Member, opts: { q?: string; archived?: boolean; take?: number; skip?: number } = {}): Promise<SampleInfo[]> {
   authorise(member, "group.read");
   const q = opts.q?.trim();
-  for (const [field, v] of [["take", opts.take], ["skip", opts.skip]] as const)
-    if (v !== undefined && !(Number.isInteger(v) && v >= 0)) throw new InputError(`invalid ${field}: ${v} (a whole number ≥ 0)`, { field });
+  const params = sampleListParams(opts);
   if (!q) {
-    const [row] = await sqlRows<{ list: string }>(db, LIST_SQL, [member.group.id, opts.archived === true, Math.min(opts.take ?? 200, 500), opts.skip ?? 0]);
+    const [row] = await sqlRows<{ list: string }>(db, LIST_SQL, [member.group.id, ...params]);
     return JSON.parse(row!.list) as SampleInfo[];
   }
   const rows = await db.sample.findMany({

@@ -5,6 +5,7 @@
  * bare `pg` queries: the same connections, without Prisma's per-query work (which was a
  * quarter of a notebook read's CPU time under load; see "Scaling out" in README.md).
  */
+import { createHash } from "node:crypto";
 import pg from "pg";
 import { PrismaPg } from "@prisma/adapter-pg";
 import { PrismaClient } from "../generated/prisma/client";
@@ -12,6 +13,14 @@ import { PrismaClient } from "../generated/prisma/client";
 export type Db = PrismaClient;
 
 const clients = new Map<string, PrismaClient>();
+const names = new Map<string, string>();
+
+/** A prepared statement's name: from a hash of its text (the same text always gets the same name). */
+function statementName(text: string): string {
+  let name = names.get(text);
+  if (!name) names.set(text, (name = `hb_${createHash("sha256").update(text).digest("hex").slice(0, 24)}`));
+  return name;
+}
 const pools = new WeakMap<PrismaClient, pg.Pool>();
 
 /** A client for `url`, created once. Pool size from HEATBOOK_DB_POOL (default 10). */
@@ -19,7 +28,9 @@ export function createDb(url: string, poolSize = 10): PrismaClient {
   let client = clients.get(url);
   if (!client) {
     const pool = new pg.Pool({ connectionString: url, max: poolSize });
-    client = new PrismaClient({ adapter: new PrismaPg(pool, { disposeExternalPool: true }) });
+    // An interactive transaction waits up to 10 s for a free connection (Prisma's default, 2 s,
+    // failed saves under the load benchmark's 128 connections with a pool of 10).
+    client = new PrismaClient({ adapter: new PrismaPg(pool, { disposeExternalPool: true }), transactionOptions: { maxWait: 10_000, timeout: 20_000 } });
     clients.set(url, client);
     pools.set(client, pool);
   }
@@ -40,6 +51,7 @@ export function getDb(): PrismaClient {
  */
 export async function sqlRows<T>(db: Db, text: string, values: readonly unknown[]): Promise<T[]> {
   const pool = pools.get(db);
-  if (pool && !pool.ending && !pool.ended) return (await pool.query(text, values as unknown[])).rows as T[];
+  // Named, so each connection parses and plans a statement once, not on every call.
+  if (pool && !pool.ending && !pool.ended) return (await pool.query({ name: statementName(text), text, values: values as unknown[] })).rows as T[];
   return db.$queryRawUnsafe<T[]>(text, ...values);
 }

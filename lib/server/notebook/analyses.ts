@@ -14,7 +14,7 @@ import { uuidOrNone } from "../samples";
 import { computeRevisionSteps, outputJson, type StepView } from "./compute";
 import { notify } from "./events";
 import { starterSteps } from "./starter";
-import { readNotebookRows, type RevisionRow } from "./read";
+import { readNotebookRows, type NotebookRows, type RevisionRow } from "./read";
 
 export const createAnalysisSchema = z.object({
   sampleId: z.string().uuid("choose a sample"),
@@ -173,10 +173,13 @@ export async function duplicateAnalysis(db: Db, member: Member, id: string, inpu
   return (await summaries(db, { id: newId }))[0]!;
 }
 
-/** The notebook: one revision (default: the newest) with its steps computed. */
-export async function openNotebook(db: Db, member: Member, analysisId: string, revisionId?: string): Promise<NotebookView> {
+/**
+ * The notebook: one revision (default: the newest) with its steps computed. `preread`: the rows
+ * as already read for this member's group (null: not found), e.g. in the membership's statement.
+ */
+export async function openNotebook(db: Db, member: Member, analysisId: string, revisionId?: string, preread?: NotebookRows | null): Promise<NotebookView> {
   authorise(member, "group.read");
-  const rows = await readNotebookRows(db, member.group.id, analysisId, revisionId);
+  const rows = preread === undefined ? await readNotebookRows(db, member.group.id, analysisId, revisionId) : preread;
   if (!rows) throw new NotFoundError("analysis");
   const a = rows.analysis;
   const revisions = rows.revisions;

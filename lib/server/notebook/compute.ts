@@ -133,9 +133,10 @@ async function storedOutputs(db: Db, rows: readonly StepRow[], wanted: readonly 
 
 /**
  * Write recomputed outputs in one statement (one JSON text parameter per row; Prisma's own Json
- * write walks the object and took ~3× as long for a 400 kB fit output). The columns are those
- * Prisma would write, @updatedAt included; a row whose version changed meanwhile (someone saved
- * it) is left alone. Not waiting for the commit to reach disk is safe here: an output is a cache
+ * write walks the object and took ~3× as long for a 400 kB fit output). "updatedAt" stays: it is
+ * when the step was last edited (computedAt says when it was computed), so a view shows the same
+ * row before and after its outputs are written. A row whose version changed meanwhile (someone
+ * saved it) is left alone. Not waiting for the commit to reach disk is safe here: an output is a cache
  * of a deterministic computation, written with its input hash in the same row, so a crash can
  * only lose the new pair and leave the old one, which the next open finds stale and recomputes.
  */
@@ -145,7 +146,7 @@ async function writeOutputs(db: Db, rows: { id: string; version: number; output:
   await db.$transaction([
     db.$executeRaw`SET LOCAL synchronous_commit = off`,
     db.$executeRaw`UPDATE "Step" AS s SET "output" = u.o::json, "inputHash" = u.h, "engineVersion" = ${ENGINE_VERSION},
-      "computedAt" = (${at}::timestamptz AT TIME ZONE 'UTC'), "updatedAt" = (${at}::timestamptz AT TIME ZONE 'UTC')
+      "computedAt" = (${at}::timestamptz AT TIME ZONE 'UTC')
       FROM unnest(${rows.map((r) => r.id)}::uuid[], ${rows.map((r) => outputJson(r.output))}::text[], ${rows.map((r) => r.inputHash)}::text[], ${rows.map((r) => r.version)}::int[]) AS u(id, o, h, v)
       WHERE s."id" = u.id AND s."version" = u.v`,
   ]);

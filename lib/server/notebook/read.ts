@@ -35,10 +35,15 @@ export interface NotebookRows {
 
 const ts = (col: string) => `to_char(${col}, 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
 
-const SQL = `
-WITH a AS (SELECT * FROM "Analysis" WHERE "id" = $1::uuid AND "groupId" = $2::uuid),
+/**
+ * The statement, with the group id, analysis id and revision id (NULL: the newest) as the SQL
+ * expressions given; it gives one text column "row", or no row when the analysis is not found.
+ */
+export function notebookSql(group: string, analysis: string, revision: string): string {
+  return `
+WITH a AS (SELECT * FROM "Analysis" WHERE "id" = ${analysis} AND "groupId" = ${group}),
 rev AS (SELECT r."id" FROM "AnalysisRevision" r JOIN a ON r."analysisId" = a."id"
-        WHERE $3::uuid IS NULL OR r."id" = $3::uuid ORDER BY r."number" DESC LIMIT 1)
+        WHERE ${revision} IS NULL OR r."id" = ${revision} ORDER BY r."number" DESC LIMIT 1)
 SELECT json_build_object(
   'analysis', json_build_object('id', a."id", 'title', a."title", 'sampleId', a."sampleId", 'archivedAt', ${ts('a."archivedAt"')}, 'updatedAt', ${ts('a."updatedAt"')}),
   'sample', json_build_object('id', s."id", 'label', s."label", 'formula', s."formula", 'molarMassGPerMol', s."molarMassGPerMol",
@@ -55,9 +60,12 @@ SELECT json_build_object(
   'measurements', (SELECT coalesce(json_agg(json_build_object('id', m."id", 'label', m."label", 'kind', m."kind", 'basis', m."basis",
       'fieldT', m."fieldT", 'pointCount', m."pointCount", 'sha256', f."sha256")), '[]'::json)
     FROM "Measurement" m JOIN "StoredFile" f ON f."id" = m."fileId"
-    WHERE m."groupId" = $2::uuid AND strpos((SELECT string_agg(c."config"::text, ' ') FROM "Step" c WHERE c."revisionId" = (SELECT "id" FROM rev)), m."id"::text) > 0)
+    WHERE m."groupId" = ${group} AND strpos((SELECT string_agg(c."config"::text, ' ') FROM "Step" c WHERE c."revisionId" = (SELECT "id" FROM rev)), m."id"::text) > 0)
 )::text AS "row"
 FROM a JOIN "Sample" s ON s."id" = a."sampleId"`;
+}
+
+const SQL = notebookSql("$3::uuid", "$1::uuid", "$2::uuid");
 
 const date = (v: string | null): Date | null => (v === null ? null : new Date(v));
 
@@ -73,9 +81,18 @@ type Raw = {
 /** The notebook's rows, or null when the analysis is not in the group. */
 export async function readNotebookRows(db: Db, groupId: string, analysisId: string, revisionId?: string): Promise<NotebookRows | null> {
   // Ids that are not UUIDs name nothing (as the nil UUID, which is never a row's id).
-  const rows = await sqlRows<{ row: string }>(db, SQL, [uuidOrNone(analysisId), groupId, revisionId === undefined ? null : uuidOrNone(revisionId)]);
-  if (rows.length === 0) return null;
-  const r = JSON.parse(rows[0]!.row) as Raw;
+  const rows = await sqlRows<{ row: string }>(db, SQL, [...notebookParams(analysisId, revisionId), groupId]);
+  return rows.length === 0 ? null : parseNotebookRow(rows[0]!.row);
+}
+
+/** The analysis and revision ids as parameters of notebookSql (ids that are not UUIDs name nothing). */
+export function notebookParams(analysisId: string, revisionId?: string): [string, string | null] {
+  return [uuidOrNone(analysisId), revisionId === undefined ? null : uuidOrNone(revisionId)];
+}
+
+/** The rows from the statement's "row" text. */
+export function parseNotebookRow(text: string): NotebookRows {
+  const r = JSON.parse(text) as Raw;
   return {
     analysis: { ...r.analysis, archivedAt: date(r.analysis.archivedAt), updatedAt: new Date(r.analysis.updatedAt), sample: { label: r.sample.label } },
     revisions: r.revisions.map((v) => ({ ...v, submittedAt: date(v.submittedAt), sealedAt: date(v.sealedAt), createdAt: new Date(v.createdAt) })),

@@ -1,21 +1,36 @@
 import { NextResponse } from "next/server";
 import { route, jsonBody } from "@/lib/server/http";
-import { inGroup } from "@/lib/server/handler";
-import { createSample, listSamples } from "@/lib/server/samples";
+import { inGroup, inGroupWith } from "@/lib/server/handler";
+import { authorise } from "@/lib/server/access";
+import { createSample, listSamples, sampleListParams, sampleListSql } from "@/lib/server/samples";
 
 export const dynamic = "force-dynamic";
 type Ctx = { params: Promise<{ slug: string }> };
 
 export const GET = route(async (req, { params }: Ctx) => {
-  const { db, member } = await inGroup(req, (await params).slug);
+  const { slug } = await params;
   const url = new URL(req.url);
-  const samples = await listSamples(db, member, {
-    q: url.searchParams.get("q") ?? undefined,
+  const opts = {
+    q: url.searchParams.get("q")?.trim() || undefined,
     archived: url.searchParams.get("archived") === "1",
     take: Number(url.searchParams.get("take") ?? 200),
     skip: Number(url.searchParams.get("skip") ?? 0),
-  });
-  return NextResponse.json({ samples });
+  };
+  if (opts.q) {
+    const { db, member } = await inGroup(req, slug);
+    return NextResponse.json({ samples: await listSamples(db, member, opts) });
+  }
+  // The plain list: membership and samples in one statement; the list arrives as JSON text.
+  let page: ReturnType<typeof sampleListParams>;
+  try {
+    page = sampleListParams(opts);
+  } catch (err) {
+    await inGroup(req, slug); // who may not read the group hears 401/404 before any word on the page
+    throw err;
+  }
+  const { member, extra } = await inGroupWith(req, slug, { sql: sampleListSql, values: page });
+  authorise(member, "group.read");
+  return new NextResponse(`{"samples":${extra ?? "[]"}}`, { headers: { "content-type": "application/json" } });
 });
 
 export const POST = route(async (req, { params }: Ctx) => {

@@ -1,7 +1,8 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { route, jsonBody } from "@/lib/server/http";
-import { inGroup } from "@/lib/server/handler";
+import { inGroup, inGroupWith } from "@/lib/server/handler";
+import { notebookParams, notebookSql, parseNotebookRow } from "@/lib/server/notebook/read";
 import { duplicateAnalysis, notebookJson, openNotebook, renameAnalysis, setAnalysisArchived } from "@/lib/server/notebook";
 import { parseInput } from "@/lib/server/validate";
 
@@ -11,9 +12,11 @@ type Ctx = { params: Promise<{ slug: string; id: string }> };
 /** The notebook: a revision (?revision=ID, default the newest) with every step computed. */
 export const GET = route(async (req, { params }: Ctx) => {
   const { slug, id } = await params;
-  const { db, member } = await inGroup(req, slug);
   const revision = new URL(req.url).searchParams.get("revision") ?? undefined;
-  return new NextResponse(notebookJson(await openNotebook(db, member, id, revision)), { headers: { "content-type": "application/json" } });
+  // The membership and the notebook's rows in one statement (group-scoped by that membership).
+  const { db, member, extra } = await inGroupWith(req, slug, { sql: (group, p) => notebookSql(group, `${p(0)}::uuid`, `${p(1)}::uuid`), values: notebookParams(id, revision) });
+  const view = await openNotebook(db, member, id, revision, extra === null ? null : parseNotebookRow(extra));
+  return new NextResponse(notebookJson(view), { headers: { "content-type": "application/json" } });
 });
 
 export const PATCH = route(async (req, { params }: Ctx) => {
