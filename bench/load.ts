@@ -63,14 +63,18 @@ async function main(): Promise<void> {
   // Recompute cycle: each cycle takes a free analysis, reads it, saves a new window with the
   // version it read, reads again (recomputes fit + derive), and frees the analysis.
   // Refilled before each run: a cycle cut off by the end of a run never frees its analysis.
+  // A connection keeps the analysis it holds until its cycle ends: autocannon may build a
+  // cycle's first request again (after a reconnect), and taking a second analysis then would
+  // leak the first until the free list ran dry and two connections shared one (409 conflicts
+  // of the bench's own making, seen at 128 connections).
   const free: number[] = [];
   const refill = () => free.splice(0, free.length, ...analyses.slice(1).map((_, i) => i + 1));
   let flip = 0;
   const cycle: autocannon.Request[] = [
-    { method: "GET", setupRequest: (req, ctx) => { ctx.k = free.shift() ?? 1; return { ...req, path: `/api/groups/${f.slug}/analyses/${analyses[ctx.k as number]!.id}` }; },
+    { method: "GET", setupRequest: (req, ctx) => { if (!ctx.held) { ctx.k = free.shift() ?? 1; ctx.held = true; } return { ...req, path: `/api/groups/${f.slug}/analyses/${analyses[ctx.k as number]!.id}` }; },
       onResponse: (status, body, ctx) => { if (status === 200) ctx.version = (JSON.parse(body).notebook.steps as { id: string; version: number }[]).find((s) => s.id === analyses[ctx.k as number]!.stepId)!.version; } },
     { method: "PATCH", setupRequest: (req, ctx) => ({ ...req, path: `/api/groups/${f.slug}/analyses/${analyses[ctx.k as number]!.id}/steps/${analyses[ctx.k as number]!.stepId}`, headers: { ...req.headers, "content-type": "application/json" }, body: JSON.stringify({ version: ctx.version ?? 1, config: { model: "sommerfeld", tMaxK: (flip++ % 2) ? 10 : 12, compare: [] } }) }) },
-    { method: "GET", setupRequest: (req, ctx) => ({ ...req, path: `/api/groups/${f.slug}/analyses/${analyses[ctx.k as number]!.id}` }), onResponse: (_s, _b, ctx) => { free.push(ctx.k as number); } },
+    { method: "GET", setupRequest: (req, ctx) => ({ ...req, path: `/api/groups/${f.slug}/analyses/${analyses[ctx.k as number]!.id}` }), onResponse: (_s, _b, ctx) => { free.push(ctx.k as number); ctx.held = false; } },
   ];
 
   const scenarios: [string, (n: number) => Promise<Omit<Row, "scenario" | "connections">>, ((c: import("pg").Pool) => Promise<void>) | null][] = [
