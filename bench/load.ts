@@ -33,11 +33,18 @@ if (process.env.HEATBOOK_BENCH_APP_DIR) process.env.HEATBOOK_OPS_APP_DIR = proce
 const rssMiB = (pid: number) => Number(/VmRSS:\s+(\d+)/.exec(readFileSync(`/proc/${pid}/status`, "utf8"))![1]) / 1024;
 const fmt = (v: number, d = 1) => (Number.isFinite(v) ? v.toFixed(d) : "–");
 
-interface Row { scenario: string; connections: number; rps: number; p50: number; p99: number; errors: number }
+interface Row { scenario: string; connections: number; rps: number; p50: number; p99: number; errors: number; what?: string }
 
 async function cannon(opts: autocannon.Options): Promise<Omit<Row, "scenario" | "connections">> {
+  // Let the previous run's last requests finish first: a save still in flight from it would
+  // commit after this run read the same step, and the stale save would rightly get a 409.
+  await new Promise((ok) => setTimeout(ok, 1500));
   const r = await autocannon({ ...opts, duration: SECONDS, timeout: 30 });
-  return { rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, errors: r.errors + r.timeouts + r.non2xx };
+  // What the errors were: socket errors, timeouts and each non-2xx status with its count.
+  const statuses = Object.entries((r as unknown as { statusCodeStats?: Record<string, { count: number }> }).statusCodeStats ?? {})
+    .filter(([code]) => !code.startsWith("2")).map(([code, s]) => `${s.count}× ${code}`);
+  const what = [...(r.errors ? [`${r.errors} socket errors`] : []), ...(r.timeouts ? [`${r.timeouts} timeouts`] : []), ...statuses].join(", ");
+  return { rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, errors: r.errors + r.timeouts + r.non2xx, ...(what ? { what } : {}) };
 }
 
 async function main(): Promise<void> {
@@ -108,7 +115,7 @@ async function main(): Promise<void> {
 
   console.log(`Heatbook load benchmark — ${new Date().toISOString().slice(0, 16)}Z, Node ${process.version}, ${cpus().length} × ${cpus()[0]?.model ?? "CPU"}, load average at the end ${loadavg().map((l) => l.toFixed(1)).join(" / ")}, ${SECONDS} s per run, next start (1 process, pool 10) + embedded PostgreSQL 18 on loopback; one notebook response is ${(notebookBytes / 1024).toFixed(0)} KiB (400 points, 4 steps)\n`);
   console.log("| scenario | connections | requests/s | p50 ms | p99 ms | errors |\n|---|---:|---:|---:|---:|---:|");
-  for (const r of [...rows, ...floor]) console.log(`| ${r.scenario} | ${r.connections} | ${fmt(r.rps, 0)} | ${fmt(r.p50)} | ${fmt(r.p99)} | ${r.errors} |`);
+  for (const r of [...rows, ...floor]) console.log(`| ${r.scenario} | ${r.connections} | ${fmt(r.rps, 0)} | ${fmt(r.p50)} | ${fmt(r.p99)} | ${r.errors}${r.what ? ` (${r.what})` : ""} |`);
   console.log("\nApp throughput as a share of the bare-query floor (last round):\n\n| scenario | connections | app / floor |\n|---|---:|---:|");
   for (const fl of floor) {
     const app = rows.filter((r) => r.scenario.startsWith(fl.label) && r.connections === fl.connections).at(-1)!;
