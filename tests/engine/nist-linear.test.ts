@@ -6,36 +6,9 @@
  */
 import { describe, it, expect } from "vitest";
 import { solveLinearLeastSquares } from "../../lib/engine/linalg";
-import { loadNist, lreOrAbs } from "./nistData";
+import { loadNist, lreOrAbs, nistLinearDesign as design } from "./nistData";
 
-function polyDesign(x: number[], degree: number): Float64Array {
-  const m = x.length;
-  const a = new Float64Array(m * (degree + 1));
-  for (let i = 0; i < m; i++) {
-    let p = 1;
-    for (let j = 0; j <= degree; j++) {
-      a[j * m + i] = p;
-      p *= x[i];
-    }
-  }
-  return a;
-}
 
-function design(name: string): { a: Float64Array; n: number } {
-  const d = loadNist(name);
-  const m = d.y.length;
-  if (name === "Longley") {
-    const a = new Float64Array(m * 7);
-    for (let i = 0; i < m; i++) {
-      a[i] = 1;
-      for (let j = 0; j < 6; j++) a[(j + 1) * m + i] = d.X![i][j];
-    }
-    return { a, n: 7 };
-  }
-  const degree: Record<string, number> = { Norris: 1, Pontius: 2, Filip: 10, Wampler1: 5, Wampler2: 5, Wampler3: 5, Wampler4: 5, Wampler5: 5 };
-  if (name.startsWith("NoInt")) return { a: Float64Array.from(d.x!), n: 1 };
-  return { a: polyDesign(d.x!, degree[name]), n: degree[name] + 1 };
-}
 
 const CASES: [string, number][] = [
   ["Norris", 9], ["Pontius", 9], ["NoInt1", 9], ["NoInt2", 9], ["Filip", 7],

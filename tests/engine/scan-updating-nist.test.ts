@@ -15,30 +15,9 @@
 import { describe, it, expect } from "vitest";
 import { solveWindowsByUpdating, weightedRows } from "../../lib/engine/scan";
 import { appendRow } from "../../lib/engine/scan/givens";
-import { loadNist, lreOrAbs } from "./nistData";
+import { loadNist, lreOrAbs, nistLinearDesign as design } from "./nistData";
 import { logRelativeError } from "../helpers/expectClose";
 
-/** Column-major design of a NIST linear set, as its model text gives it. */
-function design(name: string): { a: Float64Array; n: number } {
-  const d = loadNist(name);
-  const m = d.y.length;
-  if (name === "Longley") {
-    const a = new Float64Array(m * 7);
-    for (let i = 0; i < m; i++) {
-      a[i] = 1;
-      for (let j = 0; j < 6; j++) a[(j + 1) * m + i] = d.X![i][j];
-    }
-    return { a, n: 7 };
-  }
-  if (name.startsWith("NoInt")) return { a: Float64Array.from(d.x!), n: 1 };
-  const n = { Norris: 2, Pontius: 3, Filip: 11, Wampler1: 6, Wampler2: 6, Wampler3: 6 }[name]!;
-  const a = new Float64Array(m * n);
-  d.x!.forEach((x, i) => {
-    let p = 1;
-    for (let j = 0; j < n; j++, p *= x) a[j * m + i] = p;
-  });
-  return { a, n };
-}
 
 const CASES: [string, number][] = [
   ["Norris", 12], ["Pontius", 12], ["NoInt1", 12], ["NoInt2", 12], ["Longley", 11],

@@ -12,17 +12,8 @@ import { solveLinearLeastSquares } from "../../lib/engine/linalg";
 import { MODELS } from "../../lib/engine/models";
 import { InputError } from "../../lib/engine/errors";
 import { expectClose } from "../helpers/expectClose";
+import { seededNormal as gaussian } from "./uncertainty.random";
 
-function gaussian(seed: number) {
-  let a = seed >>> 0;
-  const u = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = Math.imul(a ^ (a >>> 15), a | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(u() + 1e-300)) * Math.cos(2 * Math.PI * u());
-}
 
 const M = 1000;
 const T = Array.from({ length: M }, (_, i) => 0.5 * (20 / 0.5) ** (i / (M - 1)));

@@ -2,17 +2,8 @@ import { describe, it, expect } from "vitest";
 import { scanWindows, compareModels, findPlateau } from "../../lib/engine/scan";
 import { debyeHeatCapacity } from "../../lib/engine/models";
 import { expectClose } from "../helpers/expectClose";
+import { seededNormal as rng } from "./uncertainty.random";
 
-function rng(seed: number) {
-  let a = seed >>> 0;
-  const u = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = Math.imul(a ^ (a >>> 15), a | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(u() + 1e-300)) * Math.cos(2 * Math.PI * u());
-}
 
 // Invented, seeded: γ = 2.1 mJ mol⁻¹ K⁻², full Debye lattice Θ_D = 180 K, 0.3 % noise.
 const GAMMA = 2.1e-3;
