@@ -5,6 +5,7 @@
 import type { Db } from "./db/client";
 import { ForbiddenError, NotFoundError } from "../engine/errors";
 import { can, type Action, type Role } from "./permissions";
+import { isUuid } from "./ids";
 
 export interface GroupInfo {
   id: string;
@@ -24,7 +25,7 @@ const GROUP_FIELDS = { id: true, slug: true, name: true, allowSelfApproval: true
 /** The caller's membership of the group with this slug or id, or NotFoundError. */
 /** The Prisma filter for a group named by slug or by id. */
 export function groupWhere(groupSlugOrId: string): { id: string } | { slug: string } {
-  return /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(groupSlugOrId) ? { id: groupSlugOrId } : { slug: groupSlugOrId };
+  return isUuid(groupSlugOrId) ? { id: groupSlugOrId } : { slug: groupSlugOrId };
 }
 
 export async function memberOf(db: Db, userId: string, groupSlugOrId: string): Promise<Member> {

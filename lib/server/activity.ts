@@ -5,6 +5,7 @@
  * short list shows only who did what, when, and is open to every member ("group.read").
  */
 import type { Db } from "./db/client";
+import { isUuid } from "./ids";
 import { authorise, type Member } from "./access";
 import { toSampleInfo, type SampleInfo } from "./samples";
 
@@ -55,9 +56,6 @@ export async function listRecentActivity(db: Db, member: Member, take = 12): Pro
   });
 }
 
-function isUuid(id: string): boolean {
-  return /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
-}
 
 /** The `take` (≤ 50) most recently changed samples of the member's group (archived ones left out). */
 export async function listRecentSamples(db: Db, member: Member, take = 8): Promise<SampleInfo[]> {

@@ -6,7 +6,7 @@ import { getDb, sqlRows, type Db } from "./db/client";
 import { requireUser, sessionUserId } from "./session";
 import { groupWhere, type Member } from "./access";
 import type { Role } from "./permissions";
-import { uuidOrNone } from "./samples";
+import { uuidOrNone } from "./ids";
 import { ForbiddenError, InputError, NotFoundError, UnauthenticatedError } from "../engine/errors";
 import { MAX_UPLOAD_BYTES } from "./measurements";
 import type { UserInfo } from "./users";

@@ -4,7 +4,8 @@
  * weights) and atoms per formula unit are stored with the sample.
  */
 import { z } from "zod";
-import { sqlRows, type Db } from "./db/client";
+import { isoTimestampSql, sqlRows, type Db } from "./db/client";
+import { uuidOrNone } from "./ids";
 import { ConflictError, InputError, NotFoundError } from "../engine/errors";
 import { parseFormula } from "../engine/chemistry";
 import { recordAudit } from "./audit";
@@ -104,12 +105,8 @@ export async function getSample(db: Db, member: Member, id: string): Promise<Sam
   return toSampleInfo(s);
 }
 
-/** Ids that are not UUIDs cannot exist; map them to a UUID no row has, so the query finds nothing. */
-export function uuidOrNone(id: string): string {
-  return /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id) ? id : "00000000-0000-0000-0000-000000000000";
-}
+export { uuidOrNone } from "./ids";
 
-const ISO = (col: string) => `to_char(${col}, 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
 
 /**
  * The plain list (no search) in one bare SQL statement as JSON text (group id as the SQL
@@ -123,7 +120,7 @@ SELECT coalesce(json_agg(json_build_object('id', s."id", 'groupId', s."groupId",
   'molarMassGPerMol', s."molarMassGPerMol", 'atomsPerFormulaUnit', s."atomsPerFormulaUnit", 'massMg', s."massMg",
   'densityGPerCm3', s."densityGPerCm3", 'valences', coalesce(s."valences", '{}'::jsonb), 'compositionVariable', s."compositionVariable",
   'compositionValue', s."compositionValue", 'seriesLabel', s."seriesLabel", 'notes', s."notes", 'tags', to_json(s."tags"),
-  'archived', s."archivedAt" IS NOT NULL, 'version', s."version", 'createdAt', ${ISO('s."createdAt"')}, 'updatedAt', ${ISO('s."updatedAt"')})
+  'archived', s."archivedAt" IS NOT NULL, 'version', s."version", 'createdAt', ${isoTimestampSql('s."createdAt"')}, 'updatedAt', ${isoTimestampSql('s."updatedAt"')})
   ORDER BY s."seriesLabel", s."compositionValue", s."label"), '[]'::json)::text AS "list"
 FROM (SELECT * FROM "Sample" WHERE "groupId" = ${group} AND ("archivedAt" IS NOT NULL) = ${p(0)}::boolean
       ORDER BY "seriesLabel", "compositionValue", "label" LIMIT ${p(1)}::int OFFSET ${p(2)}::int) s`;

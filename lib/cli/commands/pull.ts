@@ -9,7 +9,7 @@ import type { CliIo } from "../io";
 import { formatFlagHelp, getBoolean, getString, parseArgs, type FlagSpec } from "../args";
 import { InputError } from "../../engine/errors";
 import { formatUncertainty } from "../../engine/units";
-import { apiRequest, reportFailure } from "./push";
+import { apiRequest, reportApiFailure } from "./push";
 
 const FLAGS: Record<string, FlagSpec> = {
   csv: { kind: "boolean", help: "series: CSV (units in the header, every value with σ)" },
@@ -66,6 +66,6 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
     }
     throw new InputError(`unknown kind ${JSON.stringify(what)}: pull series or pull analysis`);
   } catch (e) {
-    return reportFailure(io, "pull", USAGE, e);
+    return reportApiFailure(io, "pull", USAGE, e);
   }
 }

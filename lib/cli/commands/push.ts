@@ -45,7 +45,7 @@ export async function apiRequest(io: CliIo, path: string, init: { method?: strin
 }
 
 /** Report an error of an API command and return its exit code. */
-export function reportFailure(io: CliIo, command: string, usage: string, e: unknown): number {
+export function reportApiFailure(io: CliIo, command: string, usage: string, e: unknown): number {
   if (e instanceof InputError) {
     io.err(`heatbook ${command}: ${e.message}\n${usage}`);
     return 2;
@@ -108,6 +108,6 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
     io.out(getBoolean(args, "json") ? JSON.stringify(m, null, 2) : `stored measurement ${m.id}: ${m.pointCount} points, ${m.tMinK}–${m.tMaxK} K, basis ${m.basis}, sha256 ${m.sha256}`);
     return 0;
   } catch (e) {
-    return reportFailure(io, "push", USAGE, e);
+    return reportApiFailure(io, "push", USAGE, e);
   }
 }

@@ -44,6 +44,11 @@ export function getDb(): PrismaClient {
   return createDb(url, Number(process.env.HEATBOOK_DB_POOL ?? 10));
 }
 
+/** SQL giving a UTC timestamp(3) column as ISO 8601 text with "Z" (as Date#toISOString writes it), NULL stays NULL. */
+export function isoTimestampSql(column: string): string {
+  return `to_char(${column}, 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
+}
+
 /**
  * Rows of one parameterised SQL statement ($1, $2, … bound to `values`) on the client's own pool,
  * or through Prisma when the client has none (made elsewhere, or disconnected). Only for

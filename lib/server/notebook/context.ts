@@ -9,6 +9,7 @@ import { ENGINE_VERSION } from "../../engine/version";
 import { parseStepConfig, stepDefinition, type ChainContext, type ChainMeasurement, type ChainSample, type StepSpec } from "../../engine/notebook";
 import { contentHash } from "../hash";
 import { unpackFloat64 } from "../packing";
+import { isUuid } from "../ids";
 
 export async function loadSample(db: Db, groupId: string, sampleId: string): Promise<ChainSample> {
   const s = await db.sample.findFirst({ where: { id: sampleId, groupId } });
@@ -35,7 +36,7 @@ export function referencedMeasurements(steps: readonly StepSpec[]): string[] {
 
 /** Measurements by id (group-scoped). With `points: false` only what the input hashes read (no point arrays). */
 export async function loadMeasurements(db: Db, groupId: string, ids: readonly string[], opts: { points?: boolean } = {}): Promise<Record<string, ChainMeasurement>> {
-  const uuids = ids.filter((id) => /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id));
+  const uuids = ids.filter(isUuid);
   if (uuids.length === 0) return {};
   const withPoints = opts.points ?? true;
   const rows = await db.measurement.findMany({

@@ -6,10 +6,10 @@
  * of those the steps name; the caller picks those), without their points. Through Prisma the same took five queries (each include is one more), and that
  * dominated a cached notebook read under load (see "Scaling out" in README.md).
  */
-import { sqlRows, type Db } from "../db/client";
+import { isoTimestampSql, sqlRows, type Db } from "../db/client";
 import type { ChainMeasurement, ChainSample } from "../../engine/notebook";
 import type { RevisionStateName } from "./analyses";
-import { uuidOrNone } from "../samples";
+import { uuidOrNone } from "../ids";
 
 export interface RevisionRow {
   id: string; number: number; state: RevisionStateName; version: number; basedOnId: string | null; contentHash: string | null;
@@ -33,7 +33,6 @@ export interface NotebookRows {
   measurements: Record<string, ChainMeasurement>;
 }
 
-const ts = (col: string) => `to_char(${col}, 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
 
 /**
  * The statement, with the group id, analysis id and revision id (NULL: the newest) as the SQL
@@ -45,17 +44,17 @@ WITH a AS (SELECT * FROM "Analysis" WHERE "id" = ${analysis} AND "groupId" = ${g
 rev AS (SELECT r."id" FROM "AnalysisRevision" r JOIN a ON r."analysisId" = a."id"
         WHERE ${revision} IS NULL OR r."id" = ${revision} ORDER BY r."number" DESC LIMIT 1)
 SELECT json_build_object(
-  'analysis', json_build_object('id', a."id", 'title', a."title", 'sampleId', a."sampleId", 'archivedAt', ${ts('a."archivedAt"')}, 'updatedAt', ${ts('a."updatedAt"')}),
+  'analysis', json_build_object('id', a."id", 'title', a."title", 'sampleId', a."sampleId", 'archivedAt', ${isoTimestampSql('a."archivedAt"')}, 'updatedAt', ${isoTimestampSql('a."updatedAt"')}),
   'sample', json_build_object('id', s."id", 'label', s."label", 'formula', s."formula", 'molarMassGPerMol', s."molarMassGPerMol",
     'atomsPerFormulaUnit', s."atomsPerFormulaUnit", 'massMg', s."massMg", 'densityGPerCm3', s."densityGPerCm3", 'valences', s."valences"),
   'revisions', (SELECT coalesce(json_agg(json_build_object('id', r."id", 'number', r."number", 'state', r."state", 'version', r."version",
-      'basedOnId', r."basedOnId", 'contentHash', r."contentHash", 'submittedAt', ${ts('r."submittedAt"')}, 'sealedAt', ${ts('r."sealedAt"')},
-      'sealedById', r."sealedById", 'createdAt', ${ts('r."createdAt"')}) ORDER BY r."number" DESC), '[]'::json)
+      'basedOnId', r."basedOnId", 'contentHash', r."contentHash", 'submittedAt', ${isoTimestampSql('r."submittedAt"')}, 'sealedAt', ${isoTimestampSql('r."sealedAt"')},
+      'sealedById', r."sealedById", 'createdAt', ${isoTimestampSql('r."createdAt"')}) ORDER BY r."number" DESC), '[]'::json)
     FROM "AnalysisRevision" r WHERE r."analysisId" = a."id"),
   'revisionId', (SELECT "id" FROM rev),
   'steps', (SELECT coalesce(json_agg(json_build_object('id', st."id", 'position', st."position", 'kind', st."kind", 'title', st."title",
       'config', st."config", 'version', st."version", 'inputHash', st."inputHash", 'engineVersion', st."engineVersion",
-      'computedAt', ${ts('st."computedAt"')}, 'updatedAt', ${ts('st."updatedAt"')}) ORDER BY st."position"), '[]'::json)
+      'computedAt', ${isoTimestampSql('st."computedAt"')}, 'updatedAt', ${isoTimestampSql('st."updatedAt"')}) ORDER BY st."position"), '[]'::json)
     FROM "Step" st WHERE st."revisionId" = (SELECT "id" FROM rev)),
   'measurements', (SELECT coalesce(json_agg(json_build_object('id', m."id", 'label', m."label", 'kind', m."kind", 'basis', m."basis",
       'fieldT', m."fieldT", 'pointCount', m."pointCount", 'sha256', f."sha256")), '[]'::json)
