@@ -35,13 +35,21 @@ describe("heatbook push (injected fetch)", () => {
       return Response.json({ measurement: { id: "m1", pointCount: 2, tMinK: 2, tMaxK: 3, sha256: "ab", basis: "sample" } }, { status: 201 });
     });
     const { cli, out } = io(ENV, { "data/run1.txt": FILE });
-    expect(await main(["push", "data/run1.txt", "--sample", "S1", "--unit", "µJ/K", "--t-col", "0", "--kind", "addenda"], cli)).toBe(0);
+    expect(await main(["push", "data/run1.txt", "--sample", "S1", "--unit", "µJ/K", "--t-col", "1", "--c-col", "C", "--sigma-col", "3", "--kind", "addenda"], cli)).toBe(0);
     const u = new URL(seen[0]!.url);
     expect(u.origin + u.pathname).toBe("http://heatbook.test/api/v1/samples/S1/measurements");
-    expect(Object.fromEntries(u.searchParams)).toEqual({ fileName: "run1.txt", kind: "addenda", label: "run1.txt", unit: "µJ/K", tCol: "0" });
+    expect(Object.fromEntries(u.searchParams)).toEqual({ fileName: "run1.txt", kind: "addenda", label: "run1.txt", unit: "µJ/K", tCol: "0", cCol: "C", sigmaCol: "2" });
     expect((seen[0]!.init.headers as Record<string, string>).authorization).toBe(`Bearer ${ENV.HEATBOOK_TOKEN}`);
     expect(new TextDecoder().decode(seen[0]!.init.body as Uint8Array)).toBe(FILE);
     expect(out[0]).toMatch(/stored measurement m1: 2 points/);
+  });
+  it("heatbook push counts columns from 1 like fit: --t-col 0 is refused before anything is sent", async () => {
+    let sent = 0;
+    restore = setFetch(async () => (sent++, Response.json({}, { status: 500 })));
+    const { cli, err } = io(ENV, { f: FILE });
+    expect(await main(["push", "f", "--sample", "S", "--t-col", "0"], cli)).toBe(2);
+    expect(err[0]).toMatch(/--t-col 0: columns are counted from 1/);
+    expect(sent).toBe(0);
   });
   it("heatbook push without HEATBOOK_TOKEN exits 2 naming the variable", async () => {
     const { cli, err } = io({ HEATBOOK_URL: "http://x" }, { f: FILE });

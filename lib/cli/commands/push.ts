@@ -1,7 +1,7 @@
 /**
  * `heatbook push FILE --sample ID`: upload a measurement file to the sample through the JSON API
  * (POST /api/v1/samples/{id}/measurements, raw body + query), using HEATBOOK_URL and HEATBOOK_TOKEN.
- * Columns by 0-based index or header name; omitted ones (and the unit) are taken from the header
+ * Columns by header name or 1-based number (as in `fit`; sent to the API 0-based); omitted ones (and the unit) are taken from the header
  * on the server. Also holds the small API client the pull command shares.
  * Exit 0 stored, 2 bad usage or input (including the server's 422, whose field is named), 1 other.
  */
@@ -63,9 +63,9 @@ const FLAGS: Record<string, FlagSpec> = {
   sample: { kind: "string", meta: "ID", help: "sample id (required)" },
   unit: { kind: "string", meta: "U", help: "heat-capacity unit, e.g. µJ/K or mJ/(mol K) (default: from the header)" },
   "t-unit": { kind: "string", meta: "U", help: "temperature unit (default: from the header, else K)" },
-  "t-col": { kind: "string", meta: "COL", help: "temperature column: 0-based index or header name" },
-  "c-col": { kind: "string", meta: "COL", help: "heat-capacity column: 0-based index or header name" },
-  "sigma-col": { kind: "string", meta: "COL", help: "standard-error column of C" },
+  "t-col": { kind: "string", meta: "NAME|N", help: "temperature column: header name or 1-based number (as in fit)" },
+  "c-col": { kind: "string", meta: "NAME|N", help: "heat-capacity column: header name or 1-based number" },
+  "sigma-col": { kind: "string", meta: "NAME|N", help: "standard-error column of C: header name or 1-based number" },
   kind: { kind: "string", meta: "sample|addenda", help: "what was measured (default sample)" },
   label: { kind: "string", meta: "L", help: "label (default: the file name)" },
   field: { kind: "number", meta: "TESLA", help: "applied field μ0H [T] (default 0)" },
@@ -76,6 +76,17 @@ const FLAGS: Record<string, FlagSpec> = {
 
 const USAGE = `usage: heatbook push FILE --sample ID [options]   (uses HEATBOOK_URL, HEATBOOK_TOKEN)\n\n${formatFlagHelp(FLAGS)}`;
 
+/**
+ * A column flag as the upload API wants it: the CLI counts columns from 1 (as `fit` and
+ * `regress` do), the API's tCol/cCol/sigmaCol from 0; a header name passes through.
+ */
+export function apiColumn(spec: string, flag: string): string {
+  if (!/^\s*\d+\s*$/.test(spec)) return spec;
+  const n = Number(spec);
+  if (n < 1) throw new InputError(`--${flag} ${spec}: columns are counted from 1`, { field: flag });
+  return String(n - 1);
+}
+
 function query(file: string, args: ReturnType<typeof parseArgs>): string {
   const kind = getString(args, "kind") ?? "sample";
   if (kind !== "sample" && kind !== "addenda") throw new InputError(`invalid --kind: ${JSON.stringify(kind)} (sample or addenda)`, { field: "kind" });
@@ -83,7 +94,7 @@ function query(file: string, args: ReturnType<typeof parseArgs>): string {
   const map: Record<string, string> = { unit: "unit", "t-unit": "tUnit", "t-col": "tCol", "c-col": "cCol", "sigma-col": "sigmaCol", delimiter: "delimiter" };
   for (const [flag, param] of Object.entries(map)) {
     const v = getString(args, flag);
-    if (v !== undefined) q.set(param, v);
+    if (v !== undefined) q.set(param, flag.endsWith("-col") ? apiColumn(v, flag) : v);
   }
   const field = getNumber(args, "field");
   if (field !== undefined) q.set("fieldT", String(field));
