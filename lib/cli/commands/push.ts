@@ -2,7 +2,8 @@
  * `heatbook push FILE --sample ID`: upload a measurement file to the sample through the JSON API
  * (POST /api/v1/samples/{id}/measurements, raw body + query), using HEATBOOK_URL and HEATBOOK_TOKEN.
  * Columns by header name or 1-based number (as in `fit`; sent to the API 0-based); omitted ones
- * (and the unit) are taken from the header on the server. Also holds the small API client the pull command shares.
+ * (and the unit) are taken from the header on the server. Also holds the small API client the
+ * pull command shares.
  * Exit 0 stored, 2 bad usage or input (including the server's 422, whose field is named), 1 other.
  */
 import { basename } from "node:path";
