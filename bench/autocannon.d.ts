@@ -18,7 +18,9 @@ declare module "autocannon" {
       requests?: Request[];
     }
     interface Histogram { average: number; p50: number; p99: number; max: number }
-    interface Result { requests: Histogram; latency: Histogram; errors: number; timeouts: number; non2xx: number }
+    /** `requests` also counts the completed requests of the run. */
+    interface Counted extends Histogram { total: number }
+    interface Result { requests: Counted; latency: Histogram; errors: number; timeouts: number; non2xx: number }
   }
   function autocannon(opts: autocannon.Options): Promise<autocannon.Result>;
   export default autocannon;

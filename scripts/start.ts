@@ -15,6 +15,7 @@ import { join } from "node:path";
 import { randomBytes } from "node:crypto";
 import { startEmbeddedDatabase, type EmbeddedDatabase } from "../lib/server/db/embedded";
 import { migrate } from "../lib/server/db/migrate";
+import { SERVER_NODE_FLAGS } from "../lib/server/nodeFlags";
 
 function flag(name: string): boolean {
   return process.argv.includes(`--${name}`);
@@ -79,7 +80,7 @@ async function main(): Promise<void> {
   if (!dev && flag("no-build")) {
     if (!existsSync(join(".next", "BUILD_ID"))) throw new Error("--no-build, but there is no build: run `npx next build` first");
   } else if (!dev) buildIfStale();
-  const args = ["node_modules/next/dist/bin/next", dev ? "dev" : "start", "-H", "127.0.0.1", "-p", String(port)];
+  const args = [...SERVER_NODE_FLAGS, "node_modules/next/dist/bin/next", dev ? "dev" : "start", "-H", "127.0.0.1", "-p", String(port)];
   const child: ChildProcess = spawn(process.execPath, args, { stdio: "inherit", env: process.env });
   console.log(`heatbook: serving on http://localhost:${port}`);
   // One job worker beside the app, so background jobs (series refits, large scans) run in the demo too.

@@ -11,6 +11,7 @@ import { join, resolve } from "node:path";
 import { randomBytes } from "node:crypto";
 import { startEmbeddedDatabase, freePort, type EmbeddedDatabase } from "../../lib/server/db/embedded";
 import { migrate } from "../../lib/server/db/migrate";
+import { SERVER_NODE_FLAGS } from "../../lib/server/nodeFlags";
 import { createDb, type Db } from "../../lib/server/db/client";
 import { hashPassword } from "../../lib/server/auth/password";
 import { createGroup } from "../../lib/server/groups";
@@ -69,12 +70,17 @@ export interface AppServer {
 
 const SECRET = randomBytes(24).toString("base64url");
 
-/** Start `next start` on a free port against `url`; resolves when /signin answers. */
-export async function startApp(url: string, opts: { https?: boolean; port?: number } = {}): Promise<AppServer> {
+/**
+ * Start `next start` on a free port against `url`; resolves when /signin answers.
+ * The server gets the same Node flags as under `npm start` (lib/server/nodeFlags.ts); `nodeArgs`
+ * add more before the script (e.g. `--trace-gc`, which NODE_OPTIONS refuses). The server's
+ * stdout and stderr collect in `output`.
+ */
+export async function startApp(url: string, opts: { https?: boolean; port?: number; nodeArgs?: string[] } = {}): Promise<AppServer> {
   if (!existsSync(join(APP_DIR, ".next", "BUILD_ID"))) throw new Error(`no build in ${APP_DIR}/.next: run \`npx next build\` first (or set HEATBOOK_OPS_APP_DIR)`);
   const port = opts.port ?? (await freePort());
   const base = `http://127.0.0.1:${port}`;
-  const child = spawn(process.execPath, [join(APP_DIR, "node_modules/next/dist/bin/next"), "start", "-H", "127.0.0.1", "-p", String(port)], {
+  const child = spawn(process.execPath, [...SERVER_NODE_FLAGS, ...(opts.nodeArgs ?? []), join(APP_DIR, "node_modules/next/dist/bin/next"), "start", "-H", "127.0.0.1", "-p", String(port)], {
     cwd: APP_DIR,
     env: { ...process.env, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1", DATABASE_URL: url, NEXTAUTH_SECRET: SECRET, NEXTAUTH_URL: `${opts.https ? "https" : "http"}://127.0.0.1:${port}`, HEATBOOK_BCRYPT_COST: "4", HEATBOOK_DB_POOL: "10" },
     stdio: ["ignore", "pipe", "pipe"],
