@@ -1,10 +1,11 @@
 /**
  * `npm run bench:load`: signed-in clients against `next start` + PostgreSQL on loopback,
  * with autocannon, bounded in time (--seconds per run, default 5; --rounds, default 3).
- * Scenarios: reading a notebook (cached step outputs), listing samples, and a recompute cycle
+ * Scenarios: reading a notebook (cached step outputs), listing samples, a recompute cycle
  * (read notebook → save a new fit window → read again, which recomputes the fit and the
- * derived step; one analysis per connection so saves never conflict). Each at 8, 32 and 128
- * connections; printed: requests/s, p50/p99 latency, errors (socket errors + non-2xx).
+ * derived step; one analysis per connection so saves never conflict), and for scale the
+ * health check (a route with no session and no database: Next.js's own cost). Each at 8, 32
+ * and 128 connections; printed: requests/s, p50/p99 latency, errors (socket errors + non-2xx).
  * The floor in the same run: the same rows read by a bare `pg` query loop (bench/loadFloor.ts).
  * The server's RSS is printed before and after each round, with the heap live after the
  * round's last full GC (from the server's --trace-gc lines); the rounds repeat the same work,
@@ -35,6 +36,7 @@ function option(name: string, fallback: number): number {
 const SECONDS = option("seconds", 5);
 const ROUNDS = option("rounds", 3);
 const LEVELS = [8, 32, 128];
+const HEALTH = "health check (GET /api/health: no session, no database)";
 if (process.env.HEATBOOK_BENCH_APP_DIR) process.env.HEATBOOK_OPS_APP_DIR = process.env.HEATBOOK_BENCH_APP_DIR;
 
 const rssMiB = (pid: number) => Number(/VmRSS:\s+(\d+)/.exec(readFileSync(`/proc/${pid}/status`, "utf8"))![1]) / 1024;
@@ -131,6 +133,8 @@ async function main(): Promise<void> {
     ["notebook read", (n, t) => cannon({ url: `${api}/analyses/${read.id}`, connections: n, headers }, pid, t), (c) => notebookQueries(c, ids)],
     ["sample list", (n, t) => cannon({ url: `${api}/samples`, connections: n, headers }, pid, t), (c) => sampleListQueries(c, ids)],
     ["recompute cycle (read, save window, read)", (n, t) => (refill(), cannon({ url: app.base, connections: Math.min(n, analyses.length - 1), headers, requests: cycle }, pid, t)), null],
+    // For scale: a route that does nothing (no session, no database), what Next.js alone costs.
+    [HEALTH, (n, t) => cannon({ url: `${app.base}/api/health`, connections: n }, pid, t), null],
   ];
 
   // The server's output so far, cut at the last whole line: the GC traces of one stretch.
@@ -213,6 +217,12 @@ async function main(): Promise<void> {
   // threshold, common practice in spirit: a leak shows as a steady climb).
   const live = liveRounds.filter((v): v is number => v !== null);
   const slope = live.length >= 3 && live.length === liveRounds.length ? (live.at(-1)! - live[0]!) / (live.length - 1) : NaN;
+  const health = rows.filter((r) => r.scenario.startsWith(HEALTH));
+  const sampleFloor = floor.filter((r) => r.label === "sample list");
+  if (health.length && sampleFloor.length) {
+    const last = sampleFloor.map((fl) => health.filter((h) => h.connections === fl.connections).at(-1)!);
+    console.log(`| for scale, not a target: the empty health-check route as a share of the sample-list floor | ${last.map((h, i) => `${fmt((100 * h.rps) / sampleFloor[i]!.rps, 0)} %`).join(" / ")} at ${sampleFloor.map((x) => x.connections).join(" / ")} connections (${last.map((h) => fmt(h.rps, 0)).join(" / ")} req/s) | where this is near or under 50 %, the sample-list target is beyond one Next.js process on this machine |`);
+  }
   console.log(`| no memory growth across rounds | RSS after each round: ${rssRounds.map((v) => `${fmt(v, 0)}`).join(", ")} MiB; live heap after each round's last full GC: ${liveRounds.map((v) => (v === null ? "–" : fmt(v, 0))).join(", ")} MiB, trend ${Number.isFinite(slope) ? `${slope >= 0 ? "+" : ""}${fmt(slope, 1)} MiB per round` : "–"} | ${Number.isFinite(slope) ? verdict(slope < 0.05 * live[0]!) : "needs 3 or more rounds (--rounds), each with a full GC"} |`);
 }
 

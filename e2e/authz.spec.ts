@@ -11,8 +11,8 @@ import { apiSignIn, DEMO } from "./helpers";
 /** viewer: the status a viewer gets when it is not the default (200 for reads, 403 for writes). */
 interface RouteCase { method: "GET" | "POST" | "PATCH" | "DELETE"; path: string; body?: unknown; multipart?: boolean; viewer?: number }
 
-/** Routes that are not group data: sign-in machinery, sign-up, the caller's own group list and creation, invitation acceptance by token. */
-const NOT_GROUP_DATA = new Set(["/api/auth/[...nextauth]", "/api/signup", "/api/groups", "/api/invitations/[token]/accept"]);
+/** Routes that are not group data: sign-in machinery, sign-up, the caller's own group list and creation, invitation acceptance by token, the load balancer's health check (tests/server/health.test.ts). */
+const NOT_GROUP_DATA = new Set(["/api/auth/[...nextauth]", "/api/signup", "/api/groups", "/api/invitations/[token]/accept", "/api/health"]);
 
 function routeFiles(dir: string, prefix = ""): { route: string; methods: string[] }[] {
   const out: { route: string; methods: string[] }[] = [];

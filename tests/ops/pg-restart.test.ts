@@ -40,17 +40,21 @@ describe("PostgreSQL restart under a running next start", () => {
     const { cookie } = await signIn(app.base, f.analyst.email);
     const notebook = `${app.base}/api/groups/${f.slug}/analyses/${analysisId}`;
     const samples = `${app.base}/api/groups/${f.slug}/samples`;
+    const ready = `${app.base}/api/health?db=1`;
     expect((await fetch(notebook, { headers: { cookie } })).status).toBe(200);
+    expect(await (await fetch(ready)).json()).toEqual({ status: "ok", database: "ok" });
     const stream = await openEvents(`${app.base}/api/groups/${f.slug}/events`, cookie);
     stream.close();
 
     await d.stop();
     const down: { status: number; error: string }[] = [];
     try {
-      for (const url of [notebook, samples, notebook]) {
+      for (const url of [notebook, samples, ready, notebook]) {
         const r = await fetch(url, { headers: { cookie } });
         down.push({ status: r.status, error: ((await r.json()) as { error: string }).error });
       }
+      // Liveness does not ask the database: a load balancer keeps the instance while it is down.
+      expect(await (await fetch(`${app.base}/api/health`)).json()).toEqual({ status: "ok" });
     } finally {
       await d.start();
     }
@@ -63,6 +67,7 @@ describe("PostgreSQL restart under a running next start", () => {
 
     await until("the notebook to answer 200 again", async () => (await fetch(notebook, { headers: { cookie } })).status === 200, 90);
     expect((await fetch(samples, { headers: { cookie } })).status).toBe(200);
+    expect((await fetch(ready)).status).toBe(200);
     expect(app.child.exitCode).toBeNull();
 
     // Live updates work again: a change after the restart reaches a stream opened after it.

@@ -28,6 +28,13 @@ export function createDb(url: string, poolSize = 10): PrismaClient {
   let client = clients.get(url);
   if (!client) {
     const pool = new pg.Pool({ connectionString: url, max: poolSize });
+    // An idle connection that PostgreSQL closes (a restart, a dropped test database) makes the
+    // pool emit "error"; with no listener that would end the process. The Prisma adapter
+    // listens only until it is disposed, so this one stays for the pool's whole life. The
+    // pool opens a fresh connection for the next query.
+    pool.on("error", (err) => {
+      if (!pool.ending) console.warn(`database: an idle connection was closed (${err.message}); the next query opens a new one`);
+    });
     // An interactive transaction waits up to 10 s for a free connection (Prisma's default, 2 s,
     // failed saves under the load benchmark's 128 connections with a pool of 10).
     client = new PrismaClient({ adapter: new PrismaPg(pool, { disposeExternalPool: true }), transactionOptions: { maxWait: 10_000, timeout: 20_000 } });

@@ -1,0 +1,20 @@
+import { NextResponse } from "next/server";
+import { route } from "@/lib/server/http";
+import { getDb, sqlRows } from "@/lib/server/db/client";
+
+export const dynamic = "force-dynamic";
+
+const NO_STORE = { "cache-control": "no-store" };
+
+/**
+ * Health check for a load balancer or an orchestrator; public, reveals no data.
+ * `GET /api/health`: this process serves requests (liveness), `{"status":"ok"}`; it does not
+ * touch the database, so a database outage does not take every instance out of rotation.
+ * `GET /api/health?db=1`: and PostgreSQL answers `SELECT 1` (readiness),
+ * `{"status":"ok","database":"ok"}`, else 503 with the reason.
+ */
+export const GET = route(async (req: Request) => {
+  if (new URL(req.url).searchParams.get("db") !== "1") return new NextResponse('{"status":"ok"}', { headers: { "content-type": "application/json", ...NO_STORE } });
+  await sqlRows(getDb(), "SELECT 1 AS one", []); // unreachable: route() answers 503 with the reason
+  return new NextResponse('{"status":"ok","database":"ok"}', { headers: { "content-type": "application/json", ...NO_STORE } });
+});
