@@ -161,6 +161,7 @@ async function main(): Promise<void> {
   for (const [, run] of scenarios) await run(32, Math.max(10, 2 * SECONDS));
   const one = await fetch(`${api}/analyses/${read.id}`, { headers });
   const notebookBytes = (await one.arrayBuffer()).byteLength;
+  const listBytes = (await (await fetch(`${api}/samples`, { headers })).arrayBuffer()).byteLength;
   rss.push(`| after warm-up | ${fmt(rssMiB(pid))} MiB | ${gcCells(gcSince(performance.now() - t0))}`);
   for (let round = 1; round <= ROUNDS; round++) {
     t0 = performance.now();
@@ -183,7 +184,7 @@ async function main(): Promise<void> {
   if (process.env.HEATBOOK_BENCH_SERVER_LOG) writeFileSync(process.env.HEATBOOK_BENCH_SERVER_LOG, app.output.join(""));
   await d.close();
 
-  console.log(`Heatbook load benchmark — ${new Date().toISOString().slice(0, 16)}Z, Node ${process.version}, ${cpus().length} × ${cpus()[0]?.model ?? "CPU"}, load average at the end ${loadavg().map((l) => l.toFixed(1)).join(" / ")}, ${SECONDS} s per run, next start (1 process, pool 10) + embedded PostgreSQL 18 on loopback; one notebook response is ${(notebookBytes / 1024).toFixed(0)} KiB (400 points, 4 steps)\n`);
+  console.log(`Heatbook load benchmark — ${new Date().toISOString().slice(0, 16)}Z, Node ${process.version}, ${cpus().length} × ${cpus()[0]?.model ?? "CPU"}, load average at the end ${loadavg().map((l) => l.toFixed(1)).join(" / ")}, ${SECONDS} s per run, next start (1 process, pool 10) + embedded PostgreSQL 18 on loopback; one notebook response is ${(notebookBytes / 1024).toFixed(0)} KiB (400 points, 4 steps), one sample list ${(listBytes / 1024).toFixed(0)} KiB (41 samples)\n`);
   console.log("Server CPU per request is the `next start` process's user + system time over the run ÷ requests; for the bare-pg floor rows it is the benchmark process's own (the pg client). Idle and steal are the whole machine's (all CPUs) over the run.\n");
   console.log("| scenario | connections | requests/s | p50 ms | p99 ms | errors | CPU ms/request | server CPU | machine idle | steal |\n|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|");
   const pct = (v: number | undefined) => (v === undefined ? "–" : `${fmt(v, 0)} %`);
