@@ -155,6 +155,7 @@ async function main(): Promise<void> {
   const rows: Row[] = [];
   const rssRounds: number[] = [];
   const floor: (Row & { label: string; round: number })[] = [];
+  const table: Row[] = []; // every run, app and floor, in the order they ran
   // Warm-up (first use of each route, connection pool, and V8's optimising tiers): every
   // scenario at 32 connections for twice a run's length, at least 10 s. Measured here at 32
   // connections on a fresh server, notebook reads went 289, 384, 494, 569, 570, 685, 775, 792
@@ -168,6 +169,7 @@ async function main(): Promise<void> {
   for (let round = 1; round <= ROUNDS; round++) {
     t0 = performance.now();
     for (const [name, run] of scenarios) for (const n of LEVELS) rows.push({ scenario: `${name} · round ${round}`, connections: n, ...(await run(n)) });
+    table.push(...rows.slice(-scenarios.length * LEVELS.length));
     rssRounds.push(rssMiB(pid));
     const g = gcSince(performance.now() - t0);
     liveRounds.push(g.liveAfterLastFullMiB);
@@ -179,6 +181,7 @@ async function main(): Promise<void> {
         const r: LoopResult = await queryLoop(d.url, n, SECONDS, op);
         const cpu = cpuShare(before, cpuCounters(process.pid), Math.round(r.requestsPerSecond * SECONDS), SECONDS);
         floor.push({ label: name, round, scenario: `${name} · bare pg · round ${round}`, connections: n, rps: r.requestsPerSecond, p50: r.p50Ms, p99: r.p99Ms, errors: r.errors, ...(cpu ? { cpu } : {}) });
+        table.push(floor.at(-1)!);
       }
     }
     gcSince(1); // the server was idle while the floor ran: not part of the next round
@@ -191,7 +194,7 @@ async function main(): Promise<void> {
   console.log("Server CPU per request is the `next start` process's user + system time over the run ÷ requests; for the bare-pg floor rows it is the benchmark process's own (the pg client). Idle and steal are the whole machine's (all CPUs) over the run.\n");
   console.log("| scenario | connections | requests/s | p50 ms | p99 ms | errors | CPU ms/request | server CPU | machine idle | steal |\n|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|");
   const pct = (v: number | undefined) => (v === undefined ? "–" : `${fmt(v, 0)} %`);
-  for (const r of [...rows, ...floor].sort((a, b) => Number(/round (\d+)/.exec(a.scenario)![1]) - Number(/round (\d+)/.exec(b.scenario)![1]))) {
+  for (const r of table) {
     console.log(`| ${r.scenario} | ${r.connections} | ${fmt(r.rps, 0)} | ${fmt(r.p50)} | ${fmt(r.p99)} | ${r.errors}${r.what ? ` (${r.what})` : ""} | ${r.cpu ? fmt(r.cpu.msPerRequest, 2) : "–"} | ${pct(r.cpu?.serverPct)} | ${pct(r.cpu?.idlePct)} | ${pct(r.cpu?.stealPct)} |`);
   }
   // Each round's app throughput over the same round's floor.

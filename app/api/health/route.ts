@@ -4,7 +4,8 @@ import { getDb, sqlRows } from "@/lib/server/db/client";
 
 export const dynamic = "force-dynamic";
 
-const NO_STORE = { "cache-control": "no-store" };
+/** The answer as JSON text, never cached (a stale "ok" would hide an outage). */
+const answer = (json: string) => new NextResponse(json, { headers: { "content-type": "application/json", "cache-control": "no-store" } });
 
 /**
  * Health check for a load balancer or an orchestrator; public, reveals no data.
@@ -14,7 +15,7 @@ const NO_STORE = { "cache-control": "no-store" };
  * `{"status":"ok","database":"ok"}`, else 503 with the reason.
  */
 export const GET = route(async (req: Request) => {
-  if (new URL(req.url).searchParams.get("db") !== "1") return new NextResponse('{"status":"ok"}', { headers: { "content-type": "application/json", ...NO_STORE } });
-  await sqlRows(getDb(), "SELECT 1 AS one", []); // unreachable: route() answers 503 with the reason
-  return new NextResponse('{"status":"ok","database":"ok"}', { headers: { "content-type": "application/json", ...NO_STORE } });
+  if (new URL(req.url).searchParams.get("db") !== "1") return answer('{"status":"ok"}');
+  await sqlRows(getDb(), "SELECT 1 AS one", []); // when PostgreSQL is unreachable, route() answers 503 with the reason
+  return answer('{"status":"ok","database":"ok"}');
 });
