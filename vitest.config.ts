@@ -4,6 +4,7 @@ import { fileURLToPath } from "node:url";
 export default defineConfig({
   resolve: { alias: { "@": fileURLToPath(new URL("./", import.meta.url)) } },
   test: {
+    setupFiles: ["tests/helpers/repoBoundary.ts"],
     include: ["tests/**/*.test.ts"],
     // tests/ops need built servers of their own: `npm run test:ops` (vitest.ops.config.ts).
     exclude: ["**/node_modules/**", "tests/ops/**", "tests/**/*.ops.test.ts"],

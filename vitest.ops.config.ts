@@ -9,6 +9,7 @@ import { fileURLToPath } from "node:url";
 export default defineConfig({
   resolve: { alias: { "@": fileURLToPath(new URL("./", import.meta.url)) } },
   test: {
+    setupFiles: ["tests/helpers/repoBoundary.ts"],
     include: ["tests/ops/**/*.test.ts", "tests/**/*.ops.test.ts"],
     testTimeout: 240_000,
     hookTimeout: 240_000,

@@ -3,7 +3,7 @@
  * Householder QR written here (Golub & Van Loan, Matrix Computations, 4th ed., Alg. 5.2.1:
  * one dot pass and one update pass per reflector and column), on seeded random problems
  * (invented data) and on NIST StRD Longley (source: NIST Statistical Reference Datasets,
- * ../shared/reference/nist-strd/Longley.json as published), whose certified values the
+ * tests/fixtures/nist-strd/Longley.json as published), whose certified values the
  * solve must also meet. Agreement is to rounding: entry-wise within 1e-13 of its column's norm.
  */
 import { describe, it, expect } from "vitest";

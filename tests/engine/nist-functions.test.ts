@@ -1,6 +1,6 @@
 /**
  * NIST StRD nonlinear datasets fitted with models written as TypeScript functions through
- * fitCore (source: NIST StRD files in ../shared/reference/nist-strd, used as published).
+ * fitCore (source: NIST StRD files in tests/fixtures/nist-strd, used as published).
  * Nelson (two predictors, response log y) uses numerical central-difference derivatives;
  * Misra1a, MGH09 and BoxBOD use analytic Jacobians. Thresholds: values ≥ 6 digits, SE ≥ 4.
  * Outcome per start (measured): BoxBOD start 1 converged:false (stalls where exp(−b2·x) ≈ 0), all others true.

@@ -1,6 +1,6 @@
 /**
  * NIST StRD linear least-squares datasets (source: NIST Statistical Reference Datasets,
- * files in ../shared/reference/nist-strd as published). Thresholds, per dataset: parameters
+ * files in tests/fixtures/nist-strd as published). Thresholds, per dataset: parameters
  * and standard errors to ≥ 9 significant digits (LRE), Filip (degree-10, ill-conditioned) ≥ 7.
  * Wampler1 has an exact fit: its certified standard errors are 0, checked with |SE| ≤ 1e-9.
  */

@@ -1,6 +1,6 @@
 /**
  * NIST StRD nonlinear least-squares datasets (source: NIST Statistical Reference Datasets,
- * ../shared/reference/nist-strd, used as published), fitted through the user-expression
+ * tests/fixtures/nist-strd, used as published), fitted through the user-expression
  * path (mathjs text → whitelisted tree → JS + symbolic Jacobian) with fitCurve.
  *
  * Per dataset: first the certified parameters must reproduce the certified residual sum of

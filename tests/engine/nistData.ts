@@ -1,4 +1,4 @@
-/** Loader for the NIST StRD reference files in ../shared/reference/nist-strd (used as published). */
+/** Loader for the NIST StRD reference files kept in tests/fixtures/nist-strd (used as published; README there). */
 import { readFileSync } from "node:fs";
 
 export interface NistDataset {
@@ -20,7 +20,7 @@ export interface NistDataset {
   starts?: number[][];
 }
 
-const DIR = new URL("../../../shared/reference/nist-strd/", import.meta.url);
+const DIR = new URL("../fixtures/nist-strd/", import.meta.url);
 
 export function loadNist(name: string): NistDataset {
   return JSON.parse(readFileSync(new URL(`${name}.json`, DIR), "utf8")) as NistDataset;

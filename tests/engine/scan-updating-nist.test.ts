@@ -1,6 +1,6 @@
 /**
  * NIST StRD linear least-squares datasets (source: NIST Statistical Reference Datasets,
- * Statistical Engineering Division, files in ../shared/reference/nist-strd used as
+ * Statistical Engineering Division, files in tests/fixtures/nist-strd used as
  * published) solved as one full-range window by sequential QR row updating
  * (lib/engine/scan/updating.ts). Thresholds, per dataset (LRE = significant digits of
  * values, standard errors and residual SD against the certified ones):
