@@ -1,6 +1,10 @@
 import { defineConfig } from "vitest/config";
 import { fileURLToPath } from "node:url";
 
+// The audit key of the test run (tests only; the app reads HEATBOOK_AUDIT_KEY). Set here so the
+// global setup and every test process share it.
+process.env.HEATBOOK_AUDIT_KEY ??= "test-only-audit-key-0123456789abcdef";
+
 export default defineConfig({
   resolve: { alias: { "@": fileURLToPath(new URL("./", import.meta.url)) } },
   test: {

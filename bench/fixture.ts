@@ -4,7 +4,10 @@
  */
 import { rmSync } from "node:fs";
 import { startEmbeddedDatabase } from "../lib/server/db/embedded";
-import { migrate } from "../lib/server/db/migrate";
+import { prepareDatabase } from "../lib/server/db/prepare";
+import { RUNTIME_ROLE } from "../lib/server/db/roles";
+import { auditKeyFromText } from "../lib/server/auditKey";
+import { randomBytes } from "node:crypto";
 import { createDb, type Db } from "../lib/server/db/client";
 import { createGroup } from "../lib/server/groups";
 import { memberOf, type Member } from "../lib/server/access";
@@ -20,8 +23,10 @@ export async function withBenchDatabase<T>(dir: string, fn: (f: BenchFixture) =>
   rmSync(dir, { recursive: true, force: true });
   const pg = await startEmbeddedDatabase({ dir });
   try {
-    await migrate(pg.url);
-    const db = createDb(pg.url, 4);
+    // The app's own setting: the owner prepares, the code under measurement runs as the runtime role.
+    process.env.HEATBOOK_AUDIT_KEY ??= randomBytes(32).toString("base64url");
+    await prepareDatabase({ ownerUrl: pg.ownerUrl, runtimeRole: RUNTIME_ROLE, key: auditKeyFromText(process.env.HEATBOOK_AUDIT_KEY) });
+    const db = createDb(pg.runtimeUrl, 4);
     const user = await db.user.create({ data: { email: "bench@example.org", name: "bench" } });
     const group = await createGroup(db, user.id, { name: "Bench group" });
     const member = await memberOf(db, user.id, group.slug);
@@ -35,5 +40,6 @@ export async function withBenchDatabase<T>(dir: string, fn: (f: BenchFixture) =>
     await pg.stop();
     rmSync(dir, { recursive: true, force: true });
     rmSync(`${dir}.log`, { force: true });
+    rmSync(pg.credentialsFile, { force: true });
   }
 }

@@ -11,10 +11,13 @@
  */
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { existsSync, mkdirSync, readFileSync, writeFileSync, statSync, readdirSync, rmSync } from "node:fs";
-import { join } from "node:path";
+import { join, resolve } from "node:path";
 import { randomBytes } from "node:crypto";
 import { startEmbeddedDatabase, type EmbeddedDatabase } from "../lib/server/db/embedded";
-import { migrate } from "../lib/server/db/migrate";
+import { prepareDatabase, roleOf } from "../lib/server/db/prepare";
+import { checkRuntimeRole } from "../lib/server/db/roles";
+import { auditKeyFromEnv, loadOrCreateAuditKeyFile, type AuditKey } from "../lib/server/auditKey";
+import pg from "pg";
 import { SERVER_NODE_FLAGS } from "../lib/server/nodeFlags";
 
 function flag(name: string): boolean {
@@ -56,17 +59,49 @@ function buildIfStale(): void {
   if (r.status !== 0) throw new Error("next build failed");
 }
 
+/** Refuse to serve as a role that could switch the database's guards off. */
+async function assertRuntimeRole(url: string): Promise<void> {
+  const client = new pg.Client({ connectionString: url });
+  await client.connect();
+  try {
+    const check = await checkRuntimeRole(client);
+    if (!check.ok) throw new Error(`DATABASE_URL's role is not fit to run the app: ${check.problems.join("; ")} (see README "Security model")`);
+  } finally {
+    await client.end();
+  }
+}
+
 async function main(): Promise<void> {
   if (flag("fresh")) rmSync(dataDir, { recursive: true, force: true });
   mkdirSync(dataDir, { recursive: true });
   let embedded: EmbeddedDatabase | undefined;
+  let ownerUrl: string;
+  let runtimeUrl: string;
+  let key: AuditKey;
+  let ownerKeptIn: string;
   if (!process.env.DATABASE_URL) {
-    embedded = await startEmbeddedDatabase({ dir: join(dataDir, "pg"), port: process.env.HEATBOOK_PG_PORT ? Number(process.env.HEATBOOK_PG_PORT) : undefined });
-    process.env.DATABASE_URL = embedded.url;
+    const credentialsFile = join(dataDir, "database-credentials.json");
+    embedded = await startEmbeddedDatabase({ dir: join(dataDir, "pg"), credentialsFile, port: process.env.HEATBOOK_PG_PORT ? Number(process.env.HEATBOOK_PG_PORT) : undefined });
+    ownerUrl = embedded.ownerUrl;
+    runtimeUrl = embedded.runtimeUrl;
+    ownerKeptIn = `${credentialsFile} (superuser "heatbook", mode 0600; \`heatbook audit verify --data-dir ${dataDir}\` finds it)`;
+    if (!process.env.HEATBOOK_AUDIT_KEY && !process.env.HEATBOOK_AUDIT_KEY_FILE) process.env.HEATBOOK_AUDIT_KEY_FILE = resolve(dataDir, "audit-key");
+    key = process.env.HEATBOOK_AUDIT_KEY ? auditKeyFromEnv() : loadOrCreateAuditKeyFile(process.env.HEATBOOK_AUDIT_KEY_FILE!);
     console.log(`heatbook: embedded PostgreSQL on port ${embedded.port} (data in ${embedded.dir})`);
+  } else {
+    if (!process.env.HEATBOOK_OWNER_DATABASE_URL)
+      throw new Error("DATABASE_URL is set but HEATBOOK_OWNER_DATABASE_URL is not: a managed server needs both (the runtime role for the app, the owner for migrations); see README \"Security model\"");
+    ownerUrl = process.env.HEATBOOK_OWNER_DATABASE_URL;
+    runtimeUrl = process.env.DATABASE_URL;
+    ownerKeptIn = "HEATBOOK_OWNER_DATABASE_URL (not passed to the app or the worker)";
+    key = auditKeyFromEnv();
   }
-  const applied = await migrate(process.env.DATABASE_URL!);
-  if (applied.length) console.log(`heatbook: applied migrations ${applied.join(", ")}`);
+  const prepared = await prepareDatabase({ ownerUrl, runtimeRole: roleOf(runtimeUrl), key });
+  if (prepared.applied.length) console.log(`heatbook: applied migrations ${prepared.applied.join(", ")}`);
+  if (prepared.rechained) console.log(`heatbook: re-chained ${prepared.rechained.events} audit events (ids below ${prepared.rechained.belowId}) into per-group chains signed with the audit key; the old chain was ${prepared.rechained.legacyChain}`);
+  await assertRuntimeRole(runtimeUrl);
+  process.env.DATABASE_URL = runtimeUrl;
+  delete process.env.HEATBOOK_OWNER_DATABASE_URL;
   if (!flag("no-seed")) {
     const { seedDemo } = await import("../lib/server/demo/seed");
     const { createDb } = await import("../lib/server/db/client");
@@ -83,6 +118,8 @@ async function main(): Promise<void> {
   const args = [...SERVER_NODE_FLAGS, "node_modules/next/dist/bin/next", dev ? "dev" : "start", "-H", "127.0.0.1", "-p", String(port)];
   const child: ChildProcess = spawn(process.execPath, args, { stdio: "inherit", env: process.env });
   console.log(`heatbook: serving on http://localhost:${port}`);
+  console.log(`heatbook: workers connect as the runtime role: DATABASE_URL=${runtimeUrl} ${process.env.HEATBOOK_AUDIT_KEY_FILE ? `HEATBOOK_AUDIT_KEY_FILE=${process.env.HEATBOOK_AUDIT_KEY_FILE}` : "HEATBOOK_AUDIT_KEY=(as given to this process)"} npm run worker`);
+  console.log(`heatbook: the owner's connection (migrations, backup, restore, audit verify) is kept in ${ownerKeptIn}`);
   // One job worker beside the app, so background jobs (series refits, large scans) run in the demo too.
   const worker: ChildProcess | null = flag("no-worker")
     ? null

@@ -28,7 +28,7 @@ commands:
   push FILE     upload a measurement file to a sample (HEATBOOK_URL, HEATBOOK_TOKEN)
   pull          pull series ID [--csv] | pull analysis ID --json (HEATBOOK_URL, HEATBOOK_TOKEN)
   backup        backup export --group SLUG --out FILE | backup restore FILE (DATABASE_URL)
-  audit verify  check the audit trail's hash chain and name the first broken row (DATABASE_URL)
+  audit verify  verify every audit chain (and the other integrity checks); audit checkpoint: save the chains' heads
 
 Run 'heatbook <command> --help' for the options of one command.`;
 

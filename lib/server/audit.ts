@@ -1,10 +1,16 @@
 /**
- * The audit trail: append-only (database triggers refuse UPDATE and DELETE) with a hash chain:
- * each row's hash is SHA-256 over the previous row's hash and the row's own canonical content,
- * so any edit, insertion or removal after the fact breaks the chain at that row.
+ * The audit trail: append-only (database triggers refuse UPDATE and DELETE; the runtime role has
+ * only INSERT and SELECT on it), kept as one chain per group (and one for server-wide events,
+ * groupId NULL). Each event has its place `seq` (1, 2, … within its chain), the previous event's
+ * `hash` in `prevHash`, and as `hash` an HMAC-SHA256 under the audit key (auditKey.ts) over every
+ * field including its id, group and seq. Without the key nobody can write an event that
+ * verifies, so editing, inserting, reordering or re-chaining events is detected; deleting the
+ * newest ones is detected against a checkpoint of the chain's head kept outside the database
+ * (auditCheckpoint.ts). Verification: auditVerify.ts.
  */
 import type { Db } from "./db/client";
 import { contentHash } from "./hash";
+import { auditKey, macOf, type AuditKey } from "./auditKey";
 
 export const GENESIS_HASH = "0".repeat(64);
 const CHAIN_LOCK = 72_201_807;
@@ -22,8 +28,11 @@ export interface AuditInput {
   detail?: Record<string, unknown>;
 }
 
-interface ChainRow {
+/** Everything an event's HMAC covers. */
+export interface ChainedEvent {
+  id: string;
   groupId: string | null;
+  seq: number;
   actorId: string | null;
   at: Date;
   action: string;
@@ -33,19 +42,32 @@ interface ChainRow {
   afterHash: string | null;
   detail: unknown;
   prevHash: string;
+  keyId: string;
 }
 
-/** The hash a row must carry: covers the previous hash and every field of the row. */
-export function chainHash(row: ChainRow): string {
-  return contentHash({ ...row, at: row.at.toISOString() });
+/** The `hash` an event must carry: HMAC-SHA256 under the key of its canonical content. */
+export function eventMac(key: AuditKey, e: ChainedEvent): string {
+  return macOf(key, { v: 2, ...e, at: e.at.toISOString() });
 }
 
-/** Append one event inside the caller's transaction (serialised by an advisory lock). */
-export async function recordAudit(tx: Tx, input: AuditInput): Promise<void> {
-  await tx.$executeRawUnsafe(`SELECT pg_advisory_xact_lock(${CHAIN_LOCK})`);
-  const last = await tx.auditEvent.findFirst({ orderBy: { id: "desc" }, select: { hash: true } });
-  const row: ChainRow = {
-    groupId: input.groupId ?? null,
+/** A stored row as the chain functions read it. */
+export function toChainedEvent(r: { id: bigint | string; groupId: string | null; seq: number | null; actorId: string | null; at: Date; action: string; objectType: string; objectId: string; beforeHash: string | null; afterHash: string | null; detail: unknown; prevHash: string; keyId: string | null }): ChainedEvent {
+  return {
+    id: String(r.id), groupId: r.groupId, seq: r.seq ?? 0, actorId: r.actorId, at: r.at, action: r.action, objectType: r.objectType, objectId: r.objectId,
+    beforeHash: r.beforeHash, afterHash: r.afterHash, detail: r.detail, prevHash: r.prevHash, keyId: r.keyId ?? "",
+  };
+}
+
+/** Append one event to its group's chain inside the caller's transaction (serialised per chain by an advisory lock). */
+export async function recordAudit(tx: Tx, input: AuditInput, key: AuditKey = auditKey()): Promise<void> {
+  const groupId = input.groupId ?? null;
+  await tx.$queryRawUnsafe(`SELECT pg_advisory_xact_lock(${CHAIN_LOCK}, hashtext($1))::text`, groupId ?? "server");
+  const last = await tx.auditEvent.findFirst({ where: { groupId, seq: { not: null } }, orderBy: { seq: "desc" }, select: { seq: true, hash: true } });
+  const [{ id }] = await tx.$queryRawUnsafe<[{ id: string }]>(`SELECT nextval(pg_get_serial_sequence('"AuditEvent"', 'id'))::text AS id`);
+  const e: ChainedEvent = {
+    id,
+    groupId,
+    seq: (last?.seq ?? 0) + 1,
     actorId: input.actorId ?? null,
     at: new Date(),
     action: input.action,
@@ -55,40 +77,17 @@ export async function recordAudit(tx: Tx, input: AuditInput): Promise<void> {
     afterHash: input.afterHash ?? null,
     detail: input.detail ?? {},
     prevHash: last?.hash ?? GENESIS_HASH,
+    keyId: key.id,
   };
-  await tx.auditEvent.create({ data: { ...row, detail: row.detail as object, hash: chainHash(row) } });
+  await tx.auditEvent.create({ data: { ...e, id: BigInt(e.id), detail: e.detail as object, hash: eventMac(key, e) } });
 }
 
-export interface ChainReport {
-  ok: boolean;
-  checked: number;
-  firstBrokenId: string | null;
-  reason: string | null;
+/**
+ * The hash of the chain used before per-group chains (one SHA-256 chain over all groups, no
+ * key). Kept only to check such events before they are re-chained (auditUpgrade.ts).
+ */
+export function legacyChainHash(row: { groupId: string | null; actorId: string | null; at: Date; action: string; objectType: string; objectId: string; beforeHash: string | null; afterHash: string | null; detail: unknown; prevHash: string }): string {
+  return contentHash({ ...row, at: row.at.toISOString() });
 }
 
-/** Walk the whole chain in id order; name the first row whose link or hash does not hold. */
-export async function verifyAuditChain(db: Db): Promise<ChainReport> {
-  let prev = GENESIS_HASH;
-  let checked = 0;
-  let cursor: bigint | undefined;
-  for (;;) {
-    const rows = await db.auditEvent.findMany({
-      orderBy: { id: "asc" },
-      take: 1000,
-      ...(cursor !== undefined ? { cursor: { id: cursor }, skip: 1 } : {}),
-    });
-    if (rows.length === 0) break;
-    for (const r of rows) {
-      if (r.prevHash !== prev) return { ok: false, checked, firstBrokenId: r.id.toString(), reason: "link to the previous row does not match" };
-      const expected = chainHash({
-        groupId: r.groupId, actorId: r.actorId, at: r.at, action: r.action, objectType: r.objectType,
-        objectId: r.objectId, beforeHash: r.beforeHash, afterHash: r.afterHash, detail: r.detail, prevHash: r.prevHash,
-      });
-      if (expected !== r.hash) return { ok: false, checked, firstBrokenId: r.id.toString(), reason: "row content does not match its hash" };
-      prev = r.hash;
-      checked++;
-    }
-    cursor = rows[rows.length - 1]!.id;
-  }
-  return { ok: true, checked, firstBrokenId: null, reason: null };
-}
+export { verifyAuditChain, verifyAuditChains, verifyGroupChain, type AuditReport, type ChainReport, type ChainProblem } from "./auditVerify";

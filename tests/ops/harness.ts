@@ -10,7 +10,9 @@ import { existsSync, rmSync, mkdirSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { randomBytes } from "node:crypto";
 import { startEmbeddedDatabase, freePort, type EmbeddedDatabase } from "../../lib/server/db/embedded";
-import { migrate } from "../../lib/server/db/migrate";
+import { prepareDatabase } from "../../lib/server/db/prepare";
+import { RUNTIME_ROLE } from "../../lib/server/db/roles";
+import { auditKeyFromText } from "../../lib/server/auditKey";
 import { SERVER_NODE_FLAGS } from "../../lib/server/nodeFlags";
 import { createDb, type Db } from "../../lib/server/db/client";
 import { hashPassword } from "../../lib/server/auth/password";
@@ -23,7 +25,9 @@ export const APP_DIR = resolve(process.env.HEATBOOK_OPS_APP_DIR ?? ".");
 export const PASSWORD = "ops-test-password-1";
 
 export interface OpsDatabase {
+  /** The runtime role's URL (what the app and workers use); `ownerUrl` the owner's. */
   url: string;
+  ownerUrl: string;
   port: number;
   dir: string;
   db: Db;
@@ -39,11 +43,12 @@ export async function opsDatabase(name: string): Promise<OpsDatabase> {
   mkdirSync(resolve(".data"), { recursive: true });
   let server: EmbeddedDatabase | null = await startEmbeddedDatabase({ dir, database: "heatbook" });
   const port = server.port;
-  const url = server.url;
-  await migrate(url);
+  const url = server.runtimeUrl;
+  const ownerUrl = server.ownerUrl;
+  await prepareDatabase({ ownerUrl, runtimeRole: RUNTIME_ROLE, key: auditKeyFromText(AUDIT_KEY) });
   const db = createDb(url, 4);
   return {
-    url, port, dir, db,
+    url, ownerUrl, port, dir, db,
     async stop() {
       await server?.stop();
       server = null;
@@ -56,6 +61,7 @@ export async function opsDatabase(name: string): Promise<OpsDatabase> {
       await server?.stop();
       rmSync(dir, { recursive: true, force: true });
       rmSync(`${dir}.log`, { force: true });
+      rmSync(`${dir}.credentials.json`, { force: true });
     },
   };
 }
@@ -69,6 +75,8 @@ export interface AppServer {
 }
 
 const SECRET = randomBytes(24).toString("base64url");
+/** The audit key of this test process and the servers it starts. */
+export const AUDIT_KEY = (process.env.HEATBOOK_AUDIT_KEY ??= randomBytes(32).toString("base64url"));
 
 /**
  * Start `next start` on a free port against `url`; resolves when /signin answers.
@@ -82,7 +90,7 @@ export async function startApp(url: string, opts: { https?: boolean; port?: numb
   const base = `http://127.0.0.1:${port}`;
   const child = spawn(process.execPath, [...SERVER_NODE_FLAGS, ...(opts.nodeArgs ?? []), join(APP_DIR, "node_modules/next/dist/bin/next"), "start", "-H", "127.0.0.1", "-p", String(port)], {
     cwd: APP_DIR,
-    env: { ...process.env, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1", DATABASE_URL: url, NEXTAUTH_SECRET: SECRET, NEXTAUTH_URL: `${opts.https ? "https" : "http"}://127.0.0.1:${port}`, HEATBOOK_BCRYPT_COST: "4", HEATBOOK_DB_POOL: "10" },
+    env: { ...process.env, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1", DATABASE_URL: url, NEXTAUTH_SECRET: SECRET, NEXTAUTH_URL: `${opts.https ? "https" : "http"}://127.0.0.1:${port}`, HEATBOOK_BCRYPT_COST: "4", HEATBOOK_DB_POOL: "10", HEATBOOK_AUDIT_KEY: AUDIT_KEY },
     stdio: ["ignore", "pipe", "pipe"],
   });
   const output: string[] = [];

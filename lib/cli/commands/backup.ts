@@ -1,7 +1,10 @@
 /**
  * `heatbook backup export --group SLUG --out FILE` and `heatbook backup restore FILE`: a group's
- * archive straight from/to the database named by DATABASE_URL (an administrator's tool; no API
- * token). Restore needs an empty, migrated database and prints the verification report.
+ * archive straight from/to the database named by HEATBOOK_OWNER_DATABASE_URL (the owner role;
+ * DATABASE_URL when that is not set) — an administrator's tool, no API token. The audit key
+ * (HEATBOOK_AUDIT_KEY or HEATBOOK_AUDIT_KEY_FILE) signs the archive's checkpoint and verifies
+ * the restored group's chain. Restore needs an empty, migrated database and prints the
+ * verification report.
  * Exit 0 done and verified, 2 bad usage or input, 1 anything else (including a failed verification).
  */
 import { writeFileSync } from "node:fs";
@@ -10,6 +13,7 @@ import { formatFlagHelp, getBoolean, getString, parseArgs, type FlagSpec } from 
 import { InputError } from "../../engine/errors";
 import { createDb } from "../../server/db/client";
 import { exportGroup, restoreGroup } from "../../server/backup";
+import { auditKeyFromEnv } from "../../server/auditKey";
 
 const FLAGS: Record<string, FlagSpec> = {
   group: { kind: "string", meta: "SLUG", help: "export: the group's slug or id" },
@@ -18,7 +22,7 @@ const FLAGS: Record<string, FlagSpec> = {
   help: { kind: "boolean", help: "show this help" },
 };
 
-const USAGE = `usage: heatbook backup export --group SLUG --out FILE\n       heatbook backup restore FILE\n(uses DATABASE_URL)\n\n${formatFlagHelp(FLAGS)}`;
+const USAGE = `usage: heatbook backup export --group SLUG --out FILE\n       heatbook backup restore FILE\n(uses HEATBOOK_OWNER_DATABASE_URL, else DATABASE_URL, and the audit key)\n\n${formatFlagHelp(FLAGS)}`;
 
 /** Run the command; see the module comment for exit codes. */
 export async function run(argv: string[], io: CliIo): Promise<number> {
@@ -30,24 +34,25 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
       return 0;
     }
     const [action, file, ...rest] = args.positionals;
-    const url = io.env.DATABASE_URL;
-    if (!url) throw new InputError("set DATABASE_URL to the database", { field: "DATABASE_URL" });
+    const url = io.env.HEATBOOK_OWNER_DATABASE_URL ?? io.env.DATABASE_URL;
+    if (!url) throw new InputError("set HEATBOOK_OWNER_DATABASE_URL to the database (the owner's login)", { field: "HEATBOOK_OWNER_DATABASE_URL" });
+    const key = auditKeyFromEnv(io.env);
     if (action === "export" && !file && !rest.length) {
       const group = getString(args, "group");
       const out = getString(args, "out");
       if (!group) throw new InputError("missing --group", { field: "group" });
       if (!out) throw new InputError("missing --out", { field: "out" });
       db = createDb(url, 2);
-      const { archive, counts } = await exportGroup(db, group);
+      const { archive, counts } = await exportGroup(db, group, key);
       writeFileSync(out, archive);
       io.out(getBoolean(args, "json") ? JSON.stringify({ out, bytes: archive.byteLength, counts }) : `wrote ${out} (${archive.byteLength} bytes): ${Object.entries(counts).map(([k, n]) => `${k} ${n}`).join(", ")}`);
       return 0;
     }
     if (action === "restore" && file && !rest.length) {
       db = createDb(url, 2);
-      const report = await restoreGroup(db, io.readFile(file));
+      const report = await restoreGroup(db, io.readFile(file), key);
       const text = getBoolean(args, "json") ? JSON.stringify(report, null, 2)
-        : `restored group ${report.group.slug}: audit chain ${report.audit.ok && report.auditMatchesArchive ? "verified identical" : `NOT verified (${report.audit.reason ?? "differs from the archive"})`} (${report.audit.checked} rows), sealed revisions ${report.seals.ok ? "verified" : "NOT verified"} (${report.seals.checked})${report.seals.problems.map((p) => `\n  ${p}`).join("")}`;
+        : `restored group ${report.group.slug}: audit chain ${report.audit.ok && report.auditMatchesArchive ? "verified identical" : `NOT verified (${report.audit.reason ?? "differs from the archive"})`} (${report.audit.checked} rows), sealed revisions ${report.seals.ok ? "verified" : "NOT verified"} (${report.seals.checked})${report.seals.problems.map((p) => `\n  ${p}`).join("")}${report.audit.problems.map((p) => `\n  audit: [${p.kind}] ${p.message}`).join("")}${report.rechained ? `\n  note: the archive predates per-group chains; its ${report.rechained.events} events were re-chained with this key (old chain: ${report.rechained.legacyChain})` : ""}${report.integrity.map((f) => `\n  ${f.summary}${f.problems.map((p) => `\n    ${p.where}: ${p.message}`).join("")}`).join("")}`;
       (report.ok ? io.out : io.err)(text);
       return report.ok ? 0 : 1;
     }

@@ -8,6 +8,7 @@ import { NotFoundError } from "../../engine/errors";
 import { ENGINE_VERSION } from "../../engine/version";
 import { BACKUP_FORMAT, BACKUP_VERSION, TABLES, encodeRow, type BackupHeader, type Row } from "./format";
 import { sealedEntries, verifyGroupAuditChain } from "./verify";
+import { auditKey, type AuditKey } from "../auditKey";
 
 type Delegate = { findMany(args: object): Promise<Row[]> };
 
@@ -43,7 +44,7 @@ export interface ExportResult {
 }
 
 /** Archive everything of the group with this slug or id. NotFoundError for an unknown group. */
-export async function exportGroup(db: Db, slugOrId: string): Promise<ExportResult> {
+export async function exportGroup(db: Db, slugOrId: string, key: AuditKey = auditKey()): Promise<ExportResult> {
   const isUuid = /^[0-9a-f-]{36}$/i.test(slugOrId);
   const group = await db.group.findFirst({ where: isUuid ? { id: slugOrId } : { slug: slugOrId } });
   if (!group) throw new NotFoundError(`group ${JSON.stringify(slugOrId)}`);
@@ -56,7 +57,8 @@ export async function exportGroup(db: Db, slugOrId: string): Promise<ExportResul
     counts[spec.name] = rows.length;
     for (const row of rows) lines.push(JSON.stringify({ table: spec.name, row: encodeRow(spec, row) }));
   }
-  const end = { counts, sealed: await sealedEntries(db, group.id), audit: await verifyGroupAuditChain(db, group.id) };
+  // The group chain's state and a signed checkpoint of its head: restore verifies against it.
+  const end = { counts, sealed: await sealedEntries(db, group.id), audit: await verifyGroupAuditChain(db, group.id, { key }) };
   lines.push(JSON.stringify({ end }));
   return { archive: gzipSync(Buffer.from(lines.join("\n") + "\n", "utf8")), counts };
 }

@@ -3,7 +3,7 @@
  *
  *   line 1      {"format":"heatbook-group-backup","version":1,"createdAt","engineVersion","group":{id,slug,name}}
  *   lines 2…    {"table":"<Model>","row":{…}}   one record per line, tables in TABLES order
- *   last line   {"end":{"counts":{table:n},"sealed":[{revisionId,contentHash,snapshotHash}],"audit":GroupChainReport}}
+ *   last line   {"end":{"counts":{table:n},"sealed":[{revisionId,contentHash,snapshotHash}],"audit":GroupChainReport (with .checkpoint, the signed head of the group's audit chain)}}
  *
  * Column values: JSON as stored; DateTime as ISO-8601 text; Bytes as base64; BigInt as decimal
  * text; which columns are which is listed per table below (so JSON content is never guessed at).
@@ -13,7 +13,8 @@
  */
 
 export const BACKUP_FORMAT = "heatbook-group-backup";
-export const BACKUP_VERSION = 1;
+/** 2: audit events carry seq and keyId, and the closing line a signed checkpoint (audit.checkpoint). 1 is still read. */
+export const BACKUP_VERSION = 2;
 
 export interface TableSpec {
   /** Prisma model name (also the SQL table name). */

@@ -7,9 +7,14 @@
  * their steps and decisions added, and then moved to `in_review`, `sealed` (and `replaced`) by
  * the same UPDATEs the review flow makes — the sealing trigger
  * checks the seal and rebuilds RevisionMeasurement. Audit rows are inserted with their original
- * ids, prevHash and hash (the table only refuses UPDATE/DELETE), and the id sequence moved past
- * them. Afterwards the sealed hashes and the group's audit chain are verified against the
- * archive's closing line.
+ * ids, seq, prevHash and signature (the table only refuses UPDATE/DELETE), and the id sequence
+ * moved past them. Afterwards the sealed hashes are checked against the archive's closing line,
+ * and the group's audit chain is verified ON ITS OWN with the audit key against the signed
+ * checkpoint of its head in that line (a restore into a server with another key says so).
+ * Version 1 archives (before per-group chains) carry unsigned events: they are re-chained
+ * with the key, as the start-up upgrade does, and the report says so.
+ * Run as the owner (the re-chaining of a version 1 archive switches the append-only trigger off
+ * for its transaction). Then every integrity check (lib/server/integrity.ts) runs on the group.
  */
 import { gunzipSync } from "node:zlib";
 import type { Db } from "../db/client";
@@ -17,6 +22,10 @@ import { Prisma } from "../generated/prisma/client";
 import { ConflictError, InputError } from "../../engine/errors";
 import { BACKUP_FORMAT, BACKUP_VERSION, decodeRow, tableSpec, TABLES, type BackupHeader, type Row, type SealedEntry } from "./format";
 import { verifyGroupAuditChain, verifySealedRevisions, type GroupChainReport, type SealReport } from "./verify";
+import { readCheckpoint, type AuditCheckpoint } from "../auditCheckpoint";
+import { auditKey as processKey, type AuditKey } from "../auditKey";
+import { rechainLegacyEvents, type RechainResult } from "../auditUpgrade";
+import { runIntegrityChecks, type IntegrityFinding } from "../integrity";
 
 type Tx = Prisma.TransactionClient;
 type Delegate = { createMany(args: { data: Row[] }): Promise<unknown> };
@@ -24,7 +33,7 @@ type Delegate = { createMany(args: { data: Row[] }): Promise<unknown> };
 interface Parsed {
   header: BackupHeader;
   rows: Map<string, Row[]>;
-  end: { counts: Record<string, number>; sealed: SealedEntry[]; audit: GroupChainReport };
+  end: { counts: Record<string, number>; sealed: SealedEntry[]; audit: { checkpoint?: AuditCheckpoint } };
 }
 
 /** Parse and check an archive; InputError naming the line on anything malformed. */
@@ -45,7 +54,7 @@ export function readArchive(archive: Uint8Array): Parsed {
   };
   const header = parse(0) as unknown as BackupHeader;
   if (header.format !== BACKUP_FORMAT) throw new InputError(`not a Heatbook group backup (format ${JSON.stringify(header.format)})`, { field: "archive", line: 1 });
-  if (header.version !== BACKUP_VERSION) throw new InputError(`backup version ${header.version} is not supported (this build reads version ${BACKUP_VERSION})`, { field: "archive", line: 1 });
+  if (header.version !== BACKUP_VERSION && header.version !== 1) throw new InputError(`backup version ${header.version} is not supported (this build reads version ${BACKUP_VERSION})`, { field: "archive", line: 1 });
   const last = parse(lines.length - 1);
   if (!last.end) throw new InputError("the archive is truncated: its closing line is missing", { field: "archive", line: lines.length });
   const rows = new Map<string, Row[]>(TABLES.map((t) => [t.name, []]));
@@ -94,20 +103,28 @@ export interface RestoreReport {
   counts: Record<string, number>;
   audit: GroupChainReport;
   auditMatchesArchive: boolean;
+  /** Set when the archive's events predate per-group chains and were re-chained at restore. */
+  rechained: RechainResult | null;
   seals: SealReport;
+  /** Every integrity check (lib/server/integrity.ts) on the restored group. */
+  integrity: IntegrityFinding[];
 }
 
 /** Restore `archive` into the empty database `db`; see the module comment. */
-export async function restoreGroup(db: Db, archive: Uint8Array): Promise<RestoreReport> {
+export async function restoreGroup(db: Db, archive: Uint8Array, key: AuditKey = processKey()): Promise<RestoreReport> {
   const { header, rows, end } = readArchive(archive);
+  const checkpoint = header.version === 1 ? undefined : readCheckpoint(end.audit?.checkpoint ?? null, key, "the archive's audit checkpoint");
   await assertEmpty(db);
   await db.$transaction(async (tx) => {
     for (const t of TABLES) await insertAll(tx, t.name, rows.get(t.name)!);
     await replayRevisionStates(tx, rows.get("AnalysisRevision")!);
     await tx.$queryRawUnsafe(`SELECT setval(pg_get_serial_sequence('"AuditEvent"', 'id'), GREATEST((SELECT MAX("id") FROM "AuditEvent"), 1))`);
   }, { timeout: 600_000, maxWait: 10_000 });
-  const audit = await verifyGroupAuditChain(db, header.group.id);
+  const rechained = header.version === 1 ? await rechainLegacyEvents(db, key) : null;
+  const audit = await verifyGroupAuditChain(db, header.group.id, { key, ...(checkpoint ? { checkpoint } : {}) });
   const seals = await verifySealedRevisions(db, header.group.id, end.sealed);
-  const auditMatchesArchive = audit.ok && audit.digest === end.audit.digest && audit.headHash === end.audit.headHash && audit.checked === end.audit.checked;
-  return { ok: audit.ok && auditMatchesArchive && seals.ok, group: header.group, counts: end.counts, audit, auditMatchesArchive, seals };
+  const auditMatchesArchive = audit.ok && (checkpoint ? audit.checked === (end.counts.AuditEvent ?? 0) : true);
+  const integrity = await runIntegrityChecks({ db, key, groupIds: [header.group.id] });
+  const ok = audit.ok && auditMatchesArchive && seals.ok && integrity.ok;
+  return { ok, group: header.group, counts: end.counts, audit, auditMatchesArchive, rechained, seals, integrity: integrity.findings };
 }

@@ -1,50 +1,41 @@
 /**
  * Verification of one group's records, used around backup and restore.
  *
- * Group audit chain vs the global one (lib/server/audit.ts verifyAuditChain): the chain is
- * global — each row's prevHash is the hash of the previous row of ANY group. A group's own rows
- * therefore form a subsequence, and a restored database holds only that subsequence, so the
- * global walk (which demands prevHash = previous row's hash) cannot succeed there. The group
- * check instead verifies, for each of the group's rows in id order:
- *   1. its hash recomputes from its content and its stored prevHash (chainHash of audit.ts);
- *   2. where its prevHash names the hash of an earlier row of the group, that row is the
- *      immediately preceding group row (no group row removed or reordered in between);
- * and it reports a digest over the ordered (id, prevHash, hash) triples plus the head hash: two
- * databases hold the identical group chain exactly when these agree. Rows whose predecessor was
- * another group's are counted as `externalLinks` (they are verified by the global walk only).
+ * The group's audit chain is its own (lib/server/audit.ts): seq 1, 2, … with every event signed
+ * by the audit key, so a group restored into another database verifies on its own. The archive
+ * carries a signed checkpoint of the chain's head (auditCheckpoint.ts); after a restore the chain
+ * is verified against it, so events missing at the end, or a different head, are named too.
  */
 import type { Db } from "../db/client";
-import { chainHash } from "../audit";
-import { contentHash, sha256Hex } from "../hash";
+import { contentHash } from "../hash";
+import { verifyGroupChain, type ChainProblem } from "../auditVerify";
+import { takeCheckpoint, checkpointHeads, type AuditCheckpoint } from "../auditCheckpoint";
+import { auditKey as processKey, type AuditKey } from "../auditKey";
 import type { SealedEntry } from "./format";
 
 export interface GroupChainReport {
   ok: boolean;
   checked: number;
-  externalLinks: number;
   firstBrokenId: string | null;
   reason: string | null;
+  problems: ChainProblem[];
+  headSeq: number | null;
   headHash: string | null;
-  digest: string;
+  /** The signed head of the group's chain, as kept in the archive's closing line. */
+  checkpoint: AuditCheckpoint;
 }
 
-/** Verify the group's audit rows; see the module comment. */
-export async function verifyGroupAuditChain(db: Db, groupId: string): Promise<GroupChainReport> {
-  const rows = await db.auditEvent.findMany({ where: { groupId }, orderBy: { id: "asc" } });
-  const position = new Map<string, number>();
-  let external = 0;
-  const triples: string[] = [];
-  for (const [i, r] of rows.entries()) {
-    const broken = (reason: string): GroupChainReport => ({ ok: false, checked: i, externalLinks: external, firstBrokenId: r.id.toString(), reason, headHash: null, digest: "" });
-    const expected = chainHash({ groupId: r.groupId, actorId: r.actorId, at: r.at, action: r.action, objectType: r.objectType, objectId: r.objectId, beforeHash: r.beforeHash, afterHash: r.afterHash, detail: r.detail, prevHash: r.prevHash });
-    if (expected !== r.hash) return broken("row content does not match its hash");
-    const linked = position.get(r.prevHash);
-    if (linked === undefined) external++;
-    else if (linked !== i - 1) return broken("links to a group row that is not the preceding one");
-    position.set(r.hash, i);
-    triples.push(`${r.id}:${r.prevHash}:${r.hash}`);
-  }
-  return { ok: true, checked: rows.length, externalLinks: external, firstBrokenId: null, reason: null, headHash: rows.at(-1)?.hash ?? null, digest: sha256Hex(triples.join("\n")) };
+/** Verify the group's chain with the key (the process's by default), against a checkpoint if given. */
+export async function verifyGroupAuditChain(db: Db, groupId: string, opts: { key?: AuditKey; checkpoint?: AuditCheckpoint } = {}): Promise<GroupChainReport> {
+  const key = opts.key ?? processKey();
+  const head = opts.checkpoint ? checkpointHeads(opts.checkpoint).get(groupId) : undefined;
+  const r = await verifyGroupChain(db, groupId, { key, ...(head ? { checkpoint: head } : {}) });
+  if (opts.checkpoint && !head && r.checked > 0) r.problems.push({ kind: "inserted", groupId, eventId: null, seq: null, message: `${r.label}: the checkpoint records no events for this group, the database has ${r.checked}` });
+  const problems = r.problems;
+  return {
+    ok: problems.length === 0, checked: r.checked, firstBrokenId: problems[0]?.eventId ?? null, reason: problems[0]?.message ?? null, problems,
+    headSeq: r.head?.seq ?? null, headHash: r.head?.hash ?? null, checkpoint: await takeCheckpoint(db, key, [groupId]),
+  };
 }
 
 export interface SealReport {

@@ -2,7 +2,8 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { pageMember } from "@/app/_server/guard";
 import { listAuditEvents } from "@/lib/server/review";
-import { verifyAuditChain } from "@/lib/server/audit";
+import { auditKey } from "@/lib/server/auditKey";
+import { verifyGroup } from "@/lib/server/integrity";
 import { can } from "@/lib/server/permissions";
 import { when } from "@/app/components/review/labels";
 import "@/app/components/review/review.css";
@@ -20,22 +21,31 @@ export default async function AuditPage({ params, searchParams }: { params: Prom
   const { db, member } = await pageMember(slug, `${home}/audit`);
   if (!can(member.role, "audit.read")) return (<><h1>Audit trail</h1><p className="notice-info">Only the group&apos;s owners read the audit trail.</p></>);
   const beforeId = before && /^\d{1,19}$/.test(before) ? before : undefined;
-  const [events, chain] = await Promise.all([listAuditEvents(db, member, { take: 100, ...(beforeId ? { before: beforeId } : {}) }), verifyAuditChain(db)]);
+  const [events, verification] = await Promise.all([listAuditEvents(db, member, { take: 100, ...(beforeId ? { before: beforeId } : {}) }), verifyGroup(db, member.group.id, auditKey())]);
+  const chain = verification.chain;
+  const broken = new Set(chain.problems.map((p) => p.eventId).filter((x): x is string => x !== null));
   return (
     <>
       <h1>Audit trail</h1>
-      <p className="lede">Every state change, seal, role change, import and deletion, in an append-only table. Each row&apos;s hash covers the previous row&apos;s hash, so a change after the fact breaks the chain at that row.</p>
+      <p className="lede">Every state change, seal, role change, import and deletion, in an append-only table. The group&apos;s events form a chain of their own: each is numbered, names the one before it, and is signed with a key the database does not hold, so an event edited, inserted, reordered or removed after the fact is named here. Removal of the newest events shows against a checkpoint kept outside the database (<span className="mono">heatbook audit checkpoint</span>).</p>
       <div className={chain.ok ? "notice-ok" : "form-error"} data-testid="audit-chain" role="status">
         {chain.ok
-          ? <>Chain intact: all {chain.checked} rows (every group on this server) link up and match their hashes.</>
-          : <>Chain broken at row <strong className="mono">#{chain.firstBrokenId}</strong>: {chain.reason}. {chain.checked} rows before it check out.</>}
+          ? <>Chain intact: all {chain.checked} events of this group are in order, linked and correctly signed.</>
+          : <>Chain broken: {chain.problems.length} problem{chain.problems.length === 1 ? "" : "s"} among this group&apos;s {chain.checked} events.</>}
+        {!chain.ok && <ul>{chain.problems.slice(0, 20).map((p, i) => <li key={i}>{p.message}</li>)}</ul>}
       </div>
+      {verification.findings.filter((f) => f.check !== "audit chains").map((f) => (
+        <div key={f.check} className={f.ok ? "notice-ok" : "form-error"} role="status">
+          {f.summary}
+          {!f.ok && <ul>{f.problems.slice(0, 20).map((p, i) => <li key={i}>{p.where}: {p.message}</li>)}</ul>}
+        </div>
+      ))}
       <section className="sheet">
         <table data-testid="audit-events">
           <thead><tr><th className="num">#</th><th>When</th><th>Who</th><th>Action</th><th>Object</th><th>Before → after</th><th>Row hash</th></tr></thead>
           <tbody>
             {events.map((e) => (
-              <tr key={e.id} className={chain.firstBrokenId === e.id ? "rv-bad" : undefined}>
+              <tr key={e.id} className={broken.has(e.id) ? "rv-bad" : undefined}>
                 <td className="num mono">{e.id}</td>
                 <td className="small">{when(e.at)}</td>
                 <td>{e.actorName ?? <span className="muted">system</span>}</td>

@@ -1,0 +1,77 @@
+/**
+ * The integrity checks that `heatbook audit verify` (whole database, owner URL) and the group's
+ * Verify (button and route) run, in order. Each check gets the scope and returns findings.
+ *
+ * HOOK: other integrity checks plug in by adding an entry to INTEGRITY_CHECKS below (e.g. "the
+ * sealed revisions match what is served", lib/server/review/**). A check must honour
+ * `scope.groupIds` (null = every group) and name each problem (what, where) in `problems`.
+ */
+import type { Db } from "./db/client";
+import type { AuditKey } from "./auditKey";
+import { verifyAuditChains, type AuditReport, type CheckpointHead } from "./auditVerify";
+
+export interface IntegrityScope {
+  db: Db;
+  key: AuditKey;
+  /** The groups to check; null = the whole database (server-wide audit chain included). */
+  groupIds: string[] | null;
+  /** Chain heads from a checkpoint kept outside the database, if one was given. */
+  checkpoint?: Map<string | null, CheckpointHead>;
+}
+
+export interface IntegrityFinding {
+  /** Short name of the check, e.g. "audit chains". */
+  check: string;
+  ok: boolean;
+  /** One line: what was checked and the outcome. */
+  summary: string;
+  problems: { where: string; message: string }[];
+  /** The check's own full report (JSON-safe). */
+  detail?: unknown;
+}
+
+export interface IntegrityCheck {
+  name: string;
+  run(scope: IntegrityScope): Promise<IntegrityFinding>;
+}
+
+/** The audit chains: every chain in scope, with the key, against the checkpoint if given. */
+export const auditChainsCheck: IntegrityCheck = {
+  name: "audit chains",
+  async run(scope) {
+    const report: AuditReport = await verifyAuditChains(scope.db, { key: scope.key, ...(scope.checkpoint ? { checkpoint: scope.checkpoint } : {}), ...(scope.groupIds ? { groupIds: scope.groupIds } : {}) });
+    const summary = report.ok
+      ? `audit chains intact: ${report.chains.length} chain(s), ${report.checked} events signed and linked${scope.checkpoint ? ", none missing against the checkpoint" : " (no checkpoint given: the newest events are checked only against one)"}`
+      : `audit chains BROKEN: ${report.problems.length} problem(s); first: ${report.reason}`;
+    return { check: this.name, ok: report.ok, summary, problems: report.problems.map((p) => ({ where: p.eventId ? `event ${p.eventId}${p.seq !== null ? ` (seq ${p.seq})` : ""}` : p.groupId ?? "server", message: `[${p.kind}] ${p.message}` })), detail: report };
+  },
+};
+
+/** Run in this order. Add further checks here (see the module comment). */
+export const INTEGRITY_CHECKS: IntegrityCheck[] = [auditChainsCheck];
+
+/** Run every check; ok when all are. */
+export async function runIntegrityChecks(scope: IntegrityScope, checks: readonly IntegrityCheck[] = INTEGRITY_CHECKS): Promise<{ ok: boolean; findings: IntegrityFinding[] }> {
+  const findings: IntegrityFinding[] = [];
+  for (const c of checks) findings.push(await c.run(scope));
+  return { ok: findings.every((f) => f.ok), findings };
+}
+
+export interface GroupVerification {
+  ok: boolean;
+  /** The group's own audit chain (counts are this group's only). */
+  chain: { ok: boolean; checked: number; firstBrokenId: string | null; reason: string | null; problems: AuditReport["problems"]; headSeq: number | null };
+  findings: IntegrityFinding[];
+}
+
+/** The group's Verify (button and route): every integrity check on this group alone. */
+export async function verifyGroup(db: Db, groupId: string, key: AuditKey): Promise<GroupVerification> {
+  const { ok, findings } = await runIntegrityChecks({ db, key, groupIds: [groupId] });
+  const audit = findings.find((f) => f.check === auditChainsCheck.name)!.detail as AuditReport;
+  const own = audit.chains.find((c) => c.groupId === groupId);
+  return {
+    ok,
+    chain: { ok: audit.ok, checked: audit.checked, firstBrokenId: audit.firstBrokenId, reason: audit.reason, problems: audit.problems, headSeq: own?.head?.seq ?? null },
+    findings,
+  };
+}
