@@ -47,7 +47,10 @@ export interface ChainedEvent {
 
 /** The `hash` an event must carry: HMAC-SHA256 under the key of its canonical content. */
 export function eventMac(key: AuditKey, e: ChainedEvent): string {
-  return macOf(key, { v: 2, ...e, at: e.at.toISOString() });
+  return macOf(key, {
+    v: 2, id: e.id, groupId: e.groupId, seq: e.seq, actorId: e.actorId, at: e.at.toISOString(), action: e.action, objectType: e.objectType, objectId: e.objectId,
+    beforeHash: e.beforeHash, afterHash: e.afterHash, detail: e.detail, prevHash: e.prevHash, keyId: e.keyId,
+  });
 }
 
 /** A stored row as the chain functions read it. */
