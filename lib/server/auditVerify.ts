@@ -127,7 +127,10 @@ function classifyUnsigned(rows: StoredEvent[], macOk: boolean[], i: number, key:
   }
   const before = rows[i - 1];
   const after = rows[i + 1];
-  if (after && macOk[i + 1] && after.prevHash === (before?.hash ?? GENESIS_HASH) && after.prevHash !== r.hash) {
+  // The next event links past this one to the one before, and is signed where it stands or at
+  // this one's place (the later events were renumbered to make room).
+  const afterSigned = after && (macOk[i + 1] || eventMac(key, { ...after, seq: r.seq }) === after.hash);
+  if (after && afterSigned && after.prevHash === (before?.hash ?? GENESIS_HASH) && after.prevHash !== r.hash) {
     add("inserted", r, `${where(r)} is not signed by the audit key and its neighbours link up without it: inserted`);
     return i;
   }

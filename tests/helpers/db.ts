@@ -8,6 +8,7 @@ import { inject } from "vitest";
 import pg from "pg";
 import { randomBytes } from "node:crypto";
 import { createDb, type Db } from "../../lib/server/db/client";
+import { applyRuntimeGrants } from "../../lib/server/db/roles";
 
 export interface TestDatabase {
   /** Runtime role. */
@@ -31,6 +32,11 @@ export async function freshDatabase(): Promise<TestDatabase> {
   await admin.query(`CREATE DATABASE "${name}" TEMPLATE "${templateName}"`);
   await admin.end();
   const ownerUrl = Object.assign(new URL(template), { pathname: `/${name}` }).toString();
+  // Database-level privileges (CONNECT, TEMPORARY) are not copied from the template: set them as start-up does.
+  const grants = new pg.Client({ connectionString: ownerUrl });
+  await grants.connect();
+  await applyRuntimeGrants(grants, login.user);
+  await grants.end();
   const runtime = new URL(ownerUrl);
   runtime.username = encodeURIComponent(login.user);
   runtime.password = encodeURIComponent(login.password);
