@@ -90,7 +90,8 @@ export async function recordAudit(tx: Tx, input: AuditInput, key: AuditKey = aud
  * key). Kept only to check such events before they are re-chained (auditUpgrade.ts).
  */
 export function legacyChainHash(row: { groupId: string | null; actorId: string | null; at: Date; action: string; objectType: string; objectId: string; beforeHash: string | null; afterHash: string | null; detail: unknown; prevHash: string }): string {
-  return contentHash({ ...row, at: row.at.toISOString() });
+  const { groupId, actorId, at, action, objectType, objectId, beforeHash, afterHash, detail, prevHash } = row;
+  return contentHash({ groupId, actorId, at: at.toISOString(), action, objectType, objectId, beforeHash, afterHash, detail, prevHash });
 }
 
 export { verifyAuditChain, verifyAuditChains, verifyGroupChain, type AuditReport, type ChainReport, type ChainProblem } from "./auditVerify";

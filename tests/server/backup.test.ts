@@ -10,6 +10,8 @@ import { verifyAuditChain } from "../../lib/server/audit";
 import { contentHash } from "../../lib/server/hash";
 import { exportGroup, restoreGroup, readArchive, verifyGroupAuditChain } from "../../lib/server/backup";
 import { ConflictError, InputError } from "../../lib/engine/errors";
+import { auditKeyFromText } from "../../lib/server/auditKey";
+import { main } from "../../lib/cli/main";
 
 let src: TestDatabase;
 let dst: TestDatabase;
@@ -46,7 +48,7 @@ describe("exportGroup", () => {
   it("exportGroup writes a versioned JSON-lines archive with only the group's rows and no password hashes", () => {
     const lines = gunzipSync(archive).toString("utf8").trim().split("\n").map((l) => JSON.parse(l));
     expect(lines[0].format).toBe("heatbook-group-backup");
-    expect(lines[0].version).toBe(1);
+    expect(lines[0].version).toBe(2);
     const { rows, end } = readArchive(archive);
     expect(rows.get("Group")!.length).toBe(1);
     expect(rows.get("Sample")!.map((r) => r.label)).toEqual(["Nb"]);
@@ -57,16 +59,24 @@ describe("exportGroup", () => {
 });
 
 describe("restoreGroup", () => {
-  it("restoreGroup into an empty database verifies seals and the group audit chain identically", async () => {
-    const report = await restoreGroup(dst.db, archive);
+  it("restoreGroup (as the owner) into an empty database verifies seals and the group's own audit chain against the archive's checkpoint", async () => {
+    const report = await restoreGroup(dst.owner(), archive);
     expect(report.seals.problems).toEqual([]);
-    expect(report.audit.ok).toBe(true);
+    expect(report.audit).toMatchObject({ ok: true, problems: [], checked: await src.db.auditEvent.count({ where: { groupId: A.groupId } }) });
     expect(report.auditMatchesArchive).toBe(true);
+    expect(report.integrity.map((f) => f.ok)).toEqual(report.integrity.map(() => true));
     expect(report.ok).toBe(true);
-    const before = await verifyGroupAuditChain(src.db, A.groupId);
-    const after = await verifyGroupAuditChain(dst.db, A.groupId);
+    const { checkpoint: cpBefore, ...before } = await verifyGroupAuditChain(src.db, A.groupId);
+    const { checkpoint: cpAfter, ...after } = await verifyGroupAuditChain(dst.db, A.groupId);
     expect(after).toEqual(before);
+    expect(cpAfter.heads).toEqual(cpBefore.heads);
     expect((await verifyAuditChain(src.db)).ok).toBe(true);
+  });
+  it("the restored group's chain verifies on its own: `heatbook audit verify` over the restored database exits 0", async () => {
+    let out = "";
+    const code = await main(["audit", "verify", "--url", dst.ownerUrl], { out: (x) => (out += x), err: (x) => (out += x), readFile: () => new Uint8Array(), env: { HEATBOOK_AUDIT_KEY: process.env.HEATBOOK_AUDIT_KEY } });
+    expect(out).toMatch(/audit chains intact: 1 chain\(s\)/);
+    expect(code).toBe(0);
   });
   it("the restored records equal the originals: rows, points bytes, original file bytes, states", async () => {
     for (const model of ["sample", "measurement", "storedFile", "analysisRevision", "step", "thread", "comment", "series", "reviewDecision"] as const) {
@@ -88,16 +98,42 @@ describe("restoreGroup", () => {
     await expect(dst.db.analysisRevision.update({ where: { id: sealed.id }, data: { contentHash: "0".repeat(64) } })).rejects.toThrow(/immutable|refused/);
   });
   it("restoreGroup refuses a database that is not empty", async () => {
-    await expect(restoreGroup(dst.db, archive)).rejects.toThrow(ConflictError);
+    await expect(restoreGroup(dst.owner(), archive)).rejects.toThrow(ConflictError);
     await expect(restoreGroup(src.db, archive)).rejects.toThrow(/empty database/);
   });
   it("restoreGroup reports a broken chain when an audit row was edited in the archive", async () => {
     const text = gunzipSync(archive).toString("utf8").replace('"action":"sample.create"', '"action":"sample.created"');
     const other = await freshDatabase();
     try {
-      const report = await restoreGroup(other.db, gzipSync(Buffer.from(text)));
+      const report = await restoreGroup(other.owner(), gzipSync(Buffer.from(text)));
       expect(report.ok).toBe(false);
-      expect(report.audit.reason).toMatch(/does not match its hash/);
+      expect(report.audit.problems[0]).toMatchObject({ kind: "edited", groupId: A.groupId });
+      expect(report.audit.reason).toMatch(/no longer matches its signature/);
+    } finally {
+      await other.drop();
+    }
+  });
+  it("restoreGroup names the newest audit events cut from an archive, against the archive's checkpoint", async () => {
+    const lines = gunzipSync(archive).toString("utf8").trim().split("\n");
+    const lastAudit = lines.map((l, i) => [l, i] as const).filter(([l]) => l.startsWith('{"table":"AuditEvent"')).at(-1)![1];
+    const end = JSON.parse(lines.at(-1)!);
+    end.end.counts.AuditEvent -= 1;
+    const cut = [...lines.slice(0, lastAudit), ...lines.slice(lastAudit + 1, -1), JSON.stringify(end)].join("\n") + "\n";
+    const other = await freshDatabase();
+    try {
+      const report = await restoreGroup(other.owner(), gzipSync(Buffer.from(cut)));
+      expect(report.ok).toBe(false);
+      expect(report.audit.problems).toEqual([expect.objectContaining({ kind: "deleted", groupId: A.groupId })]);
+      expect(report.audit.reason).toMatch(/the newest event \(seq \d+\) is missing: the checkpoint of/);
+    } finally {
+      await other.drop();
+    }
+  });
+  it("restoreGroup with another audit key refuses the archive's checkpoint before writing anything", async () => {
+    const other = await freshDatabase();
+    try {
+      await expect(restoreGroup(other.owner(), archive, auditKeyFromText("some-other-servers-audit-key-0000000"))).rejects.toThrow(/signed by another audit key/);
+      expect(await other.db.group.count()).toBe(0);
     } finally {
       await other.drop();
     }
