@@ -10,11 +10,11 @@ afterAll(async () => { await t.drop(); });
 
 describe("migrate", () => {
   it("migrate on an up-to-date database applies nothing", async () => {
-    expect(await migrate(t.url)).toEqual([]);
+    expect(await migrate(t.ownerUrl)).toEqual([]);
   });
 
   it("migrate records every migration with its sha256 checksum in _prisma_migrations", async () => {
-    const c = new pg.Client({ connectionString: t.url });
+    const c = new pg.Client({ connectionString: t.ownerUrl });
     await c.connect();
     const rows = (await c.query(`SELECT migration_name, checksum, finished_at FROM "_prisma_migrations" ORDER BY migration_name`)).rows;
     await c.end();
@@ -27,13 +27,13 @@ describe("migrate", () => {
   it("migrate refuses to run when an applied migration file was edited", async () => {
     const files = readMigrations();
     const edited = files.map((f, i) => (i === 0 ? { ...f, checksum: "0".repeat(64) } : f));
-    await expect(migrate(t.url, edited)).rejects.toThrow(/was edited after it was applied/);
+    await expect(migrate(t.ownerUrl, edited)).rejects.toThrow(/was edited after it was applied/);
   });
 
   it("migrate rolls back a failing migration and records nothing of it", async () => {
     const bad = [...readMigrations(), { name: "99999999999999_broken", sql: "CREATE TABLE half_done (x int); SELECT no_such_function();", checksum: "f".repeat(64) }];
-    await expect(migrate(t.url, bad)).rejects.toThrow(/99999999999999_broken failed and was rolled back/);
-    const c = new pg.Client({ connectionString: t.url });
+    await expect(migrate(t.ownerUrl, bad)).rejects.toThrow(/99999999999999_broken failed and was rolled back/);
+    const c = new pg.Client({ connectionString: t.ownerUrl });
     await c.connect();
     const table = await c.query(`SELECT to_regclass('half_done') AS t`);
     const rec = await c.query(`SELECT 1 FROM "_prisma_migrations" WHERE migration_name = '99999999999999_broken'`);

@@ -1,7 +1,9 @@
 /**
  * The review-lock triggers, exercised in raw SQL over `pg` (no app code in the way): the audit
  * trail is append-only, a sealed revision with its steps, decisions, measurements and original
- * files is immutable, and nothing that owns a sealed revision can be deleted.
+ * files is immutable, and nothing that owns a sealed revision can be deleted. As the owner (who
+ * holds every table privilege), so the triggers themselves are what refuses; the runtime role is
+ * refused earlier still (tests/security/db-roles.test.ts).
  */
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import pg from "pg";
@@ -30,7 +32,7 @@ async function sealInSql(revisionId: string, measurementIds: string[]): Promise<
 beforeAll(async () => {
   t = await freshDatabase();
   f = await makeReviewFixture(t.db);
-  sql = new pg.Client({ connectionString: t.url });
+  sql = new pg.Client({ connectionString: t.ownerUrl });
   await sql.connect();
   await sealInSql(f.revisionId, [f.measurementId]);
 });

@@ -112,7 +112,7 @@ describe("verifyRevision", () => {
     const r = await fullAnalysis("to tamper");
     await act("analyst", "submit", r);
     await act("owner", "approve", r);
-    const c = new pg.Client({ connectionString: t.url });
+    const c = new pg.Client({ connectionString: t.ownerUrl });
     await c.connect();
     try {
       await c.query(`ALTER TABLE "AnalysisRevision" DISABLE TRIGGER "AnalysisRevision_lock"`);
