@@ -1,12 +1,14 @@
 /**
  * `npm run worker`: one job worker. Start as many as you like (on any machine that reaches the
- * database); they drain the same queue. Needs DATABASE_URL. SIGINT/SIGTERM stop it after the
+ * database); they drain the same queue. Needs DATABASE_URL (the runtime role) and the audit key
+ * (HEATBOOK_AUDIT_KEY or HEATBOOK_AUDIT_KEY_FILE). SIGINT/SIGTERM stop it after the
  * job in hand (graceful, up to 30 s).
  *
  * Options: --name NAME (recorded in each attempt), --pause-ms N (wait between units of work),
  *          --maintenance-seconds N (how often this worker looks for jobs of dead workers; 30).
  */
 import { startWorker } from "../lib/server/jobs";
+import { auditKeyFromEnv } from "../lib/server/auditKey";
 
 function option(name: string): string | undefined {
   const i = process.argv.indexOf(`--${name}`);
@@ -15,7 +17,13 @@ function option(name: string): string | undefined {
 
 const url = process.env.DATABASE_URL;
 if (!url) {
-  console.error("worker: DATABASE_URL is not set (point it at the app's PostgreSQL; `npm start` prints its port)");
+  console.error("worker: DATABASE_URL is not set (the runtime role's URL, which `npm start` prints)");
+  process.exit(2);
+}
+try {
+  auditKeyFromEnv(); // jobs write audit events: without the key they would fail one by one
+} catch (err) {
+  console.error(`worker: ${(err as Error).message}`);
   process.exit(2);
 }
 const num = (v: string | undefined, name: string): number | undefined => {
