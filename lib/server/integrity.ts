@@ -41,8 +41,8 @@ export const auditChainsCheck: IntegrityCheck = {
   async run(scope) {
     const report: AuditReport = await verifyAuditChains(scope.db, { key: scope.key, ...(scope.checkpoint ? { checkpoint: scope.checkpoint } : {}), ...(scope.groupIds ? { groupIds: scope.groupIds } : {}) });
     const summary = report.ok
-      ? `audit chains intact: ${report.chains.length} chain(s), ${report.checked} events signed and linked${scope.checkpoint ? ", none missing against the checkpoint" : " (no checkpoint given: the newest events are checked only against one)"}`
-      : `audit chains BROKEN: ${report.problems.length} problem(s); first: ${report.reason}`;
+      ? `audit chains intact: ${report.chains.length} ${report.chains.length === 1 ? "chain" : "chains"}, ${report.checked} events signed and linked${scope.checkpoint ? ", none missing against the checkpoint" : " (no checkpoint given: the newest events are checked only against one)"}`
+      : `audit chains BROKEN: ${report.problems.length} ${report.problems.length === 1 ? "problem" : "problems"}; first: ${report.reason}`;
     return { check: this.name, ok: report.ok, summary, problems: report.problems.map((p) => ({ where: p.eventId ? `event ${p.eventId}${p.seq !== null ? ` (seq ${p.seq})` : ""}` : p.groupId ?? "server", message: `[${p.kind}] ${p.message}` })), detail: report };
   },
 };

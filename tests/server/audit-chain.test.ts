@@ -69,7 +69,7 @@ describe("verifyAuditChains on untouched chains", () => {
     expect(a.checked).toBeGreaterThan(b.checked);
     const v = await cli(["audit", "verify", "--url", t.ownerUrl]);
     expect(v.code).toBe(0);
-    expect(v.out).toMatch(new RegExp(`audit chains intact: ${r.chains.length} chain\\(s\\), ${r.checked} events`));
+    expect(v.out).toMatch(new RegExp(`audit chains intact: ${r.chains.length} chains, ${r.checked} events`));
   });
 
   it("verifyGroup counts only the group's own events (what its owner sees)", async () => {

@@ -119,7 +119,7 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
       }
       const cp = await takeCheckpoint(db, t.key, groupIds ?? undefined);
       writeFileSync(out!, JSON.stringify(cp, null, 2) + "\n");
-      const summary = `wrote ${out}: heads of ${cp.heads.length} chain(s) (${cp.heads.map((h) => `${h.label} seq ${h.seq}`).join(", ") || "no events yet"}), signed with key ${cp.keyId}`;
+      const summary = `wrote ${out}: heads of ${cp.heads.length} ${cp.heads.length === 1 ? "chain" : "chains"} (${cp.heads.map((h) => `${h.label} seq ${h.seq}`).join(", ") || "no events yet"}), signed with key ${cp.keyId}`;
       io.out(getBoolean(args, "json") ? JSON.stringify({ out, checkpoint: cp }) : summary);
       return 0;
     }
