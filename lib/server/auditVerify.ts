@@ -134,13 +134,14 @@ function classifyUnsigned(rows: StoredEvent[], macOk: boolean[], i: number, key:
     add("inserted", r, `${where(r)} is not signed by the audit key and its neighbours link up without it: inserted`);
     return i;
   }
-  add("edited", r, `${where(r)} no longer matches its signature: edited after it was written`);
+  if (!after) add("edited", r, `${where(r)}, the newest, is not signed by the audit key: added past the app, or edited after it was written`);
+  else add("edited", r, `${where(r)} no longer matches its signature: edited after it was written`);
   return i;
 }
 
 /** The group ids (null = server-wide) that have audit events, with labels. */
 async function chainsOf(db: Db, groupId?: string | null): Promise<{ groupId: string | null; label: string }[]> {
-  const ids = groupId !== undefined ? [groupId] : (await db.auditEvent.findMany({ distinct: ["groupId"], select: { groupId: true } })).map((r) => r.groupId);
+  const ids = groupId !== undefined ? [groupId] : (await db.$queryRawUnsafe<{ g: string | null }[]>(`SELECT DISTINCT "groupId"::text AS g FROM "AuditEvent"`)).map((r) => r.g);
   const groups = await db.group.findMany({ where: { id: { in: ids.filter((x): x is string => x !== null) } }, select: { id: true, slug: true } });
   const slugs = new Map(groups.map((g) => [g.id, g.slug]));
   return ids.map((id) => ({ groupId: id, label: id === null ? "server" : `group ${slugs.get(id) ?? id}` }));

@@ -173,6 +173,20 @@ describe("verifyAuditChains on tampered chains", () => {
     expect(r.problems.slice(1).some((p) => p.kind === "reordered" && p.eventId === evs[2]!.id)).toBe(true);
   });
 
+  it("an event appended by the runtime role (which may INSERT) with a made-up signature is named", async () => {
+    const { t, sql, A } = await scenario();
+    const head = (await eventsOf(sql, A.groupId)).at(-1)!;
+    const runtime = new pg.Client({ connectionString: t.url });
+    await runtime.connect();
+    const { rows } = await runtime.query(
+      `INSERT INTO "AuditEvent" ("groupId", action, "objectType", "objectId", "prevHash", hash, seq, "keyId")
+       SELECT "groupId", 'revision.approve', 'revision', 'x', hash, md5('a') || md5('b'), seq + 1, "keyId" FROM "AuditEvent" WHERE id = $1 RETURNING id::text AS id`, [head.id]);
+    await runtime.end();
+    const r = await verifyAuditChains(t.db);
+    expect(r.problems).toEqual([expect.objectContaining({ kind: "edited", eventId: rows[0].id, seq: head.seq + 1, groupId: A.groupId })]);
+    expect(r.problems[0]!.message).toMatch(/the newest, is not signed by the audit key/);
+  });
+
   it("two events whose places were swapped are named as reordered", async () => {
     const { t, sql, A } = await scenario();
     const evs = await eventsOf(sql, A.groupId);
