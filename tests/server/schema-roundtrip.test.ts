@@ -1,7 +1,8 @@
 /**
  * schema.prisma and the SQL migrations agree: every model gets a record with every scalar field
  * set (optional ones too) through the generated client, and reads back equal. A column missing
- * from the migrations, or of another type, fails here.
+ * from the migrations, or of another type, fails here. Written as the owner: this checks the
+ * schema, not the runtime role's privileges (tests/security/db-roles.test.ts does).
  */
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import { readFileSync } from "node:fs";
@@ -77,7 +78,7 @@ describe("schema.prisma against the migrations", () => {
         if (rel) { data[f.name] = rel.relationTo === model.name ? null : (created.get(rel.relationTo!)!.id ?? null); continue; }
         data[f.name] = valueFor(f, enums, guard);
       }
-      const delegate = (t.db as unknown as Record<string, { create(a: unknown): Promise<Record<string, unknown>> }>)[model.name[0]!.toLowerCase() + model.name.slice(1)]!;
+      const delegate = (t.owner() as unknown as Record<string, { create(a: unknown): Promise<Record<string, unknown>> }>)[model.name[0]!.toLowerCase() + model.name.slice(1)]!;
       const row = await delegate.create({ data });
       for (const [k, v] of Object.entries(data)) {
         if (k === "updatedAt") continue; // @updatedAt is set by the client itself
