@@ -13,7 +13,7 @@ export const metadata: Metadata = { title: "Audit trail" };
 
 const short = (h: string | null) => (h ? `${h.slice(0, 10)}…` : "—");
 
-/** Owners: the group's append-only audit trail, newest first (?before=ID pages on), and the hash-chain check naming the first broken row. */
+/** Owners: the group's append-only audit trail, newest first (?before=ID pages on), and the verification of its own chain (and the other integrity checks) naming every problem. */
 export default async function AuditPage({ params, searchParams }: { params: Promise<{ slug: string }>; searchParams: Promise<{ before?: string }> }) {
   const { slug } = await params;
   const { before } = await searchParams;
@@ -42,7 +42,7 @@ export default async function AuditPage({ params, searchParams }: { params: Prom
       ))}
       <section className="sheet">
         <table data-testid="audit-events">
-          <thead><tr><th className="num">#</th><th>When</th><th>Who</th><th>Action</th><th>Object</th><th>Before → after</th><th>Row hash</th></tr></thead>
+          <thead><tr><th className="num">#</th><th>When</th><th>Who</th><th>Action</th><th>Object</th><th>Before → after</th><th>Signature</th></tr></thead>
           <tbody>
             {events.map((e) => (
               <tr key={e.id} className={broken.has(e.id) ? "rv-bad" : undefined}>
