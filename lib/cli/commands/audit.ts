@@ -22,7 +22,8 @@ import { PrismaClient } from "../../server/generated/prisma/client";
 import { auditKeyFromEnv, auditKeyFromText, type AuditKey } from "../../server/auditKey";
 import { checkpointHeads, readCheckpoint, takeCheckpoint } from "../../server/auditCheckpoint";
 import { runIntegrityChecks } from "../../server/integrity";
-import { runningEmbeddedUrls, startEmbeddedDatabase, type EmbeddedDatabase } from "../../server/db/embedded";
+import { runningEmbeddedUrls } from "../../server/db/embeddedUrls";
+import type { EmbeddedDatabase } from "../../server/db/embedded";
 
 const FLAGS: Record<string, FlagSpec> = {
   url: { kind: "string", meta: "URL", help: "the owner's PostgreSQL connection string (default: $HEATBOOK_OWNER_DATABASE_URL, then $DATABASE_URL)" },
@@ -62,6 +63,7 @@ async function target(args: ReturnType<typeof parseArgs>, io: CliIo): Promise<Ta
     const running = runningEmbeddedUrls(join(dataDir, "pg"), "heatbook", credentialsFile);
     if (running) url = running.ownerUrl;
     else {
+      const { startEmbeddedDatabase } = await import("../../server/db/embedded");
       embedded = await startEmbeddedDatabase({ dir: join(dataDir, "pg"), credentialsFile });
       url = embedded.ownerUrl;
     }

@@ -34,6 +34,9 @@ export default async function AuditPage({ params, searchParams }: { params: Prom
           : <>Chain broken: {chain.problems.length} problem{chain.problems.length === 1 ? "" : "s"} among this group&apos;s {chain.checked} events.</>}
         {!chain.ok && <ul>{chain.problems.slice(0, 20).map((p, i) => <li key={i}>{p.message}</li>)}</ul>}
       </div>
+      {verification.rechained.map((u) => (
+        <p key={u.belowId} className="muted small">Events before #{u.belowId} were written before each group had its own signed chain; they were checked and re-chained when this server was upgraded ({when(u.at)}).</p>
+      ))}
       {verification.findings.filter((f) => f.check !== "audit chains").map((f) => (
         <div key={f.check} className={f.ok ? "notice-ok" : "form-error"} role="status">
           {f.summary}
