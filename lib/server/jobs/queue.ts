@@ -1,6 +1,8 @@
 /**
  * The job queue: pg-boss (10.x, the newest line that runs on Node 20) in its own PostgreSQL
- * schema "pgboss", which pg-boss creates and migrates itself on start. The app only sends
+ * schema "pgboss", which pg-boss creates and migrates on start — as the database OWNER, in the
+ * start-up step (lib/server/db/prepare.ts), with every queue created there too, since the
+ * runtime role may not create tables; the app and workers then find it ready. The app only sends
  * (no supervision); `npm run worker` processes fetch with SKIP LOCKED, so each job goes to
  * one worker at a time, and supervise: an active job whose worker died is failed after its
  * expiry and retried by another worker.
