@@ -5,7 +5,7 @@
  * both with a decimal point and with a decimal comma. Neither is guessed: the table reports an
  * `ambiguity` and the caller asks the user to choose the delimiter and decimal mark.
  */
-import { splitCells } from "./cells";
+import { parseNumber, splitCells } from "./cells";
 import type { Format } from "./detect";
 import { isTextRow } from "./header";
 import type { Layout } from "./layout";
@@ -23,7 +23,8 @@ export function findAmbiguity(lines: readonly string[], format: Format, layout: 
   const header = headerMismatch(lines, format, layout, isComment);
   if (header) return header;
   const rival = format.runnerUp;
-  if (rival && rival.decimalComma !== format.decimalComma && rival.columnCount >= 2 && rival.score >= 0.9 * format.score) {
+  if (rival && rival.decimalComma !== format.decimalComma && rival.columnCount >= 2 && rival.score >= 0.9 * format.score
+    && readingsDiffer(lines, layout.dataStart, format, rival, isComment)) {
     return {
       kind: "two-readings",
       line: layout.dataStart + 1,
@@ -54,4 +55,26 @@ function headerMismatch(lines: readonly string[], format: Format, layout: Layout
     };
   }
   return undefined;
+}
+
+/** True when the two readings give different numbers on the first data lines (same numbers: no question). */
+function readingsDiffer(
+  lines: readonly string[], start: number, a: Pick<Format, "delimiter" | "decimalComma">, b: Pick<Format, "delimiter" | "decimalComma">,
+  isComment: (line: string) => boolean,
+): boolean {
+  let seen = 0;
+  for (let i = start; i < lines.length && seen < 200; i++) {
+    const line = lines[i]!;
+    if (line.trim() === "" || isComment(line)) continue;
+    seen++;
+    const ca = splitCells(line, a.delimiter);
+    const cb = splitCells(line, b.delimiter);
+    if (ca.length !== cb.length) return true;
+    for (let c = 0; c < ca.length; c++) {
+      const va = parseNumber(ca[c]!, a.decimalComma);
+      const vb = parseNumber(cb[c]!, b.decimalComma);
+      if (!(va === vb || (Number.isNaN(va) && Number.isNaN(vb)))) return true;
+    }
+  }
+  return false;
 }

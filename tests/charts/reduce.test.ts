@@ -1,0 +1,59 @@
+/** reduceForChart: per-pixel-column reduction keeps every bin's extremes (M4, Jugel et al. 2014). */
+import { describe, expect, it } from "vitest";
+import { pickPoints, reduceForChart } from "../../lib/charts/reduce";
+
+/** Park–Miller uniform deviates, seeded. */
+function uniform(seed: number): () => number {
+  let s = seed;
+  return () => (s = (s * 16807) % 2147483647) / 2147483647;
+}
+
+describe("reduceForChart", () => {
+  it("reduceForChart keeps every point when there are at most four per bin", () => {
+    expect(reduceForChart([1, 2, 3], [4, 5, 6], { bins: 1 })).toEqual([0, 1, 2]);
+  });
+
+  it("reduceForChart keeps, in every bin, the highest and lowest point of the full curve", () => {
+    const next = uniform(7);
+    const n = 100_000;
+    const xs = Array.from({ length: n }, (_, i) => 0.4 + (i / n) * 20);
+    const ys = xs.map((x) => 0.002 * x + 1e-4 * x ** 3 + (next() - 0.5) * 0.01);
+    ys[54_321] = 5; // a spike must survive
+    const bins = 600;
+    const keep = reduceForChart(xs, ys, { bins });
+    expect(keep.length).toBeLessThanOrEqual(4 * bins);
+    expect(keep).toContain(54_321);
+    const lo = xs[0]!;
+    const width = (xs[n - 1]! - lo) / bins;
+    const kept = new Set(keep);
+    for (let b = 0; b < bins; b += 37) {
+      let max = -Infinity, min = Infinity, argMax = -1, argMin = -1;
+      for (let i = 0; i < n; i++) {
+        if (Math.min(bins - 1, Math.floor((xs[i]! - lo) / width)) !== b) continue;
+        if (ys[i]! > max) [max, argMax] = [ys[i]!, i];
+        if (ys[i]! < min) [min, argMin] = [ys[i]!, i];
+      }
+      expect(kept.has(argMax)).toBe(true);
+      expect(kept.has(argMin)).toBe(true);
+    }
+    expect([...keep].every((v, i, a) => i === 0 || a[i - 1]! < v)).toBe(true);
+  });
+
+  it("reduceForChart bins on log x when asked and ignores non-finite points", () => {
+    const xs = Array.from({ length: 10_000 }, (_, i) => 10 ** (-1 + (3 * i) / 9999));
+    const ys = xs.map((x, i) => (i === 5 ? NaN : x));
+    const keep = reduceForChart(xs, ys, { bins: 100, logX: true });
+    expect(keep).not.toContain(5);
+    expect(keep.length).toBeGreaterThan(150);
+    expect(keep.length).toBeLessThanOrEqual(400);
+  });
+
+  it("reduceForChart refuses x and y of different lengths", () => {
+    expect(() => reduceForChart([1, 2], [1], { bins: 10 })).toThrow(RangeError);
+  });
+
+  it("pickPoints cuts T, C, σ and source lines to the same indices", () => {
+    const s = { temperatureK: [1, 2, 3], heatCapacity: [4, 5, 6], sigma: [0.1, 0.2, 0.3], sourceLines: [7, 8, 9], basis: "molar" as const };
+    expect(pickPoints(s, [0, 2])).toEqual({ temperatureK: [1, 3], heatCapacity: [4, 6], sigma: [0.1, 0.3], sourceLines: [7, 9], basis: "molar" });
+  });
+});
