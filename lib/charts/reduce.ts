@@ -54,3 +54,36 @@ export function pickPoints<S extends { temperatureK: readonly number[]; heatCapa
     ...(series.sourceLines ? { sourceLines: keep.map((i) => series.sourceLines![i]!) } : {}),
   };
 }
+
+/** How many screen columns a measurement's charts are reduced for (wider than any chart drawn). */
+export const SCREEN_BINS = 1500;
+
+/**
+ * A measurement reduced for its two charts (C vs T on linear and log axes, C/T vs T² over the
+ * whole range and over T ≤ each of `rangesK`): the union of the per-column reductions of every
+ * view, so each view keeps the extremes of each of its pixel columns. Below 4 × bins points the
+ * series is returned whole. `drawn` and `total` let the page say what it shows.
+ */
+export function reduceMeasurementForScreen<S extends { temperatureK: readonly number[]; heatCapacity: readonly number[]; sigma: readonly number[] | null; sourceLines?: readonly number[] }>(
+  series: S, options: { bins?: number; rangesK?: readonly number[] } = {},
+): { series: S; drawn: number; total: number } {
+  const bins = options.bins ?? SCREEN_BINS;
+  const n = series.temperatureK.length;
+  if (n <= 4 * bins) return { series, drawn: n, total: n };
+  const t = series.temperatureK;
+  const c = series.heatCapacity;
+  const t2 = Array.from(t, (x) => x * x);
+  const overT = Array.from(c, (y, i) => y / t[i]!);
+  const keep = new Set<number>();
+  for (const i of reduceForChart(t, c, { bins })) keep.add(i);
+  for (const i of reduceForChart(t, c, { bins, logX: true })) keep.add(i);
+  for (const i of reduceForChart(t2, overT, { bins })) keep.add(i);
+  for (const maxK of options.rangesK ?? [10, 5, 3]) {
+    const idx: number[] = [];
+    for (let i = 0; i < n; i++) if (t[i]! <= maxK) idx.push(i);
+    const sub = reduceForChart(idx.map((i) => t2[i]!), idx.map((i) => overT[i]!), { bins });
+    for (const j of sub) keep.add(idx[j]!);
+  }
+  const order = [...keep].sort((a, b) => a - b);
+  return { series: pickPoints(series, order), drawn: order.length, total: n };
+}

@@ -1,6 +1,6 @@
 /** reduceForChart: per-pixel-column reduction keeps every bin's extremes (M4, Jugel et al. 2014). */
 import { describe, expect, it } from "vitest";
-import { pickPoints, reduceForChart } from "../../lib/charts/reduce";
+import { pickPoints, reduceForChart, reduceMeasurementForScreen } from "../../lib/charts/reduce";
 
 /** Park–Miller uniform deviates, seeded. */
 function uniform(seed: number): () => number {
@@ -55,5 +55,28 @@ describe("reduceForChart", () => {
   it("pickPoints cuts T, C, σ and source lines to the same indices", () => {
     const s = { temperatureK: [1, 2, 3], heatCapacity: [4, 5, 6], sigma: [0.1, 0.2, 0.3], sourceLines: [7, 8, 9], basis: "molar" as const };
     expect(pickPoints(s, [0, 2])).toEqual({ temperatureK: [1, 3], heatCapacity: [4, 6], sigma: [0.1, 0.3], sourceLines: [7, 9], basis: "molar" });
+  });
+});
+
+describe("reduceMeasurementForScreen", () => {
+  it("reduceMeasurementForScreen sends a small measurement whole", () => {
+    const s = { temperatureK: [1, 2], heatCapacity: [1, 2], sigma: null, basis: "molar" as const };
+    expect(reduceMeasurementForScreen(s)).toEqual({ series: s, drawn: 2, total: 2 });
+  });
+
+  it("reduceMeasurementForScreen keeps each view's column extremes of a 100 000-point curve, including the low-T end of C/T vs T²", () => {
+    const next = uniform(11);
+    const n = 100_000;
+    const temperatureK = Array.from({ length: n }, (_, i) => 0.4 + (i / (n - 1)) * 299.6);
+    const heatCapacity = temperatureK.map((t) => (2e-3 * t + 1e-4 * t ** 3) * (1 + (next() - 0.5) * 0.01));
+    heatCapacity[120] *= 1.5; // an outlier at T ≈ 0.76 K, visible only in the T ≤ 3 K view of C/T vs T²
+    const s = { temperatureK, heatCapacity, sigma: null, sourceLines: temperatureK.map((_, i) => i + 2), basis: "molar" as const };
+    const r = reduceMeasurementForScreen(s, { bins: 500 });
+    expect(r.total).toBe(n);
+    expect(r.drawn).toBeLessThan(n / 5);
+    expect(r.series.temperatureK).toHaveLength(r.drawn);
+    expect(r.series.sourceLines).toContain(122);
+    const low = r.series.temperatureK.filter((t) => t <= 3).length;
+    expect(low).toBeGreaterThan(500);
   });
 });
