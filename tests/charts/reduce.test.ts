@@ -80,3 +80,15 @@ describe("reduceMeasurementForScreen", () => {
     expect(low).toBeGreaterThan(500);
   });
 });
+
+describe("overlayPlot", () => {
+  it("overlayPlot colours each measurement, names the axes with units and refuses mixed bases", async () => {
+    const { overlayPlot } = await import("../../lib/charts/overlay");
+    const mk = (label: string, f: number) => ({ label, basis: "molar" as const, temperatureK: [1, 2, 3], heatCapacity: [1, 2, 3].map((t) => f * (1e-3 * t + 1e-5 * t ** 3)) });
+    const o = overlayPlot([mk("0 T", 1), mk("2 T", 1.1)], { view: "ct-vs-t2", width: 500 });
+    expect((o.y as { label: string }).label).toBe("C/T (mJ mol⁻¹ K⁻²)");
+    expect((o.x as { label: string }).label).toBe("T² (K²)");
+    expect((o.color as { domain: string[] }).domain).toEqual(["0 T", "2 T"]);
+    expect(() => overlayPlot([mk("a", 1), { ...mk("b", 1), basis: "sample" as const }], { view: "c-vs-t" })).toThrow(/same basis/);
+  });
+});
