@@ -74,3 +74,31 @@ test("several files with one layout are previewed, mapped once and stored one by
   await expect(summary.getByRole("link", { name: "run-b" })).toBeVisible();
   await expect(summary).toContainText("30 points");
 });
+
+test("a 100 000-point measurement page draws both charts, reduced per pixel column, and says so", async ({ page, baseURL }) => {
+  await openSample(page);
+  const samplePath = new URL(page.url()).pathname;
+  const sampleId = samplePath.split("/").pop()!;
+  const rows = ["T (K),C (mJ/K)"];
+  for (let i = 0; i < 100_000; i++) {
+    const T = 0.4 + (i * 29.6) / 99_999;
+    rows.push(`${T.toPrecision(8)},${(2e-3 * T + 5e-5 * T ** 3).toPrecision(7)}`);
+  }
+  const res = await page.request.post(`/api/groups/cryogenic-calorimetry-lab-demo/samples/${sampleId}/measurements`, {
+    headers: { origin: baseURL! },
+    multipart: {
+      file: { name: "dense.csv", mimeType: "text/csv", buffer: Buffer.from(rows.join("\n")) },
+      options: JSON.stringify({ kind: "sample", label: "dense sweep (invented)", mapping: { temperature: 0, heatCapacity: 1 }, units: { temperature: "K", heatCapacity: "mJ/K" } }),
+    },
+  });
+  expect(res.status()).toBe(201);
+  const { measurement } = await res.json();
+  await page.goto(`${GROUP}/measurements/${measurement.id}`);
+  await expect(page.getByTestId("chart-c-vs-t").locator("svg").first()).toBeVisible();
+  await expect(page.getByTestId("chart-ct-vs-t2").locator("svg").first()).toBeVisible();
+  await expect(page.getByTestId("chart-reduced")).toContainText("100 000 points");
+  const dots = await page.getByTestId("chart-c-vs-t").locator("svg circle").count();
+  expect(dots).toBeGreaterThan(1000);
+  expect(dots).toBeLessThan(30_000);
+  await page.screenshot({ path: "test-results/measurement-100k.png", fullPage: true });
+});
