@@ -136,7 +136,7 @@ describe("upgrade of an old data folder in place", () => {
     await owner.end();
     await server.stop();
     server = null;
-    const env = Object.fromEntries(Object.entries(process.env).filter(([k]) => !k.startsWith("HEATBOOK_AUDIT_KEY")));
+    const env = Object.fromEntries(Object.entries(process.env).filter(([k]) => !k.startsWith("HEATBOOK_AUDIT_KEY"))) as NodeJS.ProcessEnv;
     const r = spawnSync(process.execPath, ["lib/cli/heatbook.js", "audit", "verify", "--data-dir", DIR], { env, encoding: "utf8", timeout: 120_000 });
     expect(r.stderr).toMatch(new RegExp(`event 3 \\(seq 2\\): \\[edited\\] group ${G1}: event 3 \\(seq 2\\) no longer matches its signature`));
     expect(r.status).toBe(1);
