@@ -33,18 +33,24 @@ afterAll(async () => { await src.drop(); await dst.drop(); rmSync(dir, { recursi
 describe("heatbook backup", () => {
   it("heatbook backup export then restore into an empty database verifies and exits 0", async () => {
     const file = join(dir, "group.hbk.gz");
-    const ex = io({ DATABASE_URL: src.url });
+    const key = process.env.HEATBOOK_AUDIT_KEY!;
+    const ex = io({ HEATBOOK_OWNER_DATABASE_URL: src.ownerUrl, HEATBOOK_AUDIT_KEY: key });
     expect(await main(["backup", "export", "--group", A.slug, "--out", file], ex.cli)).toBe(0);
     expect(ex.out[0]).toMatch(/AnalysisRevision 1/);
-    const re = io({ DATABASE_URL: dst.url });
+    const re = io({ HEATBOOK_OWNER_DATABASE_URL: dst.ownerUrl, HEATBOOK_AUDIT_KEY: key });
     expect(await main(["backup", "restore", file], re.cli)).toBe(0);
     expect(re.out[0]).toMatch(/audit chain verified identical .*sealed revisions verified \(1\)/);
-    const again = io({ DATABASE_URL: dst.url });
+    const again = io({ HEATBOOK_OWNER_DATABASE_URL: dst.ownerUrl, HEATBOOK_AUDIT_KEY: key });
     expect(await main(["backup", "restore", file], again.cli)).toBe(1);
     expect(again.err[0]).toMatch(/empty database/);
   });
-  it("heatbook backup without DATABASE_URL or --group exits 2", async () => {
-    expect(await main(["backup", "export", "--out", "x"], io({}).cli)).toBe(2);
-    expect(await main(["backup", "export", "--out", "x"], io({ DATABASE_URL: src.url }).cli)).toBe(2);
+  it("heatbook backup without a database URL, the audit key or --group exits 2 naming what is missing", async () => {
+    const none = io({});
+    expect(await main(["backup", "export", "--out", "x"], none.cli)).toBe(2);
+    expect(none.err[0]).toMatch(/HEATBOOK_OWNER_DATABASE_URL/);
+    const noKey = io({ HEATBOOK_OWNER_DATABASE_URL: src.ownerUrl });
+    expect(await main(["backup", "export", "--group", A.slug, "--out", "x"], noKey.cli)).toBe(2);
+    expect(noKey.err[0]).toMatch(/HEATBOOK_AUDIT_KEY/);
+    expect(await main(["backup", "export", "--out", "x"], io({ HEATBOOK_OWNER_DATABASE_URL: src.ownerUrl, HEATBOOK_AUDIT_KEY: process.env.HEATBOOK_AUDIT_KEY! }).cli)).toBe(2);
   });
 });

@@ -36,7 +36,12 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
     const [action, file, ...rest] = args.positionals;
     const url = io.env.HEATBOOK_OWNER_DATABASE_URL ?? io.env.DATABASE_URL;
     if (!url) throw new InputError("set HEATBOOK_OWNER_DATABASE_URL to the database (the owner's login)", { field: "HEATBOOK_OWNER_DATABASE_URL" });
-    const key = auditKeyFromEnv(io.env);
+    let key;
+    try {
+      key = auditKeyFromEnv(io.env);
+    } catch (err) {
+      throw new InputError((err as Error).message, { field: "HEATBOOK_AUDIT_KEY" });
+    }
     if (action === "export" && !file && !rest.length) {
       const group = getString(args, "group");
       const out = getString(args, "out");
