@@ -24,14 +24,17 @@ export interface FitCurveOptions {
 /** A ModelCore over a compiled expression. */
 export function expressionCore(c: CompiledExpression, units?: readonly string[]): ModelCore {
   const n = c.parameters.length;
-  const jac = c.jacobian;
+  let scratch = new Float64Array(0);
   return {
     label: c.text,
     names: c.parameters,
     units: units ?? new Array<string>(n).fill(""),
     linear: c.linear,
     evaluate: (x, p, out) => c.evaluate(x, p, out, 0),
-    jacobian: jac ? (x, p, out) => jac.forEach((d, j) => d(x, p, out, j * x.length)) : null,
+    jacobian: (x, p, out) => {
+      if (scratch.length !== x.length) scratch = new Float64Array(x.length);
+      c.valueAndJacobian(x, p, scratch, out);
+    },
   };
 }
 
