@@ -1,0 +1,118 @@
+/**
+ * Global starting values for nonlinear fits, then Levenberg–Marquardt over all parameters.
+ *
+ * The parameters that enter linearly (amplitudes) are solved exactly for each trial of the
+ * nonlinear ones θ (separable.ts). θ is searched either
+ *  - on a grid (registry models: axes from the data's temperature range, a few dimensions),
+ *    zoomed in around its best minima, or
+ *  - by a deterministic multi-start (user expressions, where no scale is known): Halton points
+ *    over magnitudes 10⁻⁶…10⁶ of both signs, plus the caller's own starts, each followed by a
+ *    reduced LM over θ.
+ * The best few end points (and any caller start, e.g. the model's guess) are polished by the
+ * full LM; the lowest χ² wins. The lowest χ² met anywhere in the search is handed to the fit,
+ * so a fit that ends above it is reported not converged (core.ts). The work is bounded by a
+ * budget of model evaluations (each over all points); the message says what was done.
+ */
+import { fitNonlinear, type CoreOptions, type ModelCore } from "./core";
+import type { FitResult } from "./result";
+import { gridSearch, projected, reducedFit, type Axis, type Candidate, type SeparableProblem } from "./separable";
+
+export interface GlobalSearch {
+  /** Free parameters entering linearly (indices into core.names). */
+  readonly linear: readonly number[];
+  /** Free parameters entering nonlinearly. */
+  readonly nonlinear: readonly number[];
+  /** One axis per nonlinear parameter for a grid search, or null for the multi-start. */
+  readonly axes: readonly Axis[] | null;
+  /** Full parameter vectors to try as well (model guess, the caller's start). */
+  readonly extraStarts: readonly Float64Array[];
+  /** Budget in model evaluations over all points (search only; the final LM has its own). */
+  readonly budget: number;
+}
+
+const GRID_POINTS: Record<number, number> = { 1: 121, 2: 31, 3: 11 };
+
+/** Fit with a global search for the start. See the module comment. */
+export function fitGlobal(core: ModelCore, x: Float64Array, y: Float64Array, sigma: Float64Array | null, opt: CoreOptions, search: GlobalSearch): FitResult {
+  const prob: SeparableProblem = { core, x, y, sigma, base: Float64Array.from(opt.start, (v, j) => (opt.fixed[j] ? v : 0)), linear: search.linear, nonlinear: search.nonlinear, lower: opt.lower, upper: opt.upper, evaluations: 0 };
+  const found = search.axes && search.axes.length <= 3 ? gridStage(prob, search.axes, search.budget) : multiStart(prob, search);
+  const starts: Float64Array[] = [...found.candidates.slice(0, 3).map((c) => c.p), ...search.extraStarts.filter((s) => s.every(Number.isFinite))];
+  const best = Math.min(found.bestSeen, ...found.candidates.map((c) => c.chi));
+  const where = found.candidates.length ? describe(core, search.nonlinear, found.candidates[0].p) : "";
+  const bestSeen = Number.isFinite(best) ? { chiSquare: best, where } : undefined;
+  let winner: FitResult | null = null;
+  for (const start of starts) {
+    const r = fitNonlinear(core, x, y, sigma, { ...opt, start, bestSeen });
+    if (!winner || chiOf(r) < chiOf(winner) || (chiOf(r) === chiOf(winner) && r.converged && !winner.converged)) winner = r;
+  }
+  if (!winner) return fitNonlinear(core, x, y, sigma, opt);
+  const note = `start from a global search (${found.how}; ${prob.evaluations} model evaluations), best of ${starts.length} local fits`;
+  return Object.freeze({ ...winner, message: `${winner.message}; ${note}` });
+}
+
+const chiOf = (r: FitResult) => r.chiSquare ?? Infinity;
+
+function describe(core: ModelCore, idx: readonly number[], p: Float64Array): string {
+  return idx.map((j) => `${core.names[j]} = ${Number(p[j].toPrecision(6))}`).join(", ");
+}
+
+function gridStage(prob: SeparableProblem, axes: readonly Axis[], budget: number) {
+  const d = axes.length;
+  const perPoint = prob.linear.length + 1;
+  // keep the grid within the budget: points^d × (amplitudes + 1) evaluations, zoom extra
+  const points = Math.max(5, Math.min(GRID_POINTS[d] ?? 7, Math.floor((budget / perPoint / 2) ** (1 / d))));
+  const keep = d === 1 ? 3 : 2;
+  const g = gridSearch(prob, axes, points, keep);
+  return { ...g, how: `grid of ${points}${d > 1 ? `^${d}` : ""} points over ${prob.nonlinear.map((j) => prob.core.names[j]).join(", ")}, zoomed around ${keep} minima, amplitudes solved exactly` };
+}
+
+/** Halton radical inverse of `i` in base `b`. */
+function halton(i: number, b: number): number {
+  let f = 1;
+  let r = 0;
+  for (let k = i; k > 0; k = Math.floor(k / b)) {
+    f /= b;
+    r += f * (k % b);
+  }
+  return r;
+}
+
+const PRIMES = [2, 3, 5, 7, 11, 13, 17, 19, 23, 29, 31, 37, 41, 43, 47, 53, 59, 61, 67, 71, 73, 79, 83, 89, 97, 101, 103, 107, 109, 113];
+
+/** Deterministic θ starts: the callers' values, all ones, then Halton points over sign × 10^[−6, 6]. */
+export function multiStartThetas(q: number, count: number): number[][] {
+  const out: number[][] = [new Array<number>(q).fill(1)];
+  for (let s = 1; out.length < count; s++) {
+    out.push(Array.from({ length: q }, (_, i) => {
+      const mag = 10 ** (12 * halton(s, PRIMES[(2 * i) % PRIMES.length]) - 6);
+      const sign = halton(s, PRIMES[(2 * i + 1) % PRIMES.length]) < 0.25 ? -1 : 1;
+      return sign * mag;
+    }));
+  }
+  return out;
+}
+
+function multiStart(prob: SeparableProblem, search: GlobalSearch) {
+  const q = prob.nonlinear.length;
+  const own = search.extraStarts.map((s) => prob.nonlinear.map((j) => s[j])).filter((t) => t.every(Number.isFinite));
+  const thetas = [...own, ...multiStartThetas(q, q <= 3 ? 48 : 64)];
+  const candidates: Candidate[] = [];
+  let bestSeen = Infinity;
+  let tried = 0;
+  const perFit = Math.max(40, Math.floor(search.budget / thetas.length / (prob.linear.length + 2)));
+  for (const theta of thetas) {
+    if (prob.evaluations >= search.budget) break;
+    tried++;
+    if (!Number.isFinite(projected(prob, theta).chi)) continue;
+    const c = reducedFit(prob, theta, Math.min(perFit, 200));
+    if (!Number.isFinite(c.chi)) continue;
+    bestSeen = Math.min(bestSeen, c.chi);
+    if (!candidates.some((o) => close(o, c, prob.nonlinear))) candidates.push(c);
+  }
+  candidates.sort((a, b) => a.chi - b.chi);
+  return { candidates, bestSeen, how: `${tried} of ${thetas.length} starts over ${prob.nonlinear.map((j) => prob.core.names[j]).join(", ")} with the linear parameters solved exactly` };
+}
+
+function close(a: Candidate, b: Candidate, idx: readonly number[]): boolean {
+  return idx.every((j) => Math.abs(a.p[j] - b.p[j]) <= 1e-6 * Math.max(Math.abs(a.p[j]), Math.abs(b.p[j])));
+}
