@@ -82,6 +82,8 @@ function fitLinear(core: ModelCore, x: Float64Array, y: Float64Array, sigma: Flo
       const f = new Float64Array(m);
       core.evaluate(x, values, f);
       for (let i = 0; i < m; i++) residuals[i] = y[i] - f[i];
+      const overflow = endPointProblem(residuals.reduce((s, r, i) => s + (r / (sigma ? sigma[i] : 1)) ** 2, 0), {});
+      if (overflow) return failed(core, x, y, sigma, opt, values, overflow);
       return buildFitResult({
         ...common(core, y, sigma, opt, values, atBound),
         method: "linear-qr",
@@ -138,7 +140,7 @@ function failed(core: ModelCore, x: Float64Array, y: Float64Array, sigma: Float6
 }
 
 /** Reasons the end point cannot be called a minimum, beyond what LM itself checks. */
-function endPointProblem(chi: number, opt: CoreOptions): string | null {
+function endPointProblem(chi: number, opt: Pick<CoreOptions, "bestSeen">): string | null {
   if (!Number.isFinite(chi)) return "χ² is not finite at the end point (overflow: values too large for double precision, or the model is not finite there)";
   const seen = opt.bestSeen;
   if (seen && chi > seen.chiSquare * (1 + 1e-9) + 1e-300) return `ended at χ² = ${chi.toPrecision(6)} although the search met χ² = ${seen.chiSquare.toPrecision(6)} at ${seen.where}: not the global minimum`;

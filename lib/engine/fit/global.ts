@@ -28,6 +28,8 @@ export interface GlobalSearch {
   readonly extraStarts: readonly Float64Array[];
   /** Budget in model evaluations over all points (search only; the final LM has its own). */
   readonly budget: number;
+  /** LM only from extraStarts (the caller's own start); the search only checks the end point. */
+  readonly startsOnly?: boolean;
 }
 
 const GRID_POINTS: Record<number, number> = { 1: 121, 2: 31, 3: 11 };
@@ -36,7 +38,8 @@ const GRID_POINTS: Record<number, number> = { 1: 121, 2: 31, 3: 11 };
 export function fitGlobal(core: ModelCore, x: Float64Array, y: Float64Array, sigma: Float64Array | null, opt: CoreOptions, search: GlobalSearch): FitResult {
   const prob: SeparableProblem = { core, x, y, sigma, base: Float64Array.from(opt.start, (v, j) => (opt.fixed[j] ? v : 0)), linear: search.linear, nonlinear: search.nonlinear, lower: opt.lower, upper: opt.upper, evaluations: 0 };
   const found = search.axes && search.axes.length <= 3 ? gridStage(prob, search.axes, search.budget) : multiStart(prob, search);
-  const starts: Float64Array[] = [...found.candidates.slice(0, 3).map((c) => c.p), ...search.extraStarts.filter((s) => s.every(Number.isFinite))];
+  const own = search.extraStarts.filter((s) => s.every(Number.isFinite));
+  const starts: Float64Array[] = search.startsOnly && own.length ? own : [...found.candidates.slice(0, 3).map((c) => c.p), ...own];
   const best = Math.min(found.bestSeen, ...found.candidates.map((c) => c.chi));
   const where = found.candidates.length ? describe(core, search.nonlinear, found.candidates[0].p) : "";
   const bestSeen = Number.isFinite(best) ? { chiSquare: best, where } : undefined;
@@ -46,7 +49,9 @@ export function fitGlobal(core: ModelCore, x: Float64Array, y: Float64Array, sig
     if (!winner || chiOf(r) < chiOf(winner) || (chiOf(r) === chiOf(winner) && r.converged && !winner.converged)) winner = r;
   }
   if (!winner) return fitNonlinear(core, x, y, sigma, opt);
-  const note = `start from a global search (${found.how}; ${prob.evaluations} model evaluations), best of ${starts.length} local fits`;
+  const note = search.startsOnly && own.length
+    ? `from the given start, checked against a global search (${found.how}; ${prob.evaluations} model evaluations)`
+    : `start from a global search (${found.how}; ${prob.evaluations} model evaluations), best of ${starts.length} local fits`;
   return Object.freeze({ ...winner, message: `${winner.message}; ${note}` });
 }
 

@@ -21,7 +21,8 @@ export const alphaModel: HeatCapacityModel = Object.freeze<HeatCapacityModel>({
     BETA,
   ],
   linear: false,
-  evaluate: (T: number, p: Params) => p.gammaN * p.tc * alphaModelReducedHeatCapacity(T / p.tc, p.alpha) + p.beta * T ** 3,
+  // the integral is skipped when γ_n = 0 (the global search reads the β column that way)
+  evaluate: (T: number, p: Params) => (p.gammaN === 0 ? 0 : p.gammaN * p.tc * alphaModelReducedHeatCapacity(T / p.tc, p.alpha)) + p.beta * T ** 3,
   guess: (data) => {
     let tc = data.temperatureK[0];
     let best = -Infinity;

@@ -1,5 +1,6 @@
 /** Heat-capacity models (one file per physical concept) and their registry. */
 export { MODELS, getModel } from "./registry";
+export { evaluateHeatCapacity, checkModelParameters } from "./evaluate";
 export type { HeatCapacityModel, ParameterSpec, ModelOptions, HeatCapacityData, Params, SeparableSpec } from "./types";
 export { temperatureSpan } from "./types";
 export { sommerfeld, sommerfeldT5, sommerfeldT7 } from "./sommerfeld";
