@@ -33,25 +33,44 @@ export interface GlobalSearch {
 }
 
 const GRID_POINTS: Record<number, number> = { 1: 121, 2: 31, 3: 11 };
+/** Points used by the search (spread evenly by index over larger data sets). */
+const SEARCH_POINTS = 256;
 
 /** Fit with a global search for the start. See the module comment. */
 export function fitGlobal(core: ModelCore, x: Float64Array, y: Float64Array, sigma: Float64Array | null, opt: CoreOptions, search: GlobalSearch): FitResult {
-  const prob: SeparableProblem = { core, x, y, sigma, base: Float64Array.from(opt.start, (v, j) => (opt.fixed[j] ? v : 0)), linear: search.linear, nonlinear: search.nonlinear, lower: opt.lower, upper: opt.upper, evaluations: 0 };
+  const m = x.length;
+  // the search and the first polish run on at most SEARCH_POINTS points spread over the data
+  const pick = m > SEARCH_POINTS ? Array.from({ length: SEARCH_POINTS }, (_, k) => Math.round((k * (m - 1)) / (SEARCH_POINTS - 1))) : null;
+  const sub = <T extends Float64Array | null>(a: T): T => (pick && a ? (Float64Array.from(pick, (i) => a[i]) as T) : a);
+  const [sx, sy, ss] = [sub(x), sub(y), sub(sigma)];
+  const base = Float64Array.from(opt.start, (v, j) => (opt.fixed[j] ? v : 0));
+  const prob: SeparableProblem = { core, x: sx, y: sy, sigma: ss, base, linear: search.linear, nonlinear: search.nonlinear, lower: opt.lower, upper: opt.upper, evaluations: 0 };
   const found = search.axes && search.axes.length <= 3 ? gridStage(prob, search.axes, search.budget) : multiStart(prob, search);
   const own = search.extraStarts.filter((s) => s.every(Number.isFinite));
-  const starts: Float64Array[] = search.startsOnly && own.length ? own : [...found.candidates.slice(0, 3).map((c) => c.p), ...own];
-  const best = Math.min(found.bestSeen, ...found.candidates.map((c) => c.chi));
+  const ownOnly = search.startsOnly === true && own.length > 0;
+  const starts: Float64Array[] = ownOnly ? own : [...found.candidates.slice(0, 3).map((c) => c.p), ...own];
   const where = found.candidates.length ? describe(core, search.nonlinear, found.candidates[0].p) : "";
-  const bestSeen = Number.isFinite(best) ? { chiSquare: best, where } : undefined;
+  const seenOn = (chi: number) => (Number.isFinite(chi) ? { chiSquare: chi, where } : undefined);
   let winner: FitResult | null = null;
-  for (const start of starts) {
-    const r = fitNonlinear(core, x, y, sigma, { ...opt, start, bestSeen });
-    if (!winner || chiOf(r) < chiOf(winner) || (chiOf(r) === chiOf(winner) && r.converged && !winner.converged)) winner = r;
+  if (!(pick && ownOnly)) {
+    const bestSeen = seenOn(Math.min(found.bestSeen, ...found.candidates.map((c) => c.chi)));
+    for (const start of starts) {
+      const r = fitNonlinear(core, sx, sy, ss, { ...opt, start, bestSeen });
+      if (!winner || chiOf(r) < chiOf(winner) || (chiOf(r) === chiOf(winner) && r.converged && !winner.converged)) winner = r;
+    }
+  }
+  if (pick) {
+    // polish on all points; "seen" is then the best search candidate re-solved on all points
+    const full: SeparableProblem = { ...prob, x, y, sigma, evaluations: 0 };
+    const seen = Math.min(...found.candidates.slice(0, 3).map((c) => projected(full, search.nonlinear.map((j) => c.p[j])).chi).filter(Number.isFinite));
+    const start = winner ? Float64Array.from(winner.parameters, (p) => p.value) : own[0];
+    winner = start ? fitNonlinear(core, x, y, sigma, { ...opt, start, bestSeen: seenOn(seen) }) : null;
   }
   if (!winner) return fitNonlinear(core, x, y, sigma, opt);
-  const note = search.startsOnly && own.length
-    ? `from the given start, checked against a global search (${found.how}; ${prob.evaluations} model evaluations)`
-    : `start from a global search (${found.how}; ${prob.evaluations} model evaluations), best of ${starts.length} local fits`;
+  const on = pick ? ` on ${SEARCH_POINTS} of the ${m} points` : "";
+  const note = ownOnly
+    ? `from the given start, checked against a global search${on} (${found.how}; ${prob.evaluations} model evaluations)`
+    : `start from a global search${on} (${found.how}; ${prob.evaluations} model evaluations), best of ${starts.length} local fits`;
   return Object.freeze({ ...winner, message: `${winner.message}; ${note}` });
 }
 
