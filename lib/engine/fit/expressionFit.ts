@@ -60,5 +60,5 @@ export function fitExpression(c: CompiledExpression, x: Float64Array, y: Float64
   const rescued = fitGlobal(core, x, y, sigma, opt, { ...search, extraStarts: [start] });
   const better = (rescued.chiSquare ?? Infinity) < (first.chiSquare ?? Infinity) || (rescued.converged && rescued.chiSquare === first.chiSquare);
   const chosen = better ? rescued : first;
-  return Object.freeze({ ...chosen, message: `the given start ended without convergence (${first.message}); ${better ? "" : "the global search found nothing lower; "}${chosen === rescued ? rescued.message : first.message}` });
+  return Object.freeze({ ...chosen, evaluations: first.evaluations + rescued.evaluations, message: `the given start ended without convergence (${first.message}); ${better ? "" : "the global search found nothing lower; "}${chosen === rescued ? rescued.message : first.message}` });
 }

@@ -11,7 +11,9 @@
  * The best few end points (and any caller start, e.g. the model's guess) are polished by the
  * full LM; the lowest χ² wins. The lowest χ² met anywhere in the search is handed to the fit,
  * so a fit that ends above it is reported not converged (core.ts). The work is bounded by a
- * budget of model evaluations (each over all points); the message says what was done.
+ * budget of model evaluations (each over all points); the message says what was done, and the
+ * result's `evaluations` counts every model evaluation spent (search and local fits). Data sets
+ * larger than SEARCH_POINTS are searched on an even subset, then polished on all points.
  */
 import { fitNonlinear, type CoreOptions, type ModelCore } from "./core";
 import type { FitResult } from "./result";
@@ -52,26 +54,30 @@ export function fitGlobal(core: ModelCore, x: Float64Array, y: Float64Array, sig
   const where = found.candidates.length ? describe(core, search.nonlinear, found.candidates[0].p) : "";
   const seenOn = (chi: number) => (Number.isFinite(chi) ? { chiSquare: chi, where } : undefined);
   let winner: FitResult | null = null;
+  let lmEvaluations = 0;
   if (!(pick && ownOnly)) {
     const bestSeen = seenOn(Math.min(found.bestSeen, ...found.candidates.map((c) => c.chi)));
     for (const start of starts) {
       const r = fitNonlinear(core, sx, sy, ss, { ...opt, start, bestSeen });
+      lmEvaluations += r.evaluations;
       if (!winner || chiOf(r) < chiOf(winner) || (chiOf(r) === chiOf(winner) && r.converged && !winner.converged)) winner = r;
     }
   }
+  const full: SeparableProblem = { ...prob, x, y, sigma, evaluations: 0 };
   if (pick) {
     // polish on all points; "seen" is then the best search candidate re-solved on all points
-    const full: SeparableProblem = { ...prob, x, y, sigma, evaluations: 0 };
     const seen = Math.min(...found.candidates.slice(0, 3).map((c) => projected(full, search.nonlinear.map((j) => c.p[j])).chi).filter(Number.isFinite));
     const start = winner ? Float64Array.from(winner.parameters, (p) => p.value) : own[0];
     winner = start ? fitNonlinear(core, x, y, sigma, { ...opt, start, bestSeen: seenOn(seen) }) : null;
+    lmEvaluations += winner?.evaluations ?? 0;
   }
   if (!winner) return fitNonlinear(core, x, y, sigma, opt);
   const on = pick ? ` on ${SEARCH_POINTS} of the ${m} points` : "";
   const note = ownOnly
     ? `from the given start, checked against a global search${on} (${found.how}; ${prob.evaluations} model evaluations)`
     : `start from a global search${on} (${found.how}; ${prob.evaluations} model evaluations), best of ${starts.length} local fits`;
-  return Object.freeze({ ...winner, message: `${winner.message}; ${note}` });
+  // evaluations: everything spent, search and every local fit (Jacobians not counted)
+  return Object.freeze({ ...winner, evaluations: prob.evaluations + lmEvaluations + (pick ? full.evaluations : 0), message: `${winner.message}; ${note}` });
 }
 
 const chiOf = (r: FitResult) => r.chiSquare ?? Infinity;
