@@ -6,8 +6,9 @@
  *  - some start is missing: the global multi-start (linear parameters solved exactly inside
  *    the search, the rest from deterministic starts across magnitudes).
  * Linear parameters never need a start (solved exactly at the start of the others).
- * The search budget scales inversely with points × compiled size, so large expressions on
- * many points do proportionally fewer trials (bounded work).
+ * The search budget and each local fit's evaluation limit scale inversely with points ×
+ * compiled size, so large expressions on many points do proportionally less (bounded work:
+ * about a second on a slow core); a fit stopped by that limit says converged: false.
  */
 import type { CompiledExpression } from "../expression/compile";
 import { fitCore, type CoreOptions, type ModelCore } from "./core";
@@ -40,8 +41,18 @@ export function searchBudget(c: CompiledExpression, m: number): number {
   return Math.max(300, Math.min(40000, Math.floor(WORK / (m * (c.derivativeTerms + 8)))));
 }
 
+/** Work of one local fit in point × compiled-term units (≈ 0.3 s: a Jacobian pass costs ~10 ns per unit). */
+const LM_WORK = 2e7;
+
+/** Evaluation limit of each local LM fit of `c` on m points (at most the usual 2 000). */
+export function localFitLimit(c: CompiledExpression, m: number): number {
+  return Math.max(30, Math.min(2000, Math.floor(LM_WORK / (m * (c.derivativeTerms + 8)))));
+}
+
 /** Fit `c` with start values `opt.start` (NaN = none given). */
-export function fitExpression(c: CompiledExpression, x: Float64Array, y: Float64Array, sigma: Float64Array | null, opt: CoreOptions): FitResult {
+export function fitExpression(c: CompiledExpression, x: Float64Array, y: Float64Array, sigma: Float64Array | null, opt0: CoreOptions): FitResult {
+  const limit = Math.min(opt0.lm?.maxEvaluations ?? 2000, localFitLimit(c, x.length));
+  const opt: CoreOptions = { ...opt0, lm: { ...opt0.lm, maxEvaluations: limit } };
   const core = expressionCore(c);
   if (c.linear) return fitCore(core, x, y, sigma, opt);
   const free = c.parameters.map((_, j) => j).filter((j) => !opt.fixed[j]);
