@@ -40,6 +40,19 @@ describe("global start where the model's guess alone fails", () => {
   });
 });
 
+describe("user expressions without a start", () => {
+  it("fitHeatCapacity({expression: a user's two-level Schottky}) without a start finds the gap by the multi-start (γ, β, n solved exactly)", () => {
+    const truth = { gamma: 3e-3, beta: 2e-4, n: 5e-3, gap: 1.5, g: 1 };
+    const d = data("schottky", truth, 0.3, 10);
+    const r = fitHeatCapacity(d, { model: { expression: "g*T + b*T^3 + n*8.314462618*(D/T)^2*exp(-D/T)/(1+exp(-D/T))^2" } });
+    expect(r.converged, r.message).toBe(true);
+    expect(r.message).toMatch(/global search \(\d+ of \d+ starts over D with the linear parameters solved exactly/);
+    const D = r.parameters.find((p) => p.name === "D")!;
+    expect(Math.abs(D.value - 1.5)).toBeLessThan(5 * D.stdError!);
+    expect(r.reducedChiSquare!).toBeLessThan(1.5);
+  });
+});
+
 describe("a fit that ends where a better minimum was seen is not converged", () => {
   it("fitHeatCapacity(einstein, start Θ_E = 1000 K) ends on a worse minimum and says converged:false, naming the lower χ² of the search", () => {
     const d = data("einstein", { gamma: 2e-3, beta: 1e-4, nE: 0.3, thetaE: 60 }, 2, 40);
