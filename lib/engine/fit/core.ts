@@ -34,7 +34,7 @@ export interface CoreOptions {
    * Lowest χ² met by a search before this fit (global start): a fit that ends above it is
    * not a verified minimum and is reported converged: false with a warning.
    */
-  readonly bestSeen?: { readonly chiSquare: number; readonly where: string };
+  readonly bestSeen?: { readonly chiSquare: number; readonly where: string; /** Σ δ_i² of the rounding δ_i in evaluating each weighted residual. */ readonly floor?: number };
 }
 
 /** Fit `core` to (x, y, σ). Never throws for a poor fit; the result says what happened. */
@@ -143,7 +143,9 @@ function failed(core: ModelCore, x: Float64Array, y: Float64Array, sigma: Float6
 function endPointProblem(chi: number, opt: Pick<CoreOptions, "bestSeen">): string | null {
   if (!Number.isFinite(chi)) return "χ² is not finite at the end point (overflow: values too large for double precision, or the model is not finite there)";
   const seen = opt.bestSeen;
-  if (seen && chi > seen.chiSquare * (1 + 1e-9) + 1e-300) return `ended at χ² = ${chi.toPrecision(6)} although the search met χ² = ${seen.chiSquare.toPrecision(6)} at ${seen.where}: not the global minimum`;
+  // rounding δ changes χ² by up to 2‖r‖‖δ‖ + ‖δ‖² (Cauchy–Schwarz): not a lower minimum
+  const rounding = seen?.floor ? 2 * Math.sqrt(seen.chiSquare * seen.floor) + seen.floor : 0;
+  if (seen && chi > seen.chiSquare * (1 + 1e-9) + rounding + 1e-300) return `ended at χ² = ${chi.toPrecision(6)} although the search met χ² = ${seen.chiSquare.toPrecision(6)} at ${seen.where}: not the global minimum`;
   return null;
 }
 

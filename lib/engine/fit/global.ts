@@ -52,11 +52,11 @@ export function fitGlobal(core: ModelCore, x: Float64Array, y: Float64Array, sig
   const ownOnly = search.startsOnly === true && own.length > 0;
   const starts: Float64Array[] = ownOnly ? own : [...found.candidates.slice(0, 3).map((c) => c.p), ...own];
   const where = found.candidates.length ? describe(core, search.nonlinear, found.candidates[0].p) : "";
-  const seenOn = (chi: number) => (Number.isFinite(chi) ? { chiSquare: chi, where } : undefined);
+  const seenOn = (chi: number, yy: Float64Array, s: Float64Array | null) => (Number.isFinite(chi) ? { chiSquare: chi, where, floor: roundingFloor(yy, s) } : undefined);
   let winner: FitResult | null = null;
   let lmEvaluations = 0;
   if (!(pick && ownOnly)) {
-    const bestSeen = seenOn(Math.min(found.bestSeen, ...found.candidates.map((c) => c.chi)));
+    const bestSeen = seenOn(Math.min(found.bestSeen, ...found.candidates.map((c) => c.chi)), sy, ss);
     for (const start of starts) {
       const r = fitNonlinear(core, sx, sy, ss, { ...opt, start, bestSeen });
       lmEvaluations += r.evaluations;
@@ -68,7 +68,7 @@ export function fitGlobal(core: ModelCore, x: Float64Array, y: Float64Array, sig
     // polish on all points; "seen" is then the best search candidate re-solved on all points
     const seen = Math.min(...found.candidates.slice(0, 3).map((c) => projected(full, search.nonlinear.map((j) => c.p[j])).chi).filter(Number.isFinite));
     const start = winner ? Float64Array.from(winner.parameters, (p) => p.value) : own[0];
-    winner = start ? fitNonlinear(core, x, y, sigma, { ...opt, start, bestSeen: seenOn(seen) }) : null;
+    winner = start ? fitNonlinear(core, x, y, sigma, { ...opt, start, bestSeen: seenOn(seen, y, sigma) }) : null;
     lmEvaluations += winner?.evaluations ?? 0;
   }
   if (!winner) return fitNonlinear(core, x, y, sigma, opt);
@@ -81,6 +81,13 @@ export function fitGlobal(core: ModelCore, x: Float64Array, y: Float64Array, sig
 }
 
 const chiOf = (r: FitResult) => r.chiSquare ?? Infinity;
+
+/** Σ(8ε|y_i|/σ_i)²: the squared rounding of the weighted residuals (a few ulp of y each). */
+function roundingFloor(y: Float64Array, sigma: Float64Array | null): number {
+  let s = 0;
+  for (let i = 0; i < y.length; i++) s += ((8 * Number.EPSILON * Math.abs(y[i])) / (sigma ? sigma[i] : 1)) ** 2;
+  return s;
+}
 
 function describe(core: ModelCore, idx: readonly number[], p: Float64Array): string {
   return idx.map((j) => `${core.names[j]} = ${Number(p[j].toPrecision(6))}`).join(", ");
