@@ -116,23 +116,39 @@ function halton(i: number, b: number): number {
 
 const PRIMES = [2, 3, 5, 7, 11, 13, 17, 19, 23, 29, 31, 37, 41, 43, 47, 53, 59, 61, 67, 71, 73, 79, 83, 89, 97, 101, 103, 107, 109, 113];
 
-/** Deterministic θ starts: the callers' values, all ones, then Halton points over sign × 10^[−6, 6]. */
-export function multiStartThetas(q: number, count: number): number[][] {
+/**
+ * Deterministic θ starts: all ones, then Halton points alternately over sign × 10^[−6, 6] and
+ * over the data's own scale (|x| from a tenth of the smallest to ten times the largest, or its
+ * reciprocal: the magnitudes of a centre, width or rate in x).
+ */
+export function multiStartThetas(q: number, count: number, xScale?: readonly [number, number]): number[][] {
   const out: number[][] = [new Array<number>(q).fill(1)];
+  const [lo, hi] = xScale && xScale[0] > 0 && xScale[1] >= xScale[0] ? [Math.log10(xScale[0]) - 1, Math.log10(xScale[1]) + 1] : [-6, 6];
   for (let s = 1; out.length < count; s++) {
+    const scaled = s % 2 === 0 && xScale !== undefined;
     out.push(Array.from({ length: q }, (_, i) => {
-      const mag = 10 ** (12 * halton(s, PRIMES[(2 * i) % PRIMES.length]) - 6);
-      const sign = halton(s, PRIMES[(2 * i + 1) % PRIMES.length]) < 0.25 ? -1 : 1;
-      return sign * mag;
+      const h = halton(s, PRIMES[(3 * i) % PRIMES.length]);
+      const sign = halton(s, PRIMES[(3 * i + 1) % PRIMES.length]) < 0.25 ? -1 : 1;
+      if (!scaled) return sign * 10 ** (12 * h - 6);
+      const mag = 10 ** (lo + (hi - lo) * h);
+      return sign * (halton(s, PRIMES[(3 * i + 2) % PRIMES.length]) < 0.5 ? mag : 1 / mag);
     }));
   }
   return out;
 }
 
+/** Smallest and largest non-zero |x|. */
+function scaleOf(x: Float64Array): [number, number] | undefined {
+  let lo = Infinity;
+  let hi = 0;
+  for (const v of x) if (v !== 0) [lo, hi] = [Math.min(lo, Math.abs(v)), Math.max(hi, Math.abs(v))];
+  return hi > 0 ? [lo, hi] : undefined;
+}
+
 function multiStart(prob: SeparableProblem, search: GlobalSearch) {
   const q = prob.nonlinear.length;
   const own = search.extraStarts.map((s) => prob.nonlinear.map((j) => s[j])).filter((t) => t.every(Number.isFinite));
-  const thetas = [...own, ...multiStartThetas(q, q <= 3 ? 48 : 64)];
+  const thetas = [...own, ...multiStartThetas(q, q <= 3 ? 48 : 64, scaleOf(prob.x))];
   const candidates: Candidate[] = [];
   let bestSeen = Infinity;
   let tried = 0;
