@@ -58,7 +58,7 @@ describe("a fit that ends where a better minimum was seen is not converged", () 
     const d = data("einstein", { gamma: 2e-3, beta: 1e-4, nE: 0.3, thetaE: 60 }, 2, 40);
     const r = fitHeatCapacity(d, { model: "einstein", start: { thetaE: 1000 } });
     expect(r.converged).toBe(false);
-    expect(r.warnings.join(" ")).toMatch(/not converged: ended at χ² = .* although the search met χ² = .* at thetaE = 60\.\d*: not the global minimum/);
+    expect(r.warnings.join(" ")).toMatch(/not converged: ended at χ² = .* although the search met χ² = .* at thetaE = 60\.\d* K: not the global minimum/);
     expect(r.parameters.every((p) => p.stdError === null)).toBe(true);
   });
   it("fitHeatCapacity(einstein, start near the truth) converges and says it was checked against the search", () => {

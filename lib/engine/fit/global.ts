@@ -90,7 +90,7 @@ function roundingFloor(y: Float64Array, sigma: Float64Array | null): number {
 }
 
 function describe(core: ModelCore, idx: readonly number[], p: Float64Array): string {
-  return idx.map((j) => `${core.names[j]} = ${Number(p[j].toPrecision(6))}`).join(", ");
+  return idx.map((j) => `${core.names[j]} = ${Number(p[j].toPrecision(6))}${core.units[j] && core.units[j] !== "1" ? ` ${core.units[j]}` : ""}`).join(", ");
 }
 
 function gridStage(prob: SeparableProblem, axes: readonly Axis[], budget: number) {
