@@ -67,7 +67,7 @@ export function fitExpression(c: CompiledExpression, x: Float64Array, y: Float64
     if (!start.every(Number.isFinite)) return fitGlobal(core, x, y, sigma, opt, { ...search, extraStarts: [] });
   }
   const first = fitCore(core, x, y, sigma, { ...opt, start });
-  if (first.converged) return first;
+  if (first.converged || nonlinear.length === 0) return first;
   const rescued = fitGlobal(core, x, y, sigma, opt, { ...search, extraStarts: [start] });
   const better = (rescued.chiSquare ?? Infinity) < (first.chiSquare ?? Infinity) || (rescued.converged && rescued.chiSquare === first.chiSquare);
   const chosen = better ? rescued : first;
