@@ -1,7 +1,8 @@
 /**
- * Residual γ of a gapped superconductor (lib/engine/superconductor/residual.ts) on seeded
- * synthetic data, invented for the test: C = γ_r T + (γ_n − γ_r) T_c c_α(T/T_c) + βT³ with the
- * α-model c_α of lib/engine/models (weak-coupling BCS for α = 1.764), noise relative to C.
+ * Residual γ of a superconductor (lib/engine/superconductor/residual.ts) on seeded synthetic
+ * data, invented for the test: C = γ_r T + (γ_n − γ_r) T_c c_α(T/T_c) + βT³ with the α-model c_α
+ * of lib/engine/models (weak-coupling BCS for α = 1.764), noise relative to C; and a power-law
+ * state C_es = 3(γ_n − γ_r) T_c (T/T_c)³ (entropy-conserving, as for point nodes).
  * Truth: T_c = 10 K, γ_n = 5 mJ mol⁻¹ K⁻², β = 0.2 mJ mol⁻¹ K⁻⁴, γ_r/γ_n as given per case.
  */
 import { describe, it, expect } from "vitest";
@@ -49,6 +50,18 @@ describe("residual γ of a gapped superconductor", () => {
       expect(Math.abs(f.value - 0.1)).toBeLessThanOrEqual(3 * f.stdError!);
       expect(f.stdError!).toBeLessThan(0.02);
       expect(r.gammaResidual!.note).toMatch(/T\^\(−5\/2\) e\^\(−Δ\/T\)/);
+    });
+  }
+
+  for (const seed of [1, 2]) {
+    it(`analyzeJump on a power-law superconducting state (C_es ∝ T³, nodes; 5 % normal fraction, seed ${seed}) chooses the line in T² by AICc and finds γ_r within 3σ`, () => {
+      const z = seededNormal(seed);
+      const T = Array.from({ length: 300 }, (_, i) => 0.6 + 0.05 * i);
+      const clean = T.map((t) => (t >= TC ? GN * t : 0.05 * GN * t + 0.95 * GN * 3 * TC * (t / TC) ** 3) + BETA * t ** 3);
+      const r = analyzeJump({ ...data(0, BCS_GAP_RATIO, 0, 1), heatCapacityJPerMolK: clean.map((c) => c * (1 + 0.003 * z())), stdErrorJPerMolK: clean.map((c) => 0.003 * c) });
+      const g = r.gammaResidual!;
+      expect(g.note).toMatch(/power law; lower AICc/);
+      expect(Math.abs(g.value - 0.05 * GN * 1e3)).toBeLessThanOrEqual(3 * g.stdError!);
     });
   }
 
