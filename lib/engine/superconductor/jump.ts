@@ -38,7 +38,7 @@ export interface JumpInput {
   readonly window?: Partial<Windows>;
   /** Degree of the superconducting-branch polynomial; default 2. */
   readonly branchDegree?: 1 | 2;
-  /** γ_r from a gapped fit to T ≤ fraction × T_c (residual.ts); default 0.4. */
+  /** γ_r from the fits of residual.ts (gapped form or line in T², by AICc) at T ≤ fraction × T_c; default 0.4. */
   readonly residualBelowFraction?: number;
 }
 
