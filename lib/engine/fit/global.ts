@@ -41,6 +41,7 @@ const SEARCH_POINTS = 256;
 /** Fit with a global search for the start. See the module comment. */
 export function fitGlobal(core: ModelCore, x: Float64Array, y: Float64Array, sigma: Float64Array | null, opt: CoreOptions, search: GlobalSearch): FitResult {
   const m = x.length;
+  if (m < opt.fixed.filter((f) => !f).length || search.nonlinear.length === 0) return fitNonlinear(core, x, y, sigma, opt);
   // the search and the first polish run on at most SEARCH_POINTS points spread over the data
   const pick = m > SEARCH_POINTS ? Array.from({ length: SEARCH_POINTS }, (_, k) => Math.round((k * (m - 1)) / (SEARCH_POINTS - 1))) : null;
   const sub = <T extends Float64Array | null>(a: T): T => (pick && a ? (Float64Array.from(pick, (i) => a[i]) as T) : a);

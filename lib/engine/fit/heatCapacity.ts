@@ -170,7 +170,7 @@ function registrySearch(model: HeatCapacityModel, data: { temperatureK: Float64A
   const linear = free.filter((j) => spec.linear.includes(names[j]));
   const nonlinear = free.filter((j) => !linear.includes(j));
   const ranges = spec.ranges(data, { r: options.r });
-  if (nonlinear.some((j) => !ranges[names[j]])) return null;
+  if (nonlinear.length === 0 || nonlinear.some((j) => !ranges[names[j]])) return null;
   const axes = nonlinear.map((j) => {
     const [lo, hi] = ranges[names[j]];
     return { lo: Math.max(lo, lower[j]), hi: Math.min(hi, upper[j]) };
