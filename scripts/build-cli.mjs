@@ -12,18 +12,21 @@
 import { build } from "esbuild";
 import { fileURLToPath } from "node:url";
 import { dirname, join, relative, resolve } from "node:path";
-import { rmSync } from "node:fs";
+import { renameSync, rmSync } from "node:fs";
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), "..");
 
 /** Build into `outDir` (default lib/cli/dist); resolves with the entry file's path. */
 export async function buildCli({ outDir = join(root, "lib/cli/dist"), quiet = false } = {}) {
   const started = performance.now();
-  rmSync(outDir, { recursive: true, force: true });
+  // Build beside the target, then swap it in, so a running `heatbook` never sees half a build.
+  const fresh = `${outDir}.build-${process.pid}`;
+  const stale = `${outDir}.old-${process.pid}`;
+  rmSync(fresh, { recursive: true, force: true });
   await build({
     absWorkingDir: root,
     entryPoints: { main: join(root, "lib/cli/main.ts") },
-    outdir: outDir,
+    outdir: fresh,
     bundle: true,
     splitting: true,
     format: "esm",
@@ -35,6 +38,14 @@ export async function buildCli({ outDir = join(root, "lib/cli/dist"), quiet = fa
     legalComments: "none",
     logLevel: "warning",
   });
+  rmSync(stale, { recursive: true, force: true });
+  try {
+    renameSync(outDir, stale);
+  } catch (e) {
+    if (e.code !== "ENOENT") throw e;
+  }
+  renameSync(fresh, outDir);
+  rmSync(stale, { recursive: true, force: true });
   if (!quiet) console.log(`heatbook CLI built into ${relative(root, outDir) || "."} in ${Math.round(performance.now() - started)} ms`);
   return join(outDir, "main.js");
 }
