@@ -70,7 +70,7 @@ describe("heatbook entropy", () => {
   it("heatbook entropy prints a readable table and --csv prints every row", async () => {
     const text = await runCli(["entropy", "m.csv", "--fit-t-max", "3"], { "m.csv": file(7) });
     expect(text.code, text.err).toBe(0);
-    expect(text.out).toMatch(/S\(20 K\)\s+0\.0\d+\(\d+\)\s+J mol\^-1 K\^-1/);
+    expect(text.out).toMatch(/S\(20 K\)\s+0\.0\d+\(\d+\)\s+J mol⁻¹ K⁻¹/);
     expect(text.out).toMatch(/every 20th of 391 rows/);
     const csv = await runCli(["entropy", "m.csv", "--fit-t-max", "3", "--csv"], { "m.csv": file(7) });
     const lines = csv.out.trim().split("\n");

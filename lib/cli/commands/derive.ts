@@ -10,6 +10,7 @@ import { InputError } from "../../engine/errors";
 import { parseFormula, electronsPerFormulaUnit } from "../../engine/chemistry";
 import { deriveAll, type DeriveInput, type Measured, type LatticeSpec, type MolarSusceptibilityUnit } from "../../engine/derived";
 import { formatUncertainty } from "../../engine/units";
+import { prettyUnit } from "../format";
 
 const FLAGS: Record<string, FlagSpec> = {
   gamma: { kind: "string", meta: "V[±S]", help: "Sommerfeld γ [mJ mol^-1 K^-2] per mole formula unit (required)" },
@@ -118,7 +119,7 @@ function table(input: DeriveInput, basis: string, quantities: ReturnType<typeof 
   const head = `${f.label}: r = ${f.atomsPerFormulaUnit} atoms/f.u., M = ${f.molarMassGPerMol.toFixed(4)} g/mol, z = ${f.electronsPerFormulaUnit} e/f.u.; per ${basis === "atom" ? "mole of atoms" : "mole formula unit"}`;
   const rows = quantities.map((q) => {
     const shown = formatUncertainty(q.value, q.stdError, { plainDigits: 4 });
-    return `  ${q.symbol.padEnd(22)} ${shown.padStart(16)}  ${q.unit}`;
+    return `  ${q.symbol.padEnd(22)} ${shown.padStart(16)}  ${prettyUnit(q.unit)}`.trimEnd();
   });
   const warn = warnings.map((w) => `warning: ${w}`);
   return [head, ...rows, ...warn].join("\n");

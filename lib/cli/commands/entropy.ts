@@ -16,6 +16,7 @@ import { InputError } from "../../engine/errors";
 import { entropyFromData, enthalpyFromData, type IntegratedCurve } from "../../engine/thermo";
 import { quantity, type Quantity } from "../../engine/uncertainty";
 import { formatUncertainty } from "../../engine/units";
+import { prettyUnit } from "../format";
 import { DATA_FLAGS, describeWeighting, loadHeatCapacity, sortedByTemperature } from "../data";
 import { fittedFit, givenFit, type SommerfeldFit } from "../lowTemperatureFit";
 
@@ -132,9 +133,9 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
 
 function text(file: string, n: number, fit: SommerfeldFit, quantities: Quantity[], rows: (number | null)[][], warnings: string[], notes: string[], hasSigma: boolean): string {
   const lines = [`${file}: ${n} points, per mole formula unit; 0 → T_min from ${fit.source}`];
-  for (const q of quantities) lines.push(`  ${q.symbol.padEnd(24)} ${formatUncertainty(q.value, q.stdError, { plainDigits: 5 }).padStart(18)}  ${q.unit}`);
+  for (const q of quantities) lines.push(`  ${q.symbol.padEnd(24)} ${formatUncertainty(q.value, q.stdError, { plainDigits: 5 }).padStart(18)}  ${prettyUnit(q.unit)}`.trimEnd());
   const step = Math.max(1, Math.ceil(rows.length / 20));
-  lines.push("", `  ${"T (K)".padStart(10)} ${`S (${S_UNIT})`.padStart(22)} ${`H − H(0) (${H_UNIT})`.padStart(24)}`);
+  lines.push("", `  ${"T (K)".padStart(10)} ${`S (${prettyUnit(S_UNIT)})`.padStart(22)} ${`H − H(0) (${prettyUnit(H_UNIT)})`.padStart(24)}`);
   for (let i = 0; i < rows.length; i += step) {
     const r = rows[i];
     lines.push(`  ${String(Number((r[0] as number).toPrecision(6))).padStart(10)} ${formatUncertainty(r[1] as number, r[2], { plainDigits: 5 }).padStart(22)} ${formatUncertainty(r[3] as number, r[4], { plainDigits: 5 }).padStart(24)}`);

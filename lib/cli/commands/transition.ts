@@ -30,6 +30,7 @@ import { InputError } from "../../engine/errors";
 import { analyzeJump, areaBetween, type JumpResult } from "../../engine/superconductor";
 import { covariance2, propagate, quantity, type Quantity } from "../../engine/uncertainty";
 import { formatUncertainty } from "../../engine/units";
+import { prettyUnit } from "../format";
 import { DATA_FLAGS, describeWeighting, loadHeatCapacity, sortedByTemperature, type LoadedHeatCapacity } from "../data";
 import { fittedFit, givenFit, type SommerfeldFit } from "../lowTemperatureFit";
 
@@ -171,9 +172,10 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
     } else {
       const lines = [`${data.file}: ${rows.temperatureK.length} points, per mole formula unit; normal state: ${fit.source}`];
       lines.push(`  construction window ${r.windows.lowerK.toPrecision(4)}–${r.windows.upperK.toPrecision(4)} K, superconducting branch from ${r.windows.branchFromK.toPrecision(4)} K`);
-      for (const q of quantities) lines.push(`  ${q.symbol.padEnd(22)} ${formatUncertainty(q.value, q.stdError, { plainDigits: 5 }).padStart(16)}  ${q.unit === "1" ? "" : q.unit}`.trimEnd());
+      for (const q of quantities) lines.push(`  ${q.symbol.padEnd(22)} ${formatUncertainty(q.value, q.stdError, { plainDigits: 5 }).padStart(16)}  ${prettyUnit(q.unit)}`.trimEnd());
       lines.push(`  σ: ${r.uncertaintyMethod}`);
-      for (const w of warnings) lines.push(`warning: ${w}`);
+      // The engine's first "warning" names the normal-state source, shown in the first line already.
+      for (const w of warnings) if (w !== r.warnings[0]) lines.push(`warning: ${w}`);
       for (const n of data.notes) lines.push(`note: ${n}`);
       io.out(lines.join("\n"));
     }
