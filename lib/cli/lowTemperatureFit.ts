@@ -18,6 +18,8 @@ export interface SommerfeldFit {
   /** Where it came from, in words, and the fit's facts when fitted here. */
   readonly source: string;
   readonly fitted: null | { readonly file: string; readonly tMinK: number | null; readonly tMaxK: number | null; readonly nPoints: number; readonly reducedChiSquare: number | null; readonly weighting: string };
+  /** The fit's own warnings (residual structure, an upturn, …), prefixed with what was fitted. */
+  readonly warnings: readonly string[];
 }
 
 /** γ, β given as flags (mJ units, V[±S]); `corr` their correlation in [−1, 1]. */
@@ -26,7 +28,7 @@ export function givenFit(gammaText: string, betaText: string, gammaFlag: string,
   const beta = parseMeasured(betaText, betaFlag, 1e-3);
   if (corr !== undefined && !(Math.abs(corr) <= 1)) throw new InputError(`invalid --corr: ${corr} (must be in [-1, 1])`, { field: "corr" });
   const cov = corr === undefined || gamma.stdError === null || beta.stdError === null ? null : corr * gamma.stdError * beta.stdError;
-  return { gamma, beta, covGammaBeta: cov, source: `given: --${gammaFlag} ${gammaText}, --${betaFlag} ${betaText}`, fitted: null };
+  return { gamma, beta, covGammaBeta: cov, source: `given: --${gammaFlag} ${gammaText}, --${betaFlag} ${betaText}`, fitted: null, warnings: [] };
 }
 
 /**
@@ -50,5 +52,6 @@ export function fittedFit(data: LoadedHeatCapacity, tMinK: number | undefined, t
     covGammaBeta: cov ?? null,
     source: `C = γT + βT³ fitted to ${fit.window.nPoints} points of ${data.file} in ${window}, ${describeWeighting(data.weighting)}`,
     fitted: { file: data.file, tMinK: fit.window.tMinK, tMaxK: fit.window.tMaxK, nPoints: fit.window.nPoints, reducedChiSquare: fit.weighted ? fit.reducedChiSquare : null, weighting: describeWeighting(data.weighting) },
+    warnings: fit.warnings.map((w) => `C = γT + βT³ on ${window}: ${w}`),
   };
 }

@@ -94,6 +94,13 @@ describe("heatbook transition", () => {
     expect(r.out).not.toMatch(/NaN|undefined|null/);
   });
 
+  it("heatbook transition with a normal-state window reaching into the transition warns: residual structure and an unbalanced entropy", async () => {
+    const j = JSON.parse((await runCli(["transition", "sc.csv", "--normal-above", "3.5", "--json"], { "sc.csv": file(10) })).out);
+    const w = j.warnings.join("\n");
+    expect(w).toMatch(/C = γT \+ βT³ on \[3\.5, max\] K: residuals have structure/);
+    expect(w).toMatch(/entropy balance S_el\/\(γ_n T_u\) = 0\.\d+ differs from 1 by more than 3σ/);
+  });
+
   it("heatbook transition exits 2 naming the problem: no normal state, two sources, half a pair, no jump, bad options", async () => {
     const data = { "sc.csv": file(9) };
     const none = await runCli(["transition", "sc.csv"], data);

@@ -110,7 +110,7 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
       quantities.push(q(`entropyAt${i + 1}`, `S(${fmtT(t)} K)`, integralAt(S, yS, t), S_UNIT, "--at: trapezoid cut at T, σ interpolated"));
       quantities.push(q(`enthalpyAt${i + 1}`, `H(${fmtT(t)} K) − H(0)`, integralAt(H, rows.heatCapacity, t), H_UNIT, "--at: trapezoid cut at T, σ interpolated"));
     });
-    const warnings: string[] = [];
+    const warnings: string[] = [...fit.warnings];
     if (S.extrapolation.value > 0.1 * S.values[last]) warnings.push(`the 0 → T_min extrapolation is ${((100 * S.extrapolation.value) / S.values[last]).toFixed(0)} % of S(${fmtT(tMax)} K): the result leans on the low-T fit`);
     if (fit.fitted && fit.fitted.tMaxK !== null && fit.fitted.tMaxK > 0.5 * tMax) warnings.push(`the low-T fit reaches ${fit.fitted.tMaxK} K, over half the data range: C = γT + βT³ may not hold there`);
     const table = {

@@ -158,7 +158,7 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
       ...(r.nonSuperconductingFraction ? [r.nonSuperconductingFraction] : []),
       ...balance,
     ];
-    const warnings = [...r.warnings];
+    const warnings = [...r.warnings, ...fit.warnings];
     const b = balance[balance.length - 1];
     if (b.stdError !== null && Math.abs(b.value - 1) > 3 * b.stdError && Math.abs(b.value - 1) > 0.02) warnings.push(`entropy balance S_el/(γ_n T_u) = ${b.value.toFixed(3)} differs from 1 by more than 3σ: check β, γ_n, the addenda or the lowest-T data`);
     const points = { columns: [{ name: "T", unit: "K" }, { name: "C_el/T", unit: "mJ mol^-1 K^-2" }], rows: rows.temperatureK.map((t, i) => [t, (rows.heatCapacity[i] / t - fit.beta.value * t * t) * 1e3]) };
