@@ -101,6 +101,15 @@ describe("heatbook transition", () => {
     expect(w).toMatch(/entropy balance S_el\/\(γ_n T_u\) = 0\.\d+ differs from 1 by more than 3σ/);
   });
 
+  it("heatbook transition --lower/--upper/--branch-from set the construction window, and T_c stays within 3σ", async () => {
+    const r = await runCli(["transition", "sc.csv", "--normal-above", "4.6", "--lower", "3.6", "--upper", "4.5", "--branch-from", "3", "--branch-degree", "1", "--json"], { "sc.csv": file(11) });
+    expect(r.code, r.err).toBe(0);
+    const j = JSON.parse(r.out);
+    expect(j.windows).toEqual({ lowerK: 3.6, upperK: 4.5, branchFromK: 3 });
+    within(find(j, "tc"), TRUTH.tc);
+    expect(find(j, "entropyNormal").value).toBeCloseTo(find(j, "gammaN").value * 4.5, 9);
+  });
+
   it("heatbook transition exits 2 naming the problem: no normal state, two sources, half a pair, no jump, bad options", async () => {
     const data = { "sc.csv": file(9) };
     const none = await runCli(["transition", "sc.csv"], data);
