@@ -5,12 +5,12 @@
  * `r` (atoms per formula unit, default 1) may be set with --set r=N. Unset additive
  * coefficients (gamma, beta, delta, epsilon, A, B) are 0; any other parameter must be set.
  * Parameter values outside the model's bounds (e.g. Θ_D ≤ 0) are refused naming the parameter.
- * Exit 0 success, 1 a value that is not finite, 2 bad usage or input.
+ * The engine (evaluateHeatCapacity) refuses a C that is not finite. Exit 0 success, 2 bad usage or input.
  */
 import type { CliIo } from "../io";
 import { formatFlagHelp, getAssignments, getBoolean, getList, parseArgs, type FlagSpec, reportFailure } from "../args";
 import { InputError } from "../../engine/errors";
-import { getModel, MODELS, type HeatCapacityModel } from "../../engine/models";
+import { evaluateHeatCapacity, getModel, MODELS, type HeatCapacityModel } from "../../engine/models";
 import { checkParameterValues } from "../modelParams";
 
 const FLAGS: Record<string, FlagSpec> = {
@@ -58,12 +58,7 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
     const r = set.r ?? 1;
     if (!(r > 0)) throw new InputError(`invalid r: ${r} (must be > 0)`, { field: "set" });
     const params = siParameters(model, set);
-    const values = T.map((t) => model.evaluate(t, params, { r }));
-    const bad = values.findIndex((v) => !Number.isFinite(v));
-    if (bad >= 0) {
-      io.err(`heatbook model: C(${T[bad]} K) of ${model.name} is not a finite number with these parameters`);
-      return 1;
-    }
+    const values = evaluateHeatCapacity(model, T, params, { r });
     if (getBoolean(args, "json")) io.out(JSON.stringify({ model: model.name, formula: model.formula, parameters: params, r, temperatureK: T, unit: "J/(mol*K)", values }));
     else {
       io.out(`${model.name}: ${model.formula}   (C in J/(mol K) per mole formula unit, r = ${r})`);
