@@ -125,7 +125,7 @@ describe("upgrade of an old data folder in place", () => {
     expect((await cli(["audit", "verify", "--data-dir", join(DIR, "nothing-here")])).code).toBe(2);
   });
 
-  it("the heatbook command exits 1 naming the event edited while the database was stopped (it starts the database itself)", async () => {
+  it("the compiled heatbook command exits 1 naming the event edited while the database was stopped (it starts the database itself)", async () => {
     server = await startEmbeddedDatabase({ dir: PG_DIR, port, credentialsFile: CREDENTIALS });
     const owner = new pg.Client({ connectionString: server.ownerUrl });
     await owner.connect();
@@ -136,6 +136,8 @@ describe("upgrade of an old data folder in place", () => {
     await owner.end();
     await server.stop();
     server = null;
+    const built = spawnSync(process.execPath, ["scripts/build-cli.mjs", "--quiet"], { encoding: "utf8" });
+    expect(built.status, built.stderr).toBe(0);
     const env = Object.fromEntries(Object.entries(process.env).filter(([k]) => !k.startsWith("HEATBOOK_AUDIT_KEY"))) as NodeJS.ProcessEnv;
     const r = spawnSync(process.execPath, ["lib/cli/heatbook.js", "audit", "verify", "--data-dir", DIR], { env, encoding: "utf8", timeout: 120_000 });
     expect(r.stderr).toMatch(new RegExp(`event 3 \\(seq 2\\): \\[edited\\] group ${G1}: event 3 \\(seq 2\\) no longer matches its signature`));
