@@ -49,7 +49,7 @@ describe("buildReport", () => {
   it("buildReport shows γ in compact notation and Θ_D = (12π⁴R/(5β))^(1/3) for the invented β", async () => {
     const rep = await buildReport(t.db, f.members.viewer, r.analysisId, r.revisionId);
     const gamma = rep.fits[0]!.parameters.find((p) => p.name === "gamma")!;
-    expect(gamma.compact).toMatch(/^1\.3\d*\(\d+\) mJ mol⁻¹ K⁻² \(per mole formula unit\)$/);
+    expect(gamma.compact).toMatch(/^1\.3\d*\(\d+\) mJ mol⁻¹ K⁻²$/);
     const beta = rep.fits[0]!.parameters.find((p) => p.name === "beta")!;
     // R = N_A k_B, exact in CODATA 2018 (8.314462618… J mol⁻¹ K⁻¹); Debye T³ law, r = 1 for Cu
     const R = 6.02214076e23 * 1.380649e-23;

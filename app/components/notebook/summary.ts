@@ -57,7 +57,7 @@ export function summaryLine(step: StepView): string | null {
     case "derive": return derive(r as unknown as DeriveStepResult);
     case "transition": {
       const t = r as unknown as TransitionStepResult;
-      return `T_c = ${q(t.tc)} K · ΔC/(γ_n T_c) = ${q(t.jumpRatio)} (BCS weak coupling ${num(t.bcsJumpRatio, 3)})${t.nonSuperconductingFraction ? ` · non-superconducting fraction ${q(t.nonSuperconductingFraction)}` : ""}`;
+      return `T_c = ${q(t.tc)} K · ΔC/(γ_n T_c) = ${q(t.jumpRatio)} (BCS weak coupling ${num(t.bcsJumpRatio, 4)})${t.nonSuperconductingFraction ? ` · non-superconducting fraction ${q(t.nonSuperconductingFraction)}` : ""}`;
     }
     case "entropy": {
       const e = r as unknown as EntropyStepResult;

@@ -7,6 +7,7 @@
 import * as Plot from "@observablehq/plot";
 import type { PlotOptions } from "@observablehq/plot";
 import { BASIS_TEXT, COLOURS, fmt, frame, xAxis, yAxis } from "./frame";
+import { formatNumber } from "../../display/numbers";
 import type { MoleBasis, ScanResult } from "./types";
 
 export interface ScanRow {
@@ -56,7 +57,7 @@ export function scanPlot(scan: ScanResult, opts: ScanPlotOptions = {}): PlotOpti
     x: xAxis("window upper edge T_max (K)"),
     y: yAxis(`γ (mJ mol⁻¹ K⁻²${basis})`),
     // Quantised so that the legend is a row of swatches (and lines of neighbouring T_min share a colour).
-    color: { type: "quantize", n: 5, range: ["#e3b58c", "#c27a4a", "#9a4519", "#5a3a3a", "#1e2431"], label: "window lower edge T_min (K)", legend: true, tickFormat: (v: number) => fmt(v) },
+    color: { type: "quantize", n: 5, range: ["#e3b58c", "#c27a4a", "#9a4519", "#5a3a3a", "#1e2431"], label: "window lower edge T_min (K)", legend: true, tickFormat: (v: number) => formatNumber(v, 3) },
     marks: [
       Plot.frame({ stroke: COLOURS.frame }),
       ...(scan.plateau ? [Plot.ruleY([scan.plateau.gammaMean * MJ], { stroke: COLOURS.plateau, strokeDasharray: "5,4" })] : []),
