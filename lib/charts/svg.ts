@@ -8,7 +8,9 @@
 import * as Plot from "@observablehq/plot";
 import type { PlotOptions } from "@observablehq/plot";
 import { parseHTML } from "linkedom";
-import { runs, hasMarkup } from "../display/typeset";
+import { typesetSvgText } from "./typesetSvg";
+
+export { typesetSvgText };
 
 const SVG_NS = "http://www.w3.org/2000/svg";
 
@@ -19,38 +21,6 @@ export interface SvgOptions {
   fontSize?: number;
   /** Background colour; none when omitted. */
   background?: string;
-}
-
-type El = Element & { childNodes: NodeListOf<ChildNode> };
-
-/** Replace markup in every text node under <text> elements by tspans with shifted baselines. */
-export function typesetSvgText(root: Element, doc: Document): void {
-  for (const text of [...root.querySelectorAll("text")]) {
-    for (const node of [...(text as El).childNodes]) {
-      if (node.nodeType === 3 && hasMarkup(node.textContent ?? "")) node.replaceWith(...tspans(node.textContent ?? "", doc));
-    }
-    for (const span of [...text.querySelectorAll("tspan")]) {
-      if (span.children.length === 0 && hasMarkup(span.textContent ?? "")) {
-        const parts = tspans(span.textContent ?? "", doc);
-        span.textContent = "";
-        span.append(...parts);
-      }
-    }
-  }
-}
-
-function tspans(markup: string, doc: Document): Element[] {
-  let level = 0;
-  return runs(markup).map((r) => {
-    const t = doc.createElementNS(SVG_NS, "tspan");
-    const target = r.shift === "sub" ? 0.3 : r.shift === "sup" ? -0.4 : 0;
-    const dy = target - level;
-    if (dy !== 0) t.setAttribute("dy", `${Math.round(dy * 100) / 100}em`);
-    level = target;
-    if (r.shift !== "base") t.setAttribute("font-size", "72%");
-    t.textContent = r.text;
-    return t;
-  });
 }
 
 function isTip(mark: unknown): boolean {

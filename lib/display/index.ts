@@ -8,5 +8,5 @@ export { runs, plainSymbol, htmlSymbol, escapeHtml, hasMarkup, unicodeShift, typ
 export { formatNumber, formatValue, formatUnit, formatQuantity, formatTime, formatCount, formatRange } from "./numbers";
 export {
   QUANTITIES, PARAMETERS, MODEL_LABELS, STEP_KINDS, REVISION_STATES, REVIEW_ACTIONS, ACTIVITY_ACTIONS,
-  term, symbolOf, plainSymbolOf, modelLabel, stepKindLabel, stepName, stateLabel, reviewActionLabel, activityLabel, type Term,
+  term, symbolOf, plainSymbolOf, modelLabel, stepKindLabel, stepName, stateLabel, reviewActionLabel, activityLabel, configPathLabel, stepRefLabel, CONFIG_FIELDS, type Term,
 } from "./vocabulary";

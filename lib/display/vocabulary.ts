@@ -122,12 +122,16 @@ export const ACTIVITY_ACTIONS: Readonly<Record<string, Term>> = Object.freeze({
   "analysis.create": { label: "started analysis" },
   "analysis.rename": { label: "renamed analysis" },
   "analysis.duplicate": { label: "duplicated analysis" },
+  "analysis.archive": { label: "archived analysis" },
+  "analysis.restore": { label: "restored analysis" },
   "step.add": { label: "added a step to" },
   "step.update": { label: "changed a step of" },
   "step.remove": { label: "removed a step from" },
   "step.move": { label: "moved a step of" },
   "thread.create": { label: "opened a discussion on" },
   "comment.create": { label: "commented on" },
+  "thread.resolve": { label: "resolved a discussion on" },
+  "thread.reopen": { label: "reopened a discussion on" },
   "revision.submit": { label: "sent a revision for review:" },
   "revision.withdraw": { label: "took a revision back from review:" },
   "revision.return": { label: "asked for changes to" },
@@ -142,6 +146,66 @@ export const ACTIVITY_ACTIONS: Readonly<Record<string, Term>> = Object.freeze({
   "token.create": { label: "created an API token" },
   "token.revoke": { label: "revoked an API token" },
 });
+
+/** Step configuration fields (the step schemas' keys, and keys nested in them), as markup. */
+export const CONFIG_FIELDS: Readonly<Record<string, Term>> = Object.freeze({
+  measurementIds: { label: "measurements" },
+  measurementId: { label: "measurement" },
+  tMinK: { label: "lower window edge T_min (K)" },
+  tMaxK: { label: "upper window edge T_max (K)" },
+  excluded: { label: "points left out" },
+  index: { label: "point" },
+  reason: { label: "reason" },
+  addendaMeasurementId: { label: "addenda measurement" },
+  method: { label: "interpolation of the addenda" },
+  smoothingDegree: { label: "smoothing degree" },
+  outsideRange: { label: "outside the addenda range" },
+  per: { label: "per mole of" },
+  massMg: { label: "sample mass (mg)" },
+  model: { label: "model" },
+  expression: { label: "model expression" },
+  weighting: { label: "weighting" },
+  scaleErrors: { label: "errors scaled by √χ²_red" },
+  fixed: { label: "parameters held fixed" },
+  start: { label: "starting values" },
+  scan: { label: "window scan" },
+  compare: { label: "models compared" },
+  fitStepId: { label: "fit used" },
+  basis: { label: "basis" },
+  densityGPerCm3: { label: "density (g cm⁻³)" },
+  valences: { label: "valences" },
+  gammaBandMJ: { label: "band-structure γ (mJ mol⁻¹ K⁻²)" },
+  muStar: { label: "μ*" },
+  tcK: { label: "measured T_c (K)" },
+  chi: { label: "susceptibility χ" },
+  kwA: { label: "resistivity coefficient A" },
+  normalFitStepId: { label: "normal-state fit" },
+  normalState: { label: "normal state" },
+  window: { label: "construction window" },
+  tLowK: { label: "lower edge (K)" },
+  tHighK: { label: "upper edge (K)" },
+  markdown: { label: "text" },
+  value: { label: "value" },
+  stdError: { label: "standard error" },
+  unit: { label: "unit" },
+});
+
+/** "excluded[1].reason" → "points left out › 2 › reason" (markup); "(config)" → "settings". */
+export function configPathLabel(path: string): string {
+  if (path === "(config)") return "settings";
+  return path.split(/\.|(?=\[)/).map((seg) => {
+    const idx = /^\[(\d+)\]$/.exec(seg);
+    if (idx) return String(Number(idx[1]) + 1);
+    return (Object.hasOwn(CONFIG_FIELDS, seg) ? CONFIG_FIELDS[seg]!.label : undefined) ?? term(seg).symbol ?? words(seg);
+  }).join(" › ");
+}
+
+/** A result key of the revision diff, "derive#1:thetaD" → "Derived quantities" (the step, numbered when repeated). */
+export function stepRefLabel(ref: string): string {
+  const m = /^([a-z]+)#(\d+)$/.exec(ref);
+  if (!m) return words(ref);
+  return `${stepKindLabel(m[1]!)}${m[2] !== "1" ? ` ${m[2]}` : ""}`;
+}
 
 /** Fallback for a key with no entry: its words split from camelCase/dots/underscores, never the key as is. */
 function words(key: string): string {

@@ -32,7 +32,13 @@ export const parameterKeys = (): string[] => [...new Set(Object.values(MODELS).f
 export const modelKeys = (): string[] => Object.keys(MODELS);
 
 /** Audit actions recorded by the server ("revision.submit" from the review transitions). */
-export const auditActions = (): string[] => [...new Set([...matches("lib/server", /\baction: "([a-z]+(?:\.[a-zA-Z]+)+)"/g), ...REVIEW_ACTIONS.map((a) => `revision.${a}`)])].sort();
+export function auditActions(): string[] {
+  const out = new Set(REVIEW_ACTIONS.map((a) => `revision.${a}`));
+  for (const f of tsFiles(path.join(ROOT, "lib/server")))
+    for (const call of readFileSync(f, "utf8").matchAll(/recordAudit\(tx,\s*\{([\s\S]*?)objectType/g))
+      for (const m of call[1]!.matchAll(/"([a-z]+(?:\.[a-zA-Z]+)+)"/g)) out.add(m[1]!);
+  return [...out].sort();
+}
 
 /**
  * Keys that must never reach a reader: camelCase or dotted or snake_case keys, and plain keys of

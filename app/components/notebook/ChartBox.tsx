@@ -7,6 +7,7 @@
  * discussion range, a point to leave out).
  */
 import * as Plot from "@observablehq/plot";
+import { typesetSvgText } from "@/lib/charts/typesetSvg";
 import { useEffect, useRef, useState, type ReactNode } from "react";
 import { useContainerWidth } from "@/app/components/useContainerWidth";
 import { downloadPng, downloadText, mainSvg, svgText } from "./exportChart";
@@ -59,6 +60,7 @@ export function ChartBox({ title, name, label, testId, build, csv, onRange, drag
     let chart: (Element & { scale?: (n: string) => Plot.Scale | undefined }) | null = null;
     try {
       chart = Plot.plot(build(width)) as unknown as Element & { scale?: (n: string) => Plot.Scale | undefined };
+      typesetSvgText(chart, document);
       el.querySelector(".chart-canvas")?.replaceChildren(chart);
       const x = chart.scale?.("x"), y = chart.scale?.("y");
       scales.current = x && y ? { x, y } : null;

@@ -5,6 +5,8 @@ import { addendaPlot, addendaCsv, transitionPlot, transitionCsv, integralPlot, e
 import { ChartBox } from "./ChartBox";
 import { BASIS_LABEL, compact, num } from "./display";
 import { prettyQuantityUnit } from "./summary";
+import { Sym } from "../Sym";
+import { formatRange, modelLabel, symbolOf, term } from "@/lib/display";
 
 export function AddendaView({ r }: { r: AddendaStepResult }) {
   const [log, setLog] = useState(true);
@@ -22,10 +24,10 @@ function QuantityRows({ items }: { items: readonly Quantity[] }) {
   return (
     <>{items.map((x) => (
       <tr key={x.name}>
-        <td>{x.symbol}</td>
+        <td><Sym m={symbolOf(x.name)} /> <span className="muted small">{term(x.name).label}</span></td>
         <td className="num" data-testid={`quantity-${x.name}`}>{compact(x.value, x.stdError)}</td>
         <td className="nb-unit">{prettyQuantityUnit(x.unit)}</td>
-        <td className="small muted">{x.note ?? ""}</td>
+        <td className="small muted">{x.note ? <Sym m={x.note} /> : ""}</td>
       </tr>
     ))}</>
   );
@@ -36,7 +38,7 @@ export function DeriveView({ r }: { r: DeriveStepResult }) {
   const rest = r.quantities.filter((x) => x.name !== "electronicToClassical");
   return (
     <div className="nb-result">
-      <p className="small muted">From the {r.fitModel} fit over {num(r.fitWindow.tMinK, 3)}–{num(r.fitWindow.tMaxK, 3)} K in {num(r.fieldT)} T; shown {BASIS_LABEL[r.basis]}. Valences used: {Object.entries(r.valences).map(([k, v]) => `${k} ${v}`).join(", ") || "none"}; density {r.densityGPerCm3 === null ? "not given" : `${num(r.densityGPerCm3, 5)} g cm⁻³`}.</p>
+      <p className="small muted">From the fit of <Sym m={modelLabel(r.fitModel)} /> over {formatRange(r.fitWindow.tMinK, r.fitWindow.tMaxK, "K")} in {num(r.fieldT)} T; shown {BASIS_LABEL[r.basis]}. Valences used: {Object.entries(r.valences).map(([k, v]) => `${k} ${v}`).join(", ") || "none"}; density {r.densityGPerCm3 === null ? "not given" : `${num(r.densityGPerCm3, 5)} g cm⁻³`}.</p>
       <table className="nb-compact" data-testid="derived-quantities">
         <thead><tr><th>Quantity</th><th className="num">Value(σ)</th><th>Unit</th><th>Note</th></tr></thead>
         <tbody><QuantityRows items={rest} /></tbody>
@@ -57,15 +59,15 @@ export function TransitionView({ r, basis }: { r: TransitionStepResult; basis?: 
   const rows = [r.tc, r.deltaC, r.jumpRatio, r.jumpRatioSuperconductingPart, r.gammaResidual, r.nonSuperconductingFraction].filter((x): x is Quantity => !!x);
   return (
     <div className="nb-result">
-      <ChartBox title="Entropy balance: C_el/T with the idealised equal-area step" name="transition" label="Superconducting transition" build={build} csv={() => transitionCsv(r)} />
+      <ChartBox title={<>Entropy balance: <Sym m="C_el/T" /> with the idealised equal-area step</>} name="transition" label="Superconducting transition" build={build} csv={() => transitionCsv(r)} />
       <table className="nb-compact" data-testid="transition-quantities">
         <thead><tr><th>Quantity</th><th className="num">Value(σ)</th><th>Unit</th><th>Note</th></tr></thead>
         <tbody>
           <QuantityRows items={rows} />
-          <tr><td>BCS weak coupling</td><td className="num">{num(r.bcsJumpRatio, 4)}</td><td /><td className="small muted">ΔC/(γ_n T_c) for comparison</td></tr>
+          <tr><td>BCS weak coupling</td><td className="num">{num(r.bcsJumpRatio, 4)}</td><td /><td className="small muted"><Sym m="ΔC/(γ_n T_c)" /> for comparison</td></tr>
         </tbody>
       </table>
-      <p className="small muted">Normal state: {r.normalState === "above-tc" ? "fitted above T_c in zero field" : "fitted in a field above H_c2"}. Uncertainty: {r.uncertaintyMethod}.</p>
+      <p className="small muted">Normal state: {r.normalState === "above-tc" ? <>fitted above <Sym m="T_c" /> in zero field</> : <>fitted in a field above <Sym m="H_c2" /></>}. Uncertainty: {r.uncertaintyMethod}.</p>
     </div>
   );
 }

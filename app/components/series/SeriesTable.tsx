@@ -9,6 +9,7 @@ import { useMemo, useState } from "react";
 import { formatUncertainty } from "@/lib/engine/units/format";
 import type { SeriesRow } from "@/lib/server/series";
 import { STATE_LABEL } from "@/app/components/review/labels";
+import { Sym } from "../Sym";
 
 type Key = "sample" | "x" | "ea" | "gamma" | "beta" | "thetaD" | "dosEF" | "massRatio" | "tc" | "gammaFree" | "status";
 
@@ -75,7 +76,7 @@ export function SeriesTable({ rows, columns, slug, flagged, testId, caption }: P
           <tr>
             {columns.map((c) => (
               <th key={c.key} className={c.key === "sample" || c.key === "status" ? undefined : "num"} aria-sort={sort?.key === c.key ? (sort.dir === 1 ? "ascending" : "descending") : "none"}>
-                <button type="button" onClick={() => click(c.key)} data-testid={`sort-${c.key}`}>{c.label}{sort?.key === c.key ? (sort.dir === 1 ? " ▲" : " ▼") : ""}</button>
+                <button type="button" onClick={() => click(c.key)} data-testid={`sort-${c.key}`}><Sym m={c.label} />{sort?.key === c.key ? (sort.dir === 1 ? " ▲" : " ▼") : ""}</button>
                 {c.unit && <div className="small muted">{c.unit}</div>}
               </th>
             ))}

@@ -9,6 +9,7 @@ import { groupPaths } from "@/app/_lib/paths";
 import { fmtDate } from "@/app/_lib/format";
 import { STATE_LABEL } from "@/app/components/notebook/display";
 import { CreateAnalysisForm, AnalysisActions } from "@/app/components/notebook/AnalysisControls";
+import { Sym } from "@/app/components/Sym";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Analyses" };
@@ -25,7 +26,7 @@ export default async function AnalysesPage({ params, searchParams }: { params: P
   return (
     <>
       <h1>Analyses</h1>
-      <p className="lede">Each analysis is a chain of steps from a sample&apos;s measurements to its γ, β and Θ_D, computed on the server and discussed by the group.</p>
+      <p className="lede">Each analysis is a chain of steps from a sample&apos;s measurements to its γ, β and <Sym m="Θ_D" />, computed on the server and discussed by the group.</p>
       {write && !archived && (
         <section className="sheet" aria-labelledby="new-analysis">
           <h2 id="new-analysis">New analysis</h2>
