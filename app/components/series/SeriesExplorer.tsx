@@ -99,6 +99,9 @@ export function SeriesExplorer({ slug, initial, others }: Props) {
           <TrendSummary fit={fit} degree={degree} quantity={quantity} axisLabel={axis === "x" ? view.series.compositionVariable : "e/a"} trendFrom={view.trendFrom} />
           <div className="actions small">
             <a className="button quiet small" href={`${api}/${view.series.id}/export${query}`} download data-testid="export-csv">CSV of the table</a>
+            <a className="button quiet small" href={`${api}/${view.series.id}/export${query}${query ? "&" : "?"}format=latex`} download data-testid="export-latex">LaTeX table</a>
+            {(["single", "double"] as const).map((col) => <a key={col} className="button quiet small" href={`${api}/${view.series.id}/export${query}${query ? "&" : "?"}format=pdf&quantity=${quantity}&degree=${degree}&column=${col}`} download data-testid={`export-figure-${col}`}>Figure PDF {col === "single" ? "8.5" : "17.5"} cm</a>)}
+            <a className="button quiet small" href={`${api}/${view.series.id}/export${query}${query ? "&" : "?"}format=svg&quantity=${quantity}&degree=${degree}&column=single`} download>Figure SVG 8.5 cm</a>
             <button type="button" className="quiet small" onClick={() => { const s = svg(); if (s) downloadText(`${stem}.svg`, svgText(s), "image/svg+xml"); }} data-testid="export-svg">SVG</button>
             <button type="button" className="quiet small" onClick={() => { const s = svg(); if (s) void downloadPng(`${stem}.png`, s).catch((e: Error) => setError(e.message)); }} data-testid="export-png">PNG</button>
           </div>
