@@ -6,7 +6,7 @@ import { ChartBox } from "./ChartBox";
 import { BASIS_LABEL, compact, num } from "./display";
 import { prettyQuantityUnit } from "./summary";
 import { Sym } from "../Sym";
-import { formatRange, modelLabel, symbolOf, term } from "@/lib/display";
+import { formatCount, formatRange, modelLabel, symbolOf, term } from "@/lib/display";
 
 export function AddendaView({ r }: { r: AddendaStepResult }) {
   const [log, setLog] = useState(true);
@@ -15,7 +15,7 @@ export function AddendaView({ r }: { r: AddendaStepResult }) {
     <div className="nb-result">
       <ChartBox title="Total, addenda and net heat capacity of the whole sample" name="addenda" label="Addenda subtraction" build={build} csv={() => addendaCsv(r)}
         controls={<label className="checkbox"><input type="checkbox" checked={log} onChange={(e) => setLog(e.target.checked)} /> Logarithmic axes</label>} />
-      <p className="small muted">Addenda reach at most {num(r.maxAddendaFraction * 100, 2)} % of the measured total. {r.excluded.length ? `${r.excluded.length} sample point(s) outside the addenda range were left out.` : ""}</p>
+      <p className="small muted">Addenda reach at most {num(r.maxAddendaFraction * 100, 2)} % of the measured total. {r.excluded.length ? `${formatCount(r.excluded.length, "sample point")} outside the addenda range ${r.excluded.length === 1 ? "was" : "were"} left out.` : ""}</p>
     </div>
   );
 }

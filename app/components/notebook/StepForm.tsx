@@ -7,6 +7,7 @@ import { CheckField, NumField, SelectField, TextField, pairsText, parsePairs } f
 import { KIND_LABEL, num } from "./display";
 import type { NotebookContext, StepView } from "./types";
 import { Sym } from "../Sym";
+import { modelLabel, plainSymbol } from "@/lib/display";
 import type { ReactNode } from "react";
 
 export type Draft = Record<string, unknown>;
@@ -21,7 +22,7 @@ interface Props {
 const n = (v: unknown) => (typeof v === "number" ? v : null);
 
 function fitStepsAbove(ctx: NotebookContext, step: StepView) {
-  return ctx.steps.filter((s) => s.kind === "fit" && s.position < step.position).map((s, i) => ({ value: s.id, label: s.title || `Model fit ${i + 1} (${String((s.config as { model?: string }).model ?? "")})` }));
+  return ctx.steps.filter((s) => s.kind === "fit" && s.position < step.position).map((s, i) => ({ value: s.id, label: s.title || `Fit ${i + 1}: ${plainSymbol(modelLabel(String((s.config as { model?: string }).model ?? "sommerfeld")))}` }));
 }
 
 function FitStepSelect({ label, field, props }: { label: ReactNode; field: string; props: Props }) {

@@ -45,8 +45,8 @@ export default async function AnalysesPage({ params, searchParams }: { params: P
                   <tr key={a.id}>
                     <td><Link href={`${p.home}/analyses/${a.id}`}>{a.title}</Link></td>
                     <td><Link href={p.sample(a.sampleId)}>{a.sampleLabel}</Link></td>
-                    <td>{a.latestRevision ? <>r{a.latestRevision.number} <span className={`nb-state nb-state-${a.latestRevision.state}`}>{STATE_LABEL[a.latestRevision.state]}</span></> : "—"}</td>
-                    <td>{a.sealedRevision ? <span className="nb-sealed" title={a.sealedRevision.contentHash ?? undefined}>sealed r{a.sealedRevision.number}</span> : <span className="muted">—</span>}</td>
+                    <td>{a.latestRevision ? <>Revision {a.latestRevision.number} <span className={`nb-state nb-state-${a.latestRevision.state}`}>{STATE_LABEL[a.latestRevision.state]}</span></> : "—"}</td>
+                    <td>{a.sealedRevision ? <span className="nb-sealed" title={a.sealedRevision.contentHash ?? undefined}>revision {a.sealedRevision.number}</span> : <span className="muted">—</span>}</td>
                     <td className="small">{fmtDate(a.updatedAt)}</td>
                     {write && <td><AnalysisActions api={`${api}/${a.id}`} title={a.title} archived={a.archived} basePath={`${p.home}/analyses`} /></td>}
                   </tr>
