@@ -38,11 +38,11 @@ export function forPaper(options: PlotOptions, fontSize: number, height: number,
   };
 }
 
-const BASIS_NOTE: Record<MoleBasis, string> = { "formula-unit": "per mole formula unit", atom: "per mole of atoms" };
-
 /**
  * C/T vs T² (mJ mol⁻¹ K⁻²; K²) with ±σ bars, the fit window shaded, the model line, and the
- * residuals (C − C_fit)/T below on the same T² axis. Two Plot options, top to bottom.
+ * residuals (C − C_fit)/T below on the same T² axis. Two Plot options, top to bottom. The mole
+ * basis (per mole formula unit or of atoms) belongs in the caption: an axis title that long
+ * would not fit the panel's height.
  */
 export function fitFigure(r: FitStepResult, paper: PaperOptions): PlotOptions[] {
   const fs = paper.fontSize ?? 8, w = paper.widthPt;
@@ -54,8 +54,8 @@ export function fitFigure(r: FitStepResult, paper: PaperOptions): PlotOptions[] 
   const bottom = forPaper(residualPlot(r, { width: w, xDomain: domain }), fs, Math.round(w * (narrow ? 0.3 : 0.17)), w);
   const unit = "mJ mol⁻¹ K⁻²";
   return [
-    { ...top, x: { ...(top.x as ScaleOptions), domain, nice: true, label: null, tickFormat: () => "" }, y: { ...(top.y as ScaleOptions), label: narrow ? `C/T (${unit})` : `C/T (${unit}, ${BASIS_NOTE[r.basis]})` }, marginBottom: Math.round(fs * 0.8) },
-    { ...bottom, x: { ...(bottom.x as ScaleOptions), domain, nice: true }, y: { ...(bottom.y as ScaleOptions), label: narrow ? "residual" : "(C − C_fit)/T", ticks: 3 }, marginTop: Math.round(fs * 0.6) },
+    { ...top, x: { ...(top.x as ScaleOptions), domain, nice: true, label: null, tickFormat: () => "" }, y: { ...(top.y as ScaleOptions), label: `C/T (${unit})` }, marginBottom: Math.round(fs * 0.8) },
+    { ...bottom, x: { ...(bottom.x as ScaleOptions), domain, nice: true }, y: { ...(bottom.y as ScaleOptions), label: "residual", ticks: 3 }, marginTop: Math.round(fs * 0.6) },
   ];
 }
 

@@ -61,8 +61,8 @@ export function chartSvg(options: PlotOptions | readonly PlotOptions[], opts: Sv
     const h = Number(p.getAttribute("height")) || 0;
     p.setAttribute("x", "0");
     p.setAttribute("y", String(y));
-    p.removeAttribute("class");
-    p.removeAttribute("style");
+    // The root sets the font for every panel (Plot writes its own defaults on each SVG).
+    for (const a of ["class", "style", "font-family", "font-size"]) p.removeAttribute(a);
     root.append(p);
     y += h;
   }

@@ -36,17 +36,17 @@ describe("chartSvg of paper figures", () => {
 
   it("fitFigure labels C/T with its unit and draws ±σ bars for every point shown", () => {
     const text = chartSvg(fitFigure(r, { widthPt: 500 }), { fontSize: 8 });
-    expect(text).toContain("C/T (mJ mol⁻¹ K⁻², per mole formula unit)");
+    expect(text).toContain("C/T (mJ mol⁻¹ K⁻²)");
     expect(text).toContain("T² (K²)");
     const svg = parse(text);
     const shown = r.points.temperatureK.filter((t) => t <= Math.min(Math.max(...r.points.temperatureK), 1.5 * r.window.tMaxK)).length;
     expect(svg.querySelectorAll('g[aria-label="rule"] line').length).toBeGreaterThanOrEqual(shown);
   });
 
-  it("chartSvg typesets markup: C_fit and T_max become tspans with a lowered baseline", () => {
+  it("chartSvg typesets markup: T_max and T_min become tspans with a lowered baseline", () => {
     const text = chartSvg([...fitFigure(r, { widthPt: 500 }), ...scanFigure(r.scan!, r.basis, { widthPt: 500 })], { fontSize: 8 });
-    expect(text).toMatch(/<tspan(?=[^>]*dy="0\.3em")(?=[^>]*font-size="72%")[^>]*>fit<\/tspan>/);
-    expect(text).toMatch(/<tspan(?=[^>]*dy="0\.3em")[^>]*>max<\/tspan>/);
+    expect(text).toMatch(/<tspan(?=[^>]*dy="0\.3em")(?=[^>]*font-size="72%")[^>]*>max<\/tspan>/);
+    expect(text).toMatch(/<tspan(?=[^>]*dy="0\.3em")[^>]*>min<\/tspan>/);
     expect(text).not.toMatch(/[A-Za-z]_[a-z]/);
   });
 

@@ -59,9 +59,10 @@ afterAll(async () => { await t.drop(); });
 const htmlText = () => readable(html.replace(/<sub>/g, "_").replace(/<sup>/g, "^").replace(/<[^>]+>/g, " ").replace(/&amp;/g, "&").replace(/\s+/g, " "));
 
 describe("report PDF text", () => {
-  it("renderReportPdf has the figure's axis titles with their units, typeset", () => {
-    expect(pdf).toContain("C/T (mJ mol⁻¹ K⁻², per mole formula unit)");
+  it("renderReportPdf has the figure's axis titles with their units, and the basis in the caption", () => {
+    expect(pdf).toContain("C/T (mJ mol⁻¹ K⁻²)");
     expect(pdf).toContain("T² (K²)");
+    expect(pdf).toContain("C/T against T² per mole formula unit");
     expect(pdf).toMatch(/γ\s*=\s*1\.3\d*\(\d+\) mJ mol⁻¹ K⁻²/);
     expect(pdf).toContain("Sommerfeld–Debye (γT + βT³)");
   });
@@ -88,8 +89,9 @@ describe("report PDF text", () => {
 describe("report HTML", () => {
   it("ReportView inlines the fit figure as SVG with axis titles, units and subscripts", () => {
     expect(html).toContain("<svg");
-    expect(html).toMatch(/C\/T \(mJ mol⁻¹ K⁻², per mole formula unit\)/);
-    expect(html).toMatch(/<tspan[^>]*dy="0\.3em"[^>]*>fit<\/tspan>/); // C_fit on the residual axis
+    expect(html).toContain(">C/T (mJ mol⁻¹ K⁻²)</text>");
+    expect(html).toContain(">T² (K²)</text>");
+    expect(html).toContain("(C − C<sub>fit</sub>)/T"); // the caption's symbols typeset
     expect(html).toContain("Θ<sub>D</sub>");
   });
 
