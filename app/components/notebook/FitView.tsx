@@ -10,7 +10,7 @@ import { fitPlot, residualPlot, scanPlot, fitCsv, scanCsv, defaultMaxTK, type Fi
 import { ChartBox, type RangePick } from "./ChartBox";
 import { BASIS_LABEL, compact, num, paramSymbol, unitText } from "./display";
 import { Sym } from "../Sym";
-import { modelLabel } from "@/lib/display";
+import { formatRange, modelLabel } from "@/lib/display";
 import type { Anchor, ModelInfo, NotebookContext, StepView } from "./types";
 import { sourceAt } from "@/lib/engine/notebook/pointSource";
 
@@ -137,7 +137,7 @@ export function FitView({ step, result: r, ctx, save }: Props) {
           <ChartBox title={<>Window scan: γ against <Sym m="T_max" /> for each <Sym m="T_min" /> <span className="muted">· ringed: plateau · large ring: recommended · diamond: this fit</span></>} name="window-scan" label="Window scan of gamma" testId="chart-scan" build={buildScan} csv={() => scanCsv(r.scan!)} />
           <p className="nb-reason" data-testid="scan-reason"><strong>Recommendation.</strong> {r.scan.reason}</p>
           {rec && ctx.editable && (
-            <button type="button" className="quiet small" onClick={() => usePending({ tMinK: rec.tMinK, tMaxK: rec.tMaxK })}>Use the recommended window {num(rec.tMinK)}–{num(rec.tMaxK)} K</button>
+            <button type="button" className="quiet small" onClick={() => usePending({ tMinK: rec.tMinK, tMaxK: rec.tMaxK })}>Use the recommended window {formatRange(rec.tMinK, rec.tMaxK, "K")}</button>
           )}
         </div>
       )}
