@@ -67,6 +67,7 @@ export function FitView({ step, result: r, ctx, save }: Props) {
         title={<>C/T against T² <span className="muted">· the window is shaded; hollow points are outside it</span></>}
         name="fit-ct-vs-t2" label="C over T against T squared with the fitted model" testId="chart-fit"
         build={build} csv={() => fitCsv(r)} onRange={onRange} onDrawn={onDrawn}
+        paperHref={`${ctx.apiBase}/analyses/${ctx.analysisId}/steps/${step.id}/figure?chart=fit&revision=${ctx.revisionId}`}
         dragHint={ctx.editable ? (mode === "window" ? "Drag across the chart to choose a new fit window; shift-drag to comment on a range of points." : "Drag across the chart to comment on that range of points.") : "Drag across the chart to comment on a range of points."}
         controls={<>
           <label htmlFor={`range-${step.id}`}>Show</label>
@@ -134,7 +135,7 @@ export function FitView({ step, result: r, ctx, save }: Props) {
       </div>
       {r.scan && (
         <div className="nb-scan">
-          <ChartBox title={<>Window scan: γ against <Sym m="T_max" /> for each <Sym m="T_min" /> <span className="muted">· ringed: plateau · large ring: recommended · diamond: this fit</span></>} name="window-scan" label="Window scan of gamma" testId="chart-scan" build={buildScan} csv={() => scanCsv(r.scan!)} />
+          <ChartBox title={<>Window scan: γ against <Sym m="T_max" /> for each <Sym m="T_min" /> <span className="muted">· ringed: plateau · large ring: recommended · diamond: this fit</span></>} name="window-scan" label="Window scan of gamma" testId="chart-scan" paperHref={`${ctx.apiBase}/analyses/${ctx.analysisId}/steps/${step.id}/figure?chart=scan&revision=${ctx.revisionId}`} build={buildScan} csv={() => scanCsv(r.scan!)} />
           <p className="nb-reason" data-testid="scan-reason"><strong>Recommendation.</strong> {r.scan.reason}</p>
           {rec && ctx.editable && (
             <button type="button" className="quiet small" onClick={() => usePending({ tMinK: rec.tMinK, tMaxK: rec.tMaxK })}>Use the recommended window {formatRange(rec.tMinK, rec.tMaxK, "K")}</button>
