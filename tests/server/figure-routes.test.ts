@@ -20,7 +20,7 @@ let r: { analysisId: string; revisionId: string };
 let fitStepId: string;
 const CM = 72 / 2.54;
 
-async function call(handler: typeof stepFigure.GET, query: string, params: Record<string, string>, userId: string | null = f.members.viewer.userId) {
+async function call(handler: (req: Request, ctx: never) => Promise<Response>, query: string, params: Record<string, string>, userId: string | null = f.members.viewer.userId) {
   session.userId = userId;
   return handler(new Request(`http://localhost/x?${query}`), { params: Promise.resolve({ slug: f.slug, id: r.analysisId, ...params }) } as never);
 }

@@ -95,7 +95,7 @@ export function NormaliseView({ r }: { r: Record<string, unknown> }) {
     <dl className="facts nb-facts">
       <dt>From</dt><dd>{BASIS_LABEL[String(r.from)] ?? String(r.from)}</dd>
       <dt>To</dt><dd>{BASIS_LABEL[String(r.per)]}</dd>
-      <dt>Formula, M</dt><dd>{String(r.formula)}, {num(r.molarMassGPerMol as number, 7)} g mol⁻¹, {num(r.atomsPerFormulaUnit as number, 4)} atoms per formula unit</dd>
+      <dt>Formula, M</dt><dd>{String(r.formula)}, {num(r.molarMassGPerMol as number, 7)} g mol⁻¹, {formatCount(Number(num(r.atomsPerFormulaUnit as number, 4)), "atom")} per formula unit</dd>
       {typeof r.moles === "number" && <><dt>Amount</dt><dd>{num(r.massMg as number, 6)} mg → {num(r.moles * 1e3, 6)} mmol formula units</dd></>}
     </dl>
   );
