@@ -5,7 +5,7 @@
  * React, no server, no I/O.
  */
 export { runs, plainSymbol, htmlSymbol, escapeHtml, hasMarkup, unicodeShift, type Run, type Shift } from "./typeset";
-export { formatNumber, formatValue, formatUnit, formatQuantity, formatTime, formatCount, formatRange } from "./numbers";
+export { formatNumber, formatValue, formatUnit, formatQuantity, formatTime, formatCount, formatRange, cleanText } from "./numbers";
 export {
   QUANTITIES, PARAMETERS, MODEL_LABELS, STEP_KINDS, REVISION_STATES, REVIEW_ACTIONS, ACTIVITY_ACTIONS,
   term, symbolOf, plainSymbolOf, modelLabel, stepKindLabel, stepName, stateLabel, reviewActionLabel, activityLabel, configPathLabel, stepRefLabel, CONFIG_FIELDS, type Term,

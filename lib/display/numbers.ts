@@ -85,3 +85,15 @@ export function formatCount(n: number, noun: string, plural = `${noun}s`): strin
 export function formatRange(lo: number, hi: number, unit: string, sig = 4): string {
   return `${formatNumber(lo, sig)}–${formatNumber(hi, sig)}${unit ? ` ${formatUnit(unit)}` : ""}`;
 }
+
+/**
+ * An engine sentence made fit to read without changing what sealed outputs hold (a sealed note
+ * must stay byte-identical for Verify): numbers carrying a floating-point artefact
+ * ("5.800000000000001", 13 or more significant digits) are shown to 12 digits ("5.8"), and
+ * "1 atoms" / "1 electrons" agree in number.
+ */
+export function cleanText(text: string): string {
+  return text
+    .replace(/-?\d+\.\d+/g, (m) => (m.replace(/^-?0*\.?0*/, "").replace(".", "").length >= 13 ? String(Number(Number(m).toPrecision(12))) : m))
+    .replace(/(^|[^\d.])1 (atom|electron|point|conduction electron)s\b/g, "$11 $2");
+}

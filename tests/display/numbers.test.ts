@@ -4,7 +4,7 @@
  * Expected strings are worked by hand from the rule (JCGM 100:2008 §7.2.2 concise notation).
  */
 import { describe, it, expect } from "vitest";
-import { formatCount, formatNumber, formatQuantity, formatRange, formatTime, formatUnit, formatValue } from "@/lib/display";
+import { cleanText, formatCount, formatNumber, formatQuantity, formatRange, formatTime, formatUnit, formatValue } from "@/lib/display";
 import { htmlSymbol, plainSymbol, runs } from "@/lib/display";
 
 describe("formatValue", () => {
@@ -59,6 +59,15 @@ describe("formatTime, formatCount, formatRange", () => {
   });
   it("formatRange uses the same digits as a window button", () => {
     expect(formatRange(1.8, 7.5051, "K")).toBe("1.8–7.505 K");
+  });
+});
+
+describe("cleanText", () => {
+  it("cleanText shows float artefacts to 12 digits and agrees counts of one, leaving other numbers as written", () => {
+    expect(cleanText("z = 5.800000000000001 conduction electrons per formula unit")).toBe("z = 5.8 conduction electrons per formula unit");
+    expect(cleanText("from β with r = 1 atoms per formula unit")).toBe("from β with r = 1 atom per formula unit");
+    expect(cleanText("r = 11 atoms, 2.5 K, 0.1 atoms")).toBe("r = 11 atoms, 2.5 K, 0.1 atoms");
+    expect(cleanText("μ* = 0.13, 1.23456789012 K")).toBe("μ* = 0.13, 1.23456789012 K");
   });
 });
 

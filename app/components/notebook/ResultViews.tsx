@@ -6,7 +6,7 @@ import { ChartBox } from "./ChartBox";
 import { BASIS_LABEL, compact, num } from "./display";
 import { prettyQuantityUnit } from "./summary";
 import { Sym } from "../Sym";
-import { formatCount, formatRange, modelLabel, symbolOf, term } from "@/lib/display";
+import { cleanText, formatCount, formatRange, modelLabel, symbolOf, term } from "@/lib/display";
 
 export function AddendaView({ r }: { r: AddendaStepResult }) {
   const [log, setLog] = useState(true);
@@ -27,7 +27,7 @@ function QuantityRows({ items }: { items: readonly Quantity[] }) {
         <td><Sym m={symbolOf(x.name)} /> <span className="muted small">{term(x.name).label}</span></td>
         <td className="num" data-testid={`quantity-${x.name}`}>{compact(x.value, x.stdError)}</td>
         <td className="nb-unit">{prettyQuantityUnit(x.unit)}</td>
-        <td className="small muted">{x.note ? <Sym m={x.note} /> : ""}</td>
+        <td className="small muted">{x.note ? <Sym m={cleanText(x.note)} /> : ""}</td>
       </tr>
     ))}</>
   );

@@ -33,5 +33,5 @@ export function debyeTemperature(beta: Measured, atomsPerFormulaUnit: number): Q
   checkMeasured(beta, "beta");
   const theta = thetaDFromBeta(beta.value, atomsPerFormulaUnit);
   const sigma = beta.stdError === null ? null : (theta * beta.stdError) / (3 * beta.value);
-  return quantity("thetaD", "Θ_D", theta, sigma, "K", `from β with r = ${Number(atomsPerFormulaUnit.toPrecision(12))} ${atomsPerFormulaUnit === 1 ? "atom" : "atoms"} per formula unit`);
+  return quantity("thetaD", "Θ_D", theta, sigma, "K", `from β with r = ${atomsPerFormulaUnit} atoms per formula unit`);
 }

@@ -43,7 +43,7 @@ export function freeElectronQuantities(input: Needs, perBasis: number, warnings:
   const ratio = thermalMassRatio(input.gamma, g0);
   const T = input.roomTemperatureK ?? 300;
   const qs = [
-    quantity("electronDensity", "n", n, null, "m^-3", `z = ${Number(z.toPrecision(12))} conduction ${z === 1 ? "electron" : "electrons"} per formula unit`),
+    quantity("electronDensity", "n", n, null, "m^-3", `z = ${z} conduction electrons per formula unit`),
     quantity("fermiWavevector", "k_F", gas.fermiWavevectorPerM * 1e-10, null, "Å^-1"),
     quantity("fermiEnergy", "E_F", gas.fermiEnergyJ / ELECTRONVOLT_J, null, "eV", "free-electron value, bare m_e"),
     quantity("fermiTemperature", "T_F", gas.fermiTemperatureK, null, "K"),

@@ -7,7 +7,7 @@
  */
 import type { Db } from "../db/client";
 import { ConflictError, NotFoundError } from "../../engine/errors";
-import { formatCount, formatNumber, formatQuantity, formatUnit, modelLabel, stepKindLabel, term } from "../../display";
+import { cleanText, formatCount, formatNumber, formatQuantity, formatUnit, modelLabel, stepKindLabel, term } from "../../display";
 import { authorise, type Member } from "../access";
 import { uuidOrNone } from "../samples";
 import type { RevisionSnapshot } from "./snapshot";
@@ -89,7 +89,7 @@ export function describeCorrection(kind: string, config: Record<string, any>, re
 function derivedValue(q: { name: string; symbol: string; value: number; stdError: number | null; unit: string; note?: string }): ReportValue {
   const t = term(q.name);
   const unit = formatUnit(q.unit);
-  return { name: q.name, symbol: t.symbol ?? q.symbol, label: t.label, value: q.value, stdError: q.stdError, unit, compact: formatQuantity(q.value, q.stdError, q.unit), ...(q.note ? { note: q.note } : {}) };
+  return { name: q.name, symbol: t.symbol ?? q.symbol, label: t.label, value: q.value, stdError: q.stdError, unit, compact: formatQuantity(q.value, q.stdError, q.unit), ...(q.note ? { note: cleanText(q.note) } : {}) };
 }
 
 /** The report object from a sealed snapshot and the names of the people involved. Pure. */
@@ -111,7 +111,7 @@ export function reportFromSnapshot(s: RevisionSnapshot, meta: { group: { name: s
     const out = s.outputs.steps[i]?.output as unknown as Out | undefined;
     const r = out?.result ?? null;
     const config = (st.config ?? {}) as Record<string, any>;
-    for (const w of out?.warnings ?? []) report.warnings.push(`${stepKindLabel(st.kind)} (step ${st.position + 1}): ${w}`);
+    for (const w of out?.warnings ?? []) report.warnings.push(`${stepKindLabel(st.kind)} (step ${st.position + 1}): ${cleanText(w)}`);
     if (st.kind === "data" || st.kind === "addenda" || st.kind === "normalise") report.corrections.push({ position: st.position, kind: st.kind, summary: describeCorrection(st.kind, config, r) });
     else if (st.kind === "fit" && r?.fit) {
       report.fits.push({
