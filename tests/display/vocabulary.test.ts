@@ -69,7 +69,7 @@ describe("vocabulary look-ups", () => {
   it("labels of unknown keys are words, never the key itself", () => {
     expect(stepKindLabel("derive")).toBe("Derived quantities");
     expect(stateLabel("in_review")).toBe("With reviewer");
-    expect(activityLabel("revision.replace")).toBe("superseded the sealed revision of");
+    expect(activityLabel("revision.replace")).toBe("superseded a sealed revision");
     expect(activityLabel("widget.frobnicate")).toBe("widget frobnicate");
     expect(term("someNewKey").label).toBe("some new key");
   });
