@@ -168,7 +168,7 @@ function TransitionForm(p: Props) {
   return (
     <>
       <FitStepSelect label={<>Normal-state <Sym m="γ_n" /> and β from</>} field="normalFitStepId" props={p} />
-      <SelectField label="That normal state was measured" value={String(p.draft.normalState ?? "above-tc") as "above-tc" | "field-above-hc2"} options={[{ value: "above-tc", label: "above Tc, in zero field" }, { value: "field-above-hc2", label: "in a field above H_c2" }]} onChange={(v) => p.set({ normalState: v })} />
+      <SelectField label="That normal state was measured" value={String(p.draft.normalState ?? "above-tc") as "above-tc" | "field-above-hc2"} options={[{ value: "above-tc", label: "above Tc, in zero field" }, { value: "field-above-hc2", label: "in a field above Hc2" }]} onChange={(v) => p.set({ normalState: v })} />
       <NumField label="Construction from" unit="K" value={w.tLowK ?? null} onChange={(v) => setW({ tLowK: v })} hint="empty: found from the jump" />
       <NumField label="Construction to" unit="K" value={w.tHighK ?? null} onChange={(v) => setW({ tHighK: v })} />
     </>

@@ -15,6 +15,7 @@ import type { SeriesView } from "@/lib/server/series";
 import { SeriesTable, ALL_COLUMNS } from "./SeriesTable";
 import { TrendSummary } from "./TrendSummary";
 import { Sym } from "../Sym";
+import { plainSymbol } from "@/lib/display";
 
 interface Props { slug: string; initial: SeriesView; others: { id: string; name: string }[] }
 
@@ -82,7 +83,7 @@ export function SeriesExplorer({ slug, initial, others }: Props) {
       <div className="sx-controls" data-testid="series-controls">
         <span>Axis <Seg label="Axis" value={axis} onChange={setAxis} options={[["x", view.series.compositionVariable], ["ea", "electrons per atom"]]} /></span>
         <label>Quantity <select value={quantity} onChange={(e) => setQuantity(e.target.value as SeriesChartQuantity)} data-testid="series-quantity">
-          {SERIES_CHART_QUANTITIES.map((k) => <option key={k} value={k}>{QUANTITY_LABEL[k].symbol}</option>)}
+          {SERIES_CHART_QUANTITIES.map((k) => <option key={k} value={k}>{plainSymbol(QUANTITY_LABEL[k].symbol)}</option>)}
         </select></label>
         <span>Trend <Seg label="Trend" value={String(degree) as "1" | "2"} onChange={(v) => setDegree(v === "2" ? 2 : 1)} options={[["1", "linear"], ["2", "quadratic"]]} /></span>
         <label className="checkbox"><input type="checkbox" checked={drafts} onChange={(e) => setDrafts(e.target.checked)} data-testid="series-drafts" /> show unreviewed drafts</label>
@@ -94,8 +95,8 @@ export function SeriesExplorer({ slug, initial, others }: Props) {
       {error && <p className="form-error" role="alert">{error}</p>}
       <div className="sx-layout">
         <section className="chart">
-          <h3>{q.symbol} against {view.axisLabel}</h3>
-          <div ref={chartHost}><PlotView build={build} testId="series-chart" label={`${q.symbol} against ${view.axisLabel}, with the weighted trend`} /></div>
+          <h3><Sym m={q.symbol} /> against {view.axisLabel}</h3>
+          <div ref={chartHost}><PlotView build={build} testId="series-chart" label={`${plainSymbol(q.symbol)} against ${view.axisLabel}, with the weighted trend`} /></div>
           <TrendSummary fit={fit} degree={degree} quantity={quantity} axisLabel={axis === "x" ? view.series.compositionVariable : "e/a"} trendFrom={view.trendFrom} />
           <div className="actions small">
             <a className="button quiet small" href={`${api}/${view.series.id}/export${query}`} download data-testid="export-csv">CSV of the table</a>
@@ -107,8 +108,8 @@ export function SeriesExplorer({ slug, initial, others }: Props) {
           </div>
         </section>
         <section>
-          <h3>{q.symbol} by sample</h3>
-          <SeriesTable rows={view.rows} slug={slug} flagged={flagged} testId="series-table" caption={`${q.symbol} by sample`}
+          <h3><Sym m={q.symbol} /> by sample</h3>
+          <SeriesTable rows={view.rows} slug={slug} flagged={flagged} testId="series-table" caption={`${plainSymbol(q.symbol)} by sample`}
             columns={[ALL_COLUMNS[0]!, ALL_COLUMNS.find((c) => c.key === (axis === "x" ? "x" : "ea"))!, ALL_COLUMNS.find((c) => c.key === quantity)!, ALL_COLUMNS[ALL_COLUMNS.length - 1]!]} />
         </section>
       </div>

@@ -17,9 +17,9 @@ interface Props { fit: TrendFit | null; degree: 1 | 2; quantity: SeriesChartQuan
 export function TrendSummary({ fit, degree, quantity, axisLabel, trendFrom }: Props) {
   const q = QUANTITY_LABEL[quantity];
   const kind = degree === 1 ? "Linear" : "Quadratic";
-  if (!fit) return <p className="sx-trend" data-testid="trend-summary">{kind} trend: not enough {trendFrom === "sealed" ? "reviewed " : ""}values of {q.symbol} with an axis value.</p>;
+  if (!fit) return <p className="sx-trend" data-testid="trend-summary">{kind} trend: not enough {trendFrom === "sealed" ? "reviewed " : ""}values of <Sym m={q.symbol} /> with an axis value.</p>;
   if (!fit.ok) return <p className="sx-trend" data-testid="trend-summary">{kind} trend not fitted: {fit.message}</p>;
-  const formula = degree === 1 ? `${q.symbol} = a₀ + a₁·${axisLabel}` : `${q.symbol} = a₀ + a₁·${axisLabel} + a₂·${axisLabel}²`;
+  const formula = <><Sym m={q.symbol} />{degree === 1 ? ` = a₀ + a₁·${axisLabel}` : ` = a₀ + a₁·${axisLabel} + a₂·${axisLabel}²`}</>;
   return (
     <div className="sx-trend" data-testid="trend-summary">
       <div><strong>{kind} trend</strong> {formula}{q.unit ? ` (${q.unit})` : ""}</div>
