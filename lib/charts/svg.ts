@@ -67,6 +67,9 @@ export function chartSvg(options: PlotOptions | readonly PlotOptions[], opts: Sv
     y += h;
   }
   for (const s of [...root.querySelectorAll("style")]) s.remove();
+  // A white halo behind labels (stroke painted first) needs paint-order, which PDF conversion
+  // ignores — it would paint the halo over the text. Paper needs no halo.
+  for (const e of [...root.querySelectorAll('[paint-order="stroke"]')]) for (const a of ["paint-order", "stroke", "stroke-width", "stroke-linejoin"]) e.removeAttribute(a);
   typesetSvgText(root, doc);
   return root.outerHTML;
 }

@@ -67,7 +67,7 @@ export function scanPlot(scan: ScanResult, opts: ScanPlotOptions = {}): PlotOpti
       Plot.dot(rows.filter((d) => d.beyond), { x: "tMaxK", y: "gamma", r: 2.2, stroke: "tMinK", fill: "white" }),
       Plot.dot(rows.filter((d) => d.plateau), { x: "tMaxK", y: "gamma", r: 4, stroke: COLOURS.plateau, strokeWidth: 1.2 }),
       Plot.dot(rec, { x: "tMaxK", y: "gamma", r: 8, stroke: COLOURS.copper, strokeWidth: 2.2 }),
-      Plot.text(rec, { x: "tMaxK", y: "gamma", text: (d: { tMinK: number; tMaxK: number }) => `recommended ${formatRange(d.tMinK, d.tMaxK, "K")}`, dy: -16, fill: COLOURS.copper, fontWeight: 600, stroke: "white", strokeWidth: 3, paintOrder: "stroke" }),
+      Plot.text(rec, { x: "tMaxK", y: "gamma", text: (d: { tMinK: number; tMaxK: number }) => `recommended ${formatRange(d.tMinK, d.tMaxK, "K")}`, dy: -16, textAnchor: "end", fill: COLOURS.copper, fontWeight: 600, stroke: "white", strokeWidth: 3, paintOrder: "stroke" }),
       ...(opts.current ? [Plot.dot([{ x: opts.current.tMaxK, y: opts.current.gammaSI * MJ }], { x: "x", y: "y", symbol: "diamond", r: 5.5, fill: COLOURS.copper, stroke: "white" })] : []),
       Plot.tip(rows, Plot.pointer({ x: "tMaxK", y: "gamma", title, fontSize: 12 })),
     ],
