@@ -6,10 +6,11 @@
  */
 import { readFileSync, readdirSync, statSync } from "node:fs";
 import path from "node:path";
+import { fileURLToPath } from "node:url";
 import { MODELS } from "@/lib/engine/models";
 import { REVIEW_ACTIONS } from "@/lib/server/review/states";
 
-const ROOT = path.resolve(__dirname, "../..");
+const ROOT = fileURLToPath(new URL("../..", import.meta.url));
 
 function tsFiles(dir: string): string[] {
   return readdirSync(dir).flatMap((n) => {
