@@ -8,7 +8,7 @@ export const dynamic = "force-dynamic";
 
 export const metadata: Metadata = {
   title: { default: "Heatbook", template: "%s · Heatbook" },
-  description: "Low-temperature specific heat of metals, from raw C(T) curves to reviewed γ, β and Θ_D.",
+  description: "Low-temperature specific heat of metals, from raw C(T) curves to reviewed γ, β and ΘD.",
   icons: { icon: "/favicon.svg" },
 };
 

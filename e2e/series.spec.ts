@@ -37,7 +37,7 @@ test("demo series: trend with uncertainty, axis switch x ↔ e/a, CSV export wit
   const [download] = await Promise.all([page.waitForEvent("download"), page.getByTestId("export-csv").click()]);
   const text = await readFile((await download.path())!, "utf8");
   const header = text.split(/\r?\n/)[0]!;
-  expect(header).toContain("gamma (mJ mol^-1 K^-2)");
-  expect(header).toContain("thetaD (K)");
+  expect(header).toContain("γ (mJ mol⁻¹ K⁻²)");
+  expect(header).toContain("ΘD (K)");
   expect(text.trim().split(/\r?\n/)).toHaveLength(1 + 6);
 });

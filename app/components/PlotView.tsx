@@ -6,6 +6,7 @@
 import * as Plot from "@observablehq/plot";
 import { useEffect, useRef, useState } from "react";
 import { useContainerWidth } from "@/app/components/useContainerWidth";
+import { typesetSvgText } from "@/lib/charts/typesetSvg";
 
 export function PlotView({ build, testId, label }: { build: (width: number) => Plot.PlotOptions; testId?: string; label: string }) {
   const host = useRef<HTMLDivElement>(null);
@@ -18,6 +19,7 @@ export function PlotView({ build, testId, label }: { build: (width: number) => P
     let chart: Element | null = null;
     try {
       chart = Plot.plot(build(width)) as unknown as Element;
+      typesetSvgText(chart, document);
       el.replaceChildren(chart);
       setError(null);
     } catch (err) {

@@ -47,7 +47,7 @@ export function SampleCreateForm({ apiBase, samplePath }: { apiBase: string; sam
       {created && (
         <p className="notice-ok" role="status">
           Added <Link href={`${samplePath}/${created.id}`}>{created.label}</Link> ({created.formula}): molar mass {fmtNumber(created.molarMassGPerMol, 7)} g/mol,{" "}
-          {fmtNumber(created.atomsPerFormulaUnit, 6)} atoms per formula unit.
+          {fmtNumber(created.atomsPerFormulaUnit, 6)} {created.atomsPerFormulaUnit === 1 ? "atom" : "atoms"} per formula unit.
         </p>
       )}
       <div className="actions">

@@ -83,7 +83,7 @@ export function SampleEditForm({ apiUrl, sample }: { apiUrl: string; sample: Ver
       {general && <p className="form-error" role="alert">{general}</p>}
       {saved && (
         <p className="notice-ok" role="status">
-          Saved (version {saved.version}). Molar mass {fmtNumber(saved.molarMassGPerMol, 7)} g/mol, {fmtNumber(saved.atomsPerFormulaUnit, 6)} atoms per formula unit.
+          Saved (version {saved.version}). Molar mass {fmtNumber(saved.molarMassGPerMol, 7)} g mol⁻¹, {fmtNumber(saved.atomsPerFormulaUnit, 6)} {saved.atomsPerFormulaUnit === 1 ? "atom" : "atoms"} per formula unit.
         </p>
       )}
       <div className="actions">

@@ -4,6 +4,7 @@
  * from stored points (SI, see ./units) to Observable Plot options; the page's client component
  * calls Plot.plot on them, tests render them with linkedom.
  */
+import { formatCount } from "../display/numbers";
 import * as Plot from "@observablehq/plot";
 import type { PlotOptions } from "@observablehq/plot";
 import { invalid } from "../engine/errors";
@@ -89,7 +90,7 @@ export function heatCapacityPlot(m: MeasurementSeries, opts: ChartOptions = {}):
   let caption: string | null = null;
   if (opts.log) {
     const kept = data.filter((d) => d.y > 0 && d.x > 0);
-    if (kept.length < data.length) caption = `${data.length - kept.length} point(s) with C ≤ 0 not shown on log axes`;
+    if (kept.length < data.length) caption = `${formatCount(data.length - kept.length, "point")} with C ≤ 0 not shown on log axes`;
     data = kept.map((d) => (d.lo !== null && d.lo <= 0 ? { ...d, lo: null, hi: null } : d));
   }
   return {

@@ -61,7 +61,7 @@ describe("heatCapacityPlot", () => {
     expect(options.y?.type).toBe("log");
     const el = render(options);
     expect(dots(el)).toHaveLength(T.length - 2);
-    expect(el.querySelector("figcaption")?.textContent).toBe("2 point(s) with C ≤ 0 not shown on log axes");
+    expect(el.querySelector("figcaption")?.textContent).toBe("2 points with C ≤ 0 not shown on log axes");
   });
 
   it("heatCapacityPlot refuses arrays of different length with InputError", () => {

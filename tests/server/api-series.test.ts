@@ -7,7 +7,8 @@ import { call } from "./apiHelpers";
 import { createSample } from "../../lib/server/samples";
 import { createToken } from "../../lib/server/tokens";
 import { setApiLimiter, TokenBucketLimiter } from "../../lib/server/api";
-import { addSeriesMembers, createSeries, removeSeriesMember, seriesCsv, seriesView, updateSeries } from "../../lib/server/series";
+import { addSeriesMembers, createSeries, latexFormula, latexNumber, latexText, removeSeriesMember, seriesCsv, seriesLatex, seriesView, updateSeries } from "../../lib/server/series";
+import { formatValue } from "../../lib/display";
 import { fitTrend } from "../../lib/engine/series";
 import { thetaDFromBeta } from "../../lib/engine/derived";
 import { ForbiddenError, NotFoundError, ConflictError } from "../../lib/engine/errors";
@@ -100,8 +101,28 @@ describe("seriesView", () => {
     const csv = seriesCsv(await seriesView(t.db, A.members.viewer, seriesId));
     const lines = csv.trimEnd().split("\r\n");
     expect(lines.length).toBe(6);
-    expect(lines[0]).toContain("gamma (mJ mol^-1 K^-2),gamma sigma (mJ mol^-1 K^-2)");
+    expect(lines[0]).toContain("γ (mJ mol⁻¹ K⁻²),σ(γ) (mJ mol⁻¹ K⁻²)");
+    expect(lines[0]).toContain("ΘD (K)");
+    expect(lines[0]).not.toMatch(/\^|gammaFree|thetaD/);
     expect(lines[1]!.split(",")[4]).toBe("7.8");
+  });
+  it("seriesLatex writes a tabular with value(σ) columns, typeset heads and escaped labels", async () => {
+    const view = await seriesView(t.db, A.members.viewer, seriesId);
+    const tex = seriesLatex(view);
+    expect(tex).toMatch(/\\begin\{tabular\}\{ll r( r){6}\}/);
+    expect(tex).toContain("$\\gamma$ (mJ\\,mol$^{-1}$\\,K$^{-2}$)");
+    const body = tex.split("\n").filter((l) => l.endsWith("\\\\")).slice(1);
+    expect(body).toHaveLength(view.rows.length);
+    const g = view.rows.find((r) => r.gamma && r.gamma.stdError)!.gamma!;
+    expect(tex).toContain(formatValue(g.value, g.stdError, 4));
+    expect(body.every((l) => l.split(" & ").length === 9)).toBe(true);
+  });
+  it("latexText, latexFormula and latexNumber escape text and typeset formulas and powers of ten", () => {
+    expect(latexText("A&B_1 50% #2 {x}")).toBe("A\\&B\\_1 50\\% \\#2 \\{x\\}");
+    expect(latexFormula("Nb3Sn")).toBe("Nb$_{3}$Sn");
+    expect(latexFormula("Cu0.9Ni0.1")).toBe("Cu$_{0.9}$Ni$_{0.1}$");
+    expect(latexNumber("1.2345(56) × 10⁻⁵")).toBe("1.2345(56)$\\times 10^{-5}$");
+    expect(latexNumber("−4.213(25)")).toBe("$-$4.213(25)");
   });
 });
 
@@ -115,7 +136,7 @@ describe("v1 series routes", () => {
     expect(r.body.rows.filter((x: { draft: boolean }) => x.draft).length).toBe(1);
     const csv = await call(seriesRoute.GET, `/series/${seriesId}?format=csv`, { token, params: { id: seriesId } });
     expect(csv.headers.get("content-type")).toMatch(/text\/csv/);
-    expect(csv.text.split("\r\n")[0]).toMatch(/^sample,formula,x,e\/a,gamma/);
+    expect(csv.text.split("\r\n")[0]).toMatch(/^sample,formula,x,e\/a,γ /);
   });
   it("GET /series/{id} with another group's token answers 404", async () => {
     const { token } = await createToken(t.db, B.members.owner, { name: "b", scope: "read" });

@@ -49,12 +49,13 @@ describe("buildReport", () => {
   it("buildReport shows γ in compact notation and Θ_D = (12π⁴R/(5β))^(1/3) for the invented β", async () => {
     const rep = await buildReport(t.db, f.members.viewer, r.analysisId, r.revisionId);
     const gamma = rep.fits[0]!.parameters.find((p) => p.name === "gamma")!;
-    expect(gamma.compact).toMatch(/^1\.3\d*\(\d+\) mJ mol⁻¹ K⁻² \(per mole formula unit\)$/);
+    expect(gamma.compact).toMatch(/^1\.3\d*\(\d+\) mJ mol⁻¹ K⁻²$/);
     const beta = rep.fits[0]!.parameters.find((p) => p.name === "beta")!;
     // R = N_A k_B, exact in CODATA 2018 (8.314462618… J mol⁻¹ K⁻¹); Debye T³ law, r = 1 for Cu
     const R = 6.02214076e23 * 1.380649e-23;
     const theta = rep.derived.find((q) => q.name === "thetaD")!;
-    expectClose(theta.value, Math.cbrt((12 * Math.PI ** 4 * R) / (5 * beta.value)), { rel: 1e-10 });
+    expect(beta.unit).toBe("mJ mol⁻¹ K⁻⁴"); // report values are in their display unit
+    expectClose(theta.value, Math.cbrt((12 * Math.PI ** 4 * R) / (5 * beta.value * 1e-3)), { rel: 1e-10 });
     expectClose(theta.value, 338.8, { rel: 2e-3 }); // invented β = 0.05 mJ mol⁻¹ K⁻⁴
     expect(theta.compact).toMatch(/K$/);
   });

@@ -7,6 +7,7 @@
  */
 import { useCallback, useEffect, useState } from "react";
 import { callJson } from "@/app/_lib/api";
+import { formatTime } from "@/lib/display";
 
 export interface JobRow {
   id: string;
@@ -72,11 +73,11 @@ export function JobsPanel({ slug, seriesId, analysisId, fitStepId }: { slug: str
         {analysisId && fitStepId ? <button type="button" disabled={busy} onClick={() => void enqueue({ kind: "window-scan", analysisId, stepId: fitStepId })}>Large window scan</button> : null}
       </div>
       {error ? <p role="alert">{error}</p> : null}
-      {jobs.length === 0 ? <p>No jobs yet. Jobs run in `npm run worker` processes.</p> : null}
+      {jobs.length === 0 ? <p>No jobs yet. Jobs run in worker processes (<code>npm run worker</code>).</p> : null}
       <ul className="stack">
         {jobs.map((j) => (
           <li key={j.id} data-testid={`job-${j.id}`}>
-            <strong>{KIND_LABEL[j.kind]}</strong> <small>{new Date(j.createdAt).toLocaleString()}</small>
+            <strong>{KIND_LABEL[j.kind]}</strong> <small>{formatTime(j.createdAt)}</small>
             <Progress job={j} />
           </li>
         ))}

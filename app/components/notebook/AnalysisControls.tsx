@@ -30,7 +30,7 @@ export function CreateAnalysisForm({ api, basePath, samples, initialSampleId }: 
       </div>
       <div className="field">
         <label htmlFor="new-title">Title</label>
-        <input id="new-title" {...invalidProps("new-title", errorFor(result, "title"))} type="text" value={title} onChange={(e) => setTitle(e.target.value)} placeholder="γ and Θ_D from the 0 T curve" size={34} />
+        <input id="new-title" {...invalidProps("new-title", errorFor(result, "title"))} type="text" value={title} onChange={(e) => setTitle(e.target.value)} placeholder="γ and ΘD from the 0 T curve" size={34} />
         <FieldError id="new-title-error" message={errorFor(result, "title")} />
       </div>
       <div className="field">

@@ -7,6 +7,7 @@
  * discussion range, a point to leave out).
  */
 import * as Plot from "@observablehq/plot";
+import { typesetSvgText } from "@/lib/charts/typesetSvg";
 import { useEffect, useRef, useState, type ReactNode } from "react";
 import { useContainerWidth } from "@/app/components/useContainerWidth";
 import { downloadPng, downloadText, mainSvg, svgText } from "./exportChart";
@@ -42,11 +43,13 @@ interface Props {
   onDrawn?: (xDomain: [number, number]) => void;
   controls?: ReactNode;
   footer?: ReactNode;
+  /** Server figure route of this chart (a URL with its query); adds "PDF 8.5 cm" and "PDF 17.5 cm" links for a manuscript. */
+  paperHref?: string;
 }
 
 type Scales = { x: Plot.Scale; y: Plot.Scale };
 
-export function ChartBox({ title, name, label, testId, build, csv, onRange, dragHint, onClick, onDrawn, controls, footer }: Props) {
+export function ChartBox({ title, name, label, testId, build, csv, onRange, dragHint, onClick, onDrawn, controls, footer, paperHref }: Props) {
   const host = useRef<HTMLDivElement>(null);
   const scales = useRef<Scales | null>(null);
   const drag = useRef<{ x0: number; shift: boolean; id: number } | null>(null);
@@ -60,6 +63,7 @@ export function ChartBox({ title, name, label, testId, build, csv, onRange, drag
     let chart: (Element & { scale?: (n: string) => Plot.Scale | undefined }) | null = null;
     try {
       chart = Plot.plot(build(width)) as unknown as Element & { scale?: (n: string) => Plot.Scale | undefined };
+      typesetSvgText(chart, document);
       el.querySelector(".chart-canvas")?.replaceChildren(chart);
       const x = chart.scale?.("x"), y = chart.scale?.("y");
       scales.current = x && y ? { x, y } : null;
@@ -145,6 +149,9 @@ export function ChartBox({ title, name, label, testId, build, csv, onRange, drag
           <button type="button" className="quiet small" onClick={exportSvg}>SVG</button>
           <button type="button" className="quiet small" onClick={exportPng}>PNG</button>
           {csv && <button type="button" className="quiet small" onClick={() => downloadText(`${name}.csv`, csv(), "text/csv")}>CSV</button>}
+          {paperHref && (["single", "double"] as const).map((col) => (
+            <a key={col} className="button quiet small" href={`${paperHref}&format=pdf&column=${col}`} download title={`Figure for a manuscript, ${col === "single" ? "one column" : "two columns"} wide, fonts embedded`}>PDF {col === "single" ? "8.5" : "17.5"} cm</a>
+          ))}
         </div>
       </div>
       {controls && <div className="chart-controls">{controls}</div>}

@@ -9,6 +9,8 @@ import { useCallback, useMemo, useState } from "react";
 import { fitPlot, residualPlot, scanPlot, fitCsv, scanCsv, defaultMaxTK, type FitStepResult, type RangeBand } from "@/lib/charts/notebook";
 import { ChartBox, type RangePick } from "./ChartBox";
 import { BASIS_LABEL, compact, num, paramSymbol, unitText } from "./display";
+import { Sym } from "../Sym";
+import { formatRange, modelLabel } from "@/lib/display";
 import type { Anchor, ModelInfo, NotebookContext, StepView } from "./types";
 import { sourceAt } from "@/lib/engine/notebook/pointSource";
 
@@ -25,7 +27,7 @@ function displayOf(models: ModelInfo[], model: string, name: string, siUnit: str
   return { factor: 1, unit: unitText(siUnit), description: "parameter of the expression (SI)" };
 }
 
-const RANGES = [{ value: "auto", label: "T ≤ 1.5 × window T_max" }, { value: "10", label: "T ≤ 10 K" }, { value: "all", label: "all points" }];
+const RANGES = [{ value: "auto", label: "T ≤ 1.5 × window Tmax" }, { value: "10", label: "T ≤ 10 K" }, { value: "all", label: "all points" }];
 
 export function FitView({ step, result: r, ctx, save }: Props) {
   const [range, setRange] = useState("auto");
@@ -68,6 +70,7 @@ export function FitView({ step, result: r, ctx, save }: Props) {
         title={<>C/T against T² <span className="muted">· the window is shaded; hollow points are outside it</span></>}
         name="fit-ct-vs-t2" label="C over T against T squared with the fitted model" testId="chart-fit"
         build={build} csv={() => fitCsv(r)} onRange={onRange} onDrawn={onDrawn}
+        paperHref={`${ctx.apiBase}/analyses/${ctx.analysisId}/steps/${step.id}/figure?chart=fit&revision=${ctx.revisionId}`}
         dragHint={ctx.editable ? (mode === "window" ? "Drag across the chart to choose a new fit window; shift-drag to comment on a range of points." : "Drag across the chart to comment on that range of points.") : "Drag across the chart to comment on a range of points."}
         controls={<>
           <label htmlFor={`range-${step.id}`}>Show</label>
@@ -87,7 +90,7 @@ export function FitView({ step, result: r, ctx, save }: Props) {
           </div>
         )}
       />
-      {f.residuals.length > 0 && <ChartBox title="Residuals (C − C_fit)/T" name="fit-residuals" label="Residuals of the fit" build={buildRes} csv={() => fitCsv(r)} testId="chart-residuals" />}
+      {f.residuals.length > 0 && <ChartBox title={<>Residuals (C − <Sym m="C_fit" />)/T</>} name="fit-residuals" label="Residuals of the fit" build={buildRes} csv={() => fitCsv(r)} testId="chart-residuals" />}
       <div className="nb-tables">
         <section aria-label="Fitted parameters">
           <h4>Parameters <span className="muted small">({BASIS_LABEL[r.basis]}; value(σ): σ is one standard error in the last digits)</span></h4>
@@ -98,7 +101,7 @@ export function FitView({ step, result: r, ctx, save }: Props) {
                 const d = displayOf(ctx.models, f.modelName, p.name, p.unit);
                 return (
                   <tr key={p.name} title={d.description}>
-                    <td>{paramSymbol(p.name)}</td>
+                    <td><Sym m={paramSymbol(p.name)} /></td>
                     <td className="num" data-testid={`param-${p.name}`}>{compact(p.value * d.factor, p.stdError === null ? null : p.stdError * d.factor)}</td>
                     <td className="nb-unit">{d.unit}</td>
                     <td className="num">{p.stdError !== null && p.value !== 0 ? `${num((100 * p.stdError) / Math.abs(p.value), 2)} %` : "—"}</td>
@@ -114,18 +117,20 @@ export function FitView({ step, result: r, ctx, save }: Props) {
           <dl className="facts nb-facts">
             <dt>Solved by</dt><dd>{f.method === "linear-qr" ? "linear least squares (Householder QR)" : `Levenberg–Marquardt, ${f.evaluations} evaluations`}{f.converged ? "" : " — not converged"}</dd>
             <dt>Points, free parameters</dt><dd>{f.nData}, {f.nFree} (ν = {f.dof})</dd>
-            <dt>χ², χ²_red</dt><dd>{num(f.chiSquare, 4)}, <strong>{num(f.reducedChiSquare, 3)}</strong></dd>
+            {f.weighted
+              ? <><dt>χ², <Sym m="χ²_red" /></dt><dd>{num(f.chiSquare, 4)}, <strong>{num(f.reducedChiSquare, 3)}</strong></dd></>
+              : <><dt>Residual standard deviation</dt><dd>{f.reducedChiSquare === null ? "—" : `${num(Math.sqrt(f.reducedChiSquare) * 1e3, 2)} mJ mol⁻¹ K⁻¹`} <span className="muted small">(no σ in the data: χ² has no scale)</span></dd></>}
             <dt>AICc, BIC</dt><dd>{num(f.aicc, 5)}, {num(f.bic, 5)} <span className="muted small">(only differences matter)</span></dd>
-            <dt>Weights</dt><dd>{f.weighted ? "1/σ²" : "none"}; errors {f.errorsScaledByReducedChiSquare ? "scaled by √χ²_red" : "from σ as given"}</dd>
+            <dt>Weights</dt><dd>{f.weighted ? "1/σ²" : "none"}; errors {f.errorsScaledByReducedChiSquare ? <>scaled by √<Sym m="χ²_red" /></> : "from σ as given"}</dd>
           </dl>
         </section>
         {f.correlation && f.correlation.names.length > 1 && (
           <section aria-label="Correlation matrix">
             <h4>Correlations</h4>
             <table className="nb-compact nb-corr">
-              <thead><tr><th />{f.correlation.names.map((n) => <th key={n} className="num">{paramSymbol(n)}</th>)}</tr></thead>
+              <thead><tr><th />{f.correlation.names.map((n) => <th key={n} className="num"><Sym m={paramSymbol(n)} /></th>)}</tr></thead>
               <tbody>{f.correlation.matrix.map((row, i) => (
-                <tr key={i}><th>{paramSymbol(f.correlation!.names[i]!)}</th>{row.map((c, j) => <td key={j} className={`num${i !== j && c !== null && Math.abs(c) > 0.98 ? " nb-bad" : ""}`}>{c === null ? "—" : c.toFixed(3)}</td>)}</tr>
+                <tr key={i}><th><Sym m={paramSymbol(f.correlation!.names[i]!)} /></th>{row.map((c, j) => <td key={j} className={`num${i !== j && c !== null && Math.abs(c) > 0.98 ? " nb-bad" : ""}`}>{c === null ? "—" : c.toFixed(3)}</td>)}</tr>
               ))}</tbody>
             </table>
           </section>
@@ -133,10 +138,10 @@ export function FitView({ step, result: r, ctx, save }: Props) {
       </div>
       {r.scan && (
         <div className="nb-scan">
-          <ChartBox title={<>Window scan: γ against T_max for each T_min <span className="muted">· ringed: plateau · large ring: recommended · diamond: this fit</span></>} name="window-scan" label="Window scan of gamma" testId="chart-scan" build={buildScan} csv={() => scanCsv(r.scan!)} />
+          <ChartBox title={<>Window scan: γ against <Sym m="T_max" /> for each <Sym m="T_min" /> <span className="muted">· ringed: plateau · large ring: recommended · diamond: this fit</span></>} name="window-scan" label="Window scan of gamma" testId="chart-scan" paperHref={`${ctx.apiBase}/analyses/${ctx.analysisId}/steps/${step.id}/figure?chart=scan&revision=${ctx.revisionId}`} build={buildScan} csv={() => scanCsv(r.scan!)} />
           <p className="nb-reason" data-testid="scan-reason"><strong>Recommendation.</strong> {r.scan.reason}</p>
           {rec && ctx.editable && (
-            <button type="button" className="quiet small" onClick={() => usePending({ tMinK: rec.tMinK, tMaxK: rec.tMaxK })}>Use the recommended window {num(rec.tMinK)}–{num(rec.tMaxK)} K</button>
+            <button type="button" className="quiet small" onClick={() => usePending({ tMinK: rec.tMinK, tMaxK: rec.tMaxK })}>Use the recommended window {formatRange(rec.tMinK, rec.tMaxK, "K")}</button>
           )}
         </div>
       )}
@@ -145,10 +150,10 @@ export function FitView({ step, result: r, ctx, save }: Props) {
           <h4>Models on the same window <span className="muted small">(lowest AICc first; w = Akaike weight)</span></h4>
           <div className="table-scroll">
             <table className="nb-compact" data-testid="model-comparison">
-              <thead><tr><th>Model</th><th className="num">k</th><th className="num">χ²_red</th><th className="num">ΔAICc</th><th className="num">w</th><th className="num">ΔBIC</th><th className="num">γ (mJ mol⁻¹ K⁻²)</th><th className="num">β (mJ mol⁻¹ K⁻⁴)</th></tr></thead>
+              <thead><tr><th>Model</th><th className="num">k</th><th className="num"><Sym m="χ²_red" /></th><th className="num">ΔAICc</th><th className="num">w</th><th className="num">ΔBIC</th><th className="num">γ (mJ mol⁻¹ K⁻²)</th><th className="num">β (mJ mol⁻¹ K⁻⁴)</th></tr></thead>
               <tbody>{[...r.comparison].sort((a, b) => (a.deltaAicc ?? Infinity) - (b.deltaAicc ?? Infinity)).map((row) => (
                 <tr key={row.model}>
-                  <td>{ctx.models.find((m) => m.name === row.model)?.title ?? row.model}{!row.converged && <span className="nb-bad"> (not converged)</span>}</td>
+                  <td><Sym m={modelLabel(row.model)} />{!row.converged && <span className="nb-bad"> (not converged)</span>}</td>
                   <td className="num">{row.nFree}</td>
                   <td className="num">{num(row.reducedChiSquare, 3)}</td>
                   <td className="num">{num(row.deltaAicc, 3)}</td>

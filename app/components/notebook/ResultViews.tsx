@@ -5,6 +5,8 @@ import { addendaPlot, addendaCsv, transitionPlot, transitionCsv, integralPlot, e
 import { ChartBox } from "./ChartBox";
 import { BASIS_LABEL, compact, num } from "./display";
 import { prettyQuantityUnit } from "./summary";
+import { Sym } from "../Sym";
+import { cleanText, formatCount, formatRange, modelLabel, symbolOf, term } from "@/lib/display";
 
 export function AddendaView({ r }: { r: AddendaStepResult }) {
   const [log, setLog] = useState(true);
@@ -13,7 +15,7 @@ export function AddendaView({ r }: { r: AddendaStepResult }) {
     <div className="nb-result">
       <ChartBox title="Total, addenda and net heat capacity of the whole sample" name="addenda" label="Addenda subtraction" build={build} csv={() => addendaCsv(r)}
         controls={<label className="checkbox"><input type="checkbox" checked={log} onChange={(e) => setLog(e.target.checked)} /> Logarithmic axes</label>} />
-      <p className="small muted">Addenda reach at most {num(r.maxAddendaFraction * 100, 2)} % of the measured total. {r.excluded.length ? `${r.excluded.length} sample point(s) outside the addenda range were left out.` : ""}</p>
+      <p className="small muted">Addenda reach at most {num(r.maxAddendaFraction * 100, 2)} % of the measured total. {r.excluded.length ? `${formatCount(r.excluded.length, "sample point")} outside the addenda range ${r.excluded.length === 1 ? "was" : "were"} left out.` : ""}</p>
     </div>
   );
 }
@@ -22,10 +24,10 @@ function QuantityRows({ items }: { items: readonly Quantity[] }) {
   return (
     <>{items.map((x) => (
       <tr key={x.name}>
-        <td>{x.symbol}</td>
+        <td><Sym m={symbolOf(x.name)} /> <span className="muted small">{term(x.name).label}</span></td>
         <td className="num" data-testid={`quantity-${x.name}`}>{compact(x.value, x.stdError)}</td>
         <td className="nb-unit">{prettyQuantityUnit(x.unit)}</td>
-        <td className="small muted">{x.note ?? ""}</td>
+        <td className="small muted">{x.note ? <Sym m={cleanText(x.note)} /> : ""}</td>
       </tr>
     ))}</>
   );
@@ -36,7 +38,7 @@ export function DeriveView({ r }: { r: DeriveStepResult }) {
   const rest = r.quantities.filter((x) => x.name !== "electronicToClassical");
   return (
     <div className="nb-result">
-      <p className="small muted">From the {r.fitModel} fit over {num(r.fitWindow.tMinK, 3)}–{num(r.fitWindow.tMaxK, 3)} K in {num(r.fieldT)} T; shown {BASIS_LABEL[r.basis]}. Valences used: {Object.entries(r.valences).map(([k, v]) => `${k} ${v}`).join(", ") || "none"}; density {r.densityGPerCm3 === null ? "not given" : `${num(r.densityGPerCm3, 5)} g cm⁻³`}.</p>
+      <p className="small muted">From the fit of <Sym m={modelLabel(r.fitModel)} /> over {formatRange(r.fitWindow.tMinK, r.fitWindow.tMaxK, "K")} in {num(r.fieldT)} T; shown {BASIS_LABEL[r.basis]}. Valences used: {Object.entries(r.valences).map(([k, v]) => `${k} ${v}`).join(", ") || "none"}; density {r.densityGPerCm3 === null ? "not given" : `${num(r.densityGPerCm3, 5)} g cm⁻³`}.</p>
       <table className="nb-compact" data-testid="derived-quantities">
         <thead><tr><th>Quantity</th><th className="num">Value(σ)</th><th>Unit</th><th>Note</th></tr></thead>
         <tbody><QuantityRows items={rest} /></tbody>
@@ -57,15 +59,15 @@ export function TransitionView({ r, basis }: { r: TransitionStepResult; basis?: 
   const rows = [r.tc, r.deltaC, r.jumpRatio, r.jumpRatioSuperconductingPart, r.gammaResidual, r.nonSuperconductingFraction].filter((x): x is Quantity => !!x);
   return (
     <div className="nb-result">
-      <ChartBox title="Entropy balance: C_el/T with the idealised equal-area step" name="transition" label="Superconducting transition" build={build} csv={() => transitionCsv(r)} />
+      <ChartBox title={<>Entropy balance: <Sym m="C_el/T" /> with the idealised equal-area step</>} name="transition" label="Superconducting transition" build={build} csv={() => transitionCsv(r)} />
       <table className="nb-compact" data-testid="transition-quantities">
         <thead><tr><th>Quantity</th><th className="num">Value(σ)</th><th>Unit</th><th>Note</th></tr></thead>
         <tbody>
           <QuantityRows items={rows} />
-          <tr><td>BCS weak coupling</td><td className="num">{num(r.bcsJumpRatio, 4)}</td><td /><td className="small muted">ΔC/(γ_n T_c) for comparison</td></tr>
+          <tr><td>BCS weak coupling</td><td className="num">{num(r.bcsJumpRatio, 4)}</td><td /><td className="small muted"><Sym m="ΔC/(γ_n T_c)" /> for comparison</td></tr>
         </tbody>
       </table>
-      <p className="small muted">Normal state: {r.normalState === "above-tc" ? "fitted above T_c in zero field" : "fitted in a field above H_c2"}. Uncertainty: {r.uncertaintyMethod}.</p>
+      <p className="small muted">Normal state: {r.normalState === "above-tc" ? <>fitted above <Sym m="T_c" /> in zero field</> : <>fitted in a field above <Sym m="H_c2" /></>}. Uncertainty: {r.uncertaintyMethod}.</p>
     </div>
   );
 }
@@ -93,7 +95,7 @@ export function NormaliseView({ r }: { r: Record<string, unknown> }) {
     <dl className="facts nb-facts">
       <dt>From</dt><dd>{BASIS_LABEL[String(r.from)] ?? String(r.from)}</dd>
       <dt>To</dt><dd>{BASIS_LABEL[String(r.per)]}</dd>
-      <dt>Formula, M</dt><dd>{String(r.formula)}, {num(r.molarMassGPerMol as number, 7)} g mol⁻¹, {num(r.atomsPerFormulaUnit as number, 4)} atoms per formula unit</dd>
+      <dt>Formula, M</dt><dd>{String(r.formula)}, {num(r.molarMassGPerMol as number, 7)} g mol⁻¹, {formatCount(Number(num(r.atomsPerFormulaUnit as number, 4)), "atom")} per formula unit</dd>
       {typeof r.moles === "number" && <><dt>Amount</dt><dd>{num(r.massMg as number, 6)} mg → {num(r.moles * 1e3, 6)} mmol formula units</dd></>}
     </dl>
   );

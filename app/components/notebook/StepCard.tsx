@@ -9,7 +9,8 @@ import { useState } from "react";
 import { callJson } from "@/app/_lib/api";
 import type { FitStepResult, AddendaStepResult, DeriveStepResult, TransitionStepResult, EntropyStepResult } from "@/lib/charts/notebook";
 import { KIND_LABEL, when } from "./display";
-import { summaryLine } from "./summary";
+import { summaryLine, TYPESET_SUMMARY } from "./summary";
+import { Sym } from "../Sym";
 import { StepForm, type Draft } from "./StepForm";
 import { FitView } from "./FitView";
 import { JobsPanel } from "@/app/components/jobs/JobsPanel";
@@ -131,7 +132,7 @@ export function StepCard({ step, first, last, ctx, noteHtml, basisAbove }: Props
         <div>
           <span className="nb-kind">{KIND_LABEL[step.kind] ?? step.kind}</span>
           <h3 id={`h-${step.id}`}>{step.title || KIND_LABEL[step.kind]}</h3>
-          {summary && <p className="nb-summary" data-testid="step-summary">{summary}</p>}
+          {summary && <p className="nb-summary" data-testid="step-summary">{TYPESET_SUMMARY.has(step.kind) ? <Sym m={summary} /> : summary}</p>}
         </div>
         <div className="nb-step-meta">
           <span className={step.fresh ? "nb-fresh" : "nb-stale"} title={step.computedAt ? `computed ${when(step.computedAt)}` : undefined}>

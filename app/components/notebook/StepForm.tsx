@@ -6,6 +6,9 @@
 import { CheckField, NumField, SelectField, TextField, pairsText, parsePairs } from "./fields";
 import { KIND_LABEL, num } from "./display";
 import type { NotebookContext, StepView } from "./types";
+import { Sym } from "../Sym";
+import { modelLabel, plainSymbol } from "@/lib/display";
+import type { ReactNode } from "react";
 
 export type Draft = Record<string, unknown>;
 
@@ -19,10 +22,10 @@ interface Props {
 const n = (v: unknown) => (typeof v === "number" ? v : null);
 
 function fitStepsAbove(ctx: NotebookContext, step: StepView) {
-  return ctx.steps.filter((s) => s.kind === "fit" && s.position < step.position).map((s, i) => ({ value: s.id, label: s.title || `Model fit ${i + 1} (${String((s.config as { model?: string }).model ?? "")})` }));
+  return ctx.steps.filter((s) => s.kind === "fit" && s.position < step.position).map((s, i) => ({ value: s.id, label: s.title || `Fit ${i + 1}: ${plainSymbol(modelLabel(String((s.config as { model?: string }).model ?? "sommerfeld")))}` }));
 }
 
-function FitStepSelect({ label, field, props }: { label: string; field: string; props: Props }) {
+function FitStepSelect({ label, field, props }: { label: ReactNode; field: string; props: Props }) {
   const options = [{ value: "", label: "the nearest fit above" }, ...fitStepsAbove(props.ctx, props.step)];
   return <SelectField label={label} value={String(props.draft[field] ?? "")} options={options} onChange={(v) => props.set({ [field]: v || null })} />;
 }
@@ -102,11 +105,11 @@ function FitForm(p: Props) {
           hint="Any letters other than T are fitted parameters, in SI (g in J mol⁻¹ K⁻², b in J mol⁻¹ K⁻⁴). Operators + − * / ^, exp, log, sqrt." />
       )}
       {model !== "expression" && <p className="wide small muted nb-formula">{p.ctx.models.find((m) => m.name === model)?.formula}</p>}
-      <NumField label="Window from T_min" unit="K" value={n(p.draft.tMinK)} onChange={(v) => p.set({ tMinK: v })} testId="fit-tmin" hint="or drag across the C/T vs T² chart" />
-      <NumField label="Window to T_max" unit="K" value={n(p.draft.tMaxK)} onChange={(v) => p.set({ tMaxK: v })} testId="fit-tmax" />
+      <NumField label={<>Window from <Sym m="T_min" /></>} unit="K" value={n(p.draft.tMinK)} onChange={(v) => p.set({ tMinK: v })} testId="fit-tmin" hint="or drag across the C/T vs T² chart" />
+      <NumField label={<>Window to <Sym m="T_max" /></>} unit="K" value={n(p.draft.tMaxK)} onChange={(v) => p.set({ tMaxK: v })} testId="fit-tmax" />
       <SelectField label="Weights" value={String(p.draft.weighting ?? "sigma") as "sigma" | "none"} options={[{ value: "sigma", label: "1/σ² from the data's σ" }, { value: "none", label: "equal (unweighted)" }]} onChange={(v) => p.set({ weighting: v })} />
-      <CheckField label="Scale standard errors by √χ²_red" checked={Boolean(p.draft.scaleErrors)} onChange={(v) => p.set({ scaleErrors: v })} hint="for σ that are only relative" />
-      <CheckField label="Scan windows (γ against T_min, T_max)" checked={Boolean(p.draft.scan)} onChange={(v) => p.set({ scan: v })} hint="registry models only" />
+      <CheckField label={<>Scale standard errors by √<Sym m="χ²_red" /></>} checked={Boolean(p.draft.scaleErrors)} onChange={(v) => p.set({ scaleErrors: v })} hint="for σ that are only relative" />
+      <CheckField label={<>Scan windows (γ against <Sym m="T_min" />, <Sym m="T_max" />)</>} checked={Boolean(p.draft.scan)} onChange={(v) => p.set({ scan: v })} hint="registry models only" />
       <TextField label="Held fixed (name=value, SI)" value={pairsText(p.draft.fixed as Record<string, number>)} onChange={(v) => p.set({ fixed: parsePairs(v) })} placeholder="A=0" mono />
       <fieldset className="wide nb-fieldset">
         <legend>Compare on the same window (AICc, BIC)</legend>
@@ -143,8 +146,8 @@ function DeriveForm(p: Props) {
       <NumField label="Density override" unit="g cm⁻³" value={n(p.draft.densityGPerCm3)} onChange={(v) => p.set({ densityGPerCm3: v })} hint="empty: the sample's density" />
       <TextField label="Valence overrides (El=z)" value={pairsText(p.draft.valences as Record<string, number>)} onChange={(v) => p.set({ valences: parsePairs(v) })} placeholder="Nb=5, Mo=6" mono />
       {measuredField(p, "gammaBandMJ", "γ_band (band structure)", "mJ mol⁻¹ K⁻² per f.u.")}
-      <NumField label="μ* (Coulomb pseudopotential)" value={n(p.draft.muStar)} onChange={(v) => p.set({ muStar: v })} hint="for McMillan's T_c, e.g. 0.13" />
-      <NumField label="Measured T_c" unit="K" value={n(p.draft.tcK)} onChange={(v) => p.set({ tcK: v })} />
+      <NumField label="μ* (Coulomb pseudopotential)" value={n(p.draft.muStar)} onChange={(v) => p.set({ muStar: v })} hint="for McMillan’s Tc, e.g. 0.13" />
+      <NumField label={<>Measured <Sym m="T_c" /></>} unit="K" value={n(p.draft.tcK)} onChange={(v) => p.set({ tcK: v })} />
       <NumField label="χ (Pauli susceptibility)" value={chi?.value ?? null} onChange={(x) => p.set({ chi: x === null ? null : { stdError: null, unit: "m3/mol", ...(chi ?? {}), value: x } })} />
       <NumField label="σ of χ" value={chi?.stdError ?? null} onChange={(x) => p.set({ chi: chi ? { ...chi, stdError: x } : null })} />
       <SelectField label="Unit of χ" value={chi?.unit ?? "m3/mol"} options={[{ value: "m3/mol", label: "m³ mol⁻¹ (SI)" }, { value: "emu/mol", label: "emu mol⁻¹ (cgs)" }]} onChange={(u) => p.set({ chi: chi ? { ...chi, unit: u } : null })} />
@@ -164,8 +167,8 @@ function TransitionForm(p: Props) {
   };
   return (
     <>
-      <FitStepSelect label="Normal-state γ_n and β from" field="normalFitStepId" props={p} />
-      <SelectField label="That normal state was measured" value={String(p.draft.normalState ?? "above-tc") as "above-tc" | "field-above-hc2"} options={[{ value: "above-tc", label: "above T_c, in zero field" }, { value: "field-above-hc2", label: "in a field above H_c2" }]} onChange={(v) => p.set({ normalState: v })} />
+      <FitStepSelect label={<>Normal-state <Sym m="γ_n" /> and β from</>} field="normalFitStepId" props={p} />
+      <SelectField label="That normal state was measured" value={String(p.draft.normalState ?? "above-tc") as "above-tc" | "field-above-hc2"} options={[{ value: "above-tc", label: "above Tc, in zero field" }, { value: "field-above-hc2", label: "in a field above Hc2" }]} onChange={(v) => p.set({ normalState: v })} />
       <NumField label="Construction from" unit="K" value={w.tLowK ?? null} onChange={(v) => setW({ tLowK: v })} hint="empty: found from the jump" />
       <NumField label="Construction to" unit="K" value={w.tHighK ?? null} onChange={(v) => setW({ tHighK: v })} />
     </>
@@ -190,7 +193,7 @@ export function StepForm(props: Props) {
     case "fit": return <FitForm {...props} />;
     case "derive": return <DeriveForm {...props} />;
     case "transition": return <TransitionForm {...props} />;
-    case "entropy": return <FitStepSelect label="Low-temperature part (0 → T_min) from" field="fitStepId" props={props} />;
+    case "entropy": return <FitStepSelect label={<>Low-temperature part (0 → <Sym m="T_min" />) from</>} field="fitStepId" props={props} />;
     case "note": return <NoteForm {...props} />;
     default: return <p className="muted">No settings for {KIND_LABEL[props.step.kind] ?? props.step.kind}.</p>;
   }

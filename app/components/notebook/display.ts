@@ -3,24 +3,14 @@
  * unit text with superscripts, compact value(σ) in display units (SI × factor, rounding by the
  * engine's formatUncertainty).
  */
-import { formatUncertainty } from "@/lib/engine/units/format";
-import { prettyUnit } from "@/lib/charts/notebook";
-import { fmtNumber } from "@/app/_lib/format";
+import { STEP_KINDS, formatNumber, formatUnit, formatValue, symbolOf } from "@/lib/display";
 
 // One set of words for revision states across the app.
 export { STATE_LABEL, when } from "@/app/components/review/labels";
 export type { RevisionState } from "@/lib/server/review";
 
-export const KIND_LABEL: Record<string, string> = {
-  data: "Data",
-  addenda: "Addenda subtraction",
-  normalise: "Per-mole normalisation",
-  fit: "Model fit",
-  derive: "Derived quantities",
-  transition: "Superconducting transition",
-  entropy: "Entropy and enthalpy",
-  note: "Note",
-};
+/** Step kinds in words: the display vocabulary's (lib/display). */
+export const KIND_LABEL: Record<string, string> = Object.fromEntries(Object.entries(STEP_KINDS).map(([k, t]) => [k, t.label]));
 
 export const KIND_HINT: Record<string, string> = {
   data: "choose measurements, range, points left out",
@@ -33,40 +23,25 @@ export const KIND_HINT: Record<string, string> = {
   note: "text for the group (Markdown)",
 };
 
-const SYMBOL: Record<string, string> = { gamma: "γ", beta: "β", delta: "δ", epsilon: "ε", thetaD: "Θ_D", thetaE: "Θ_E", A: "A_N", B: "B", delta0: "Δ", tc: "T_c", gammaN: "γ_n" };
-
+/** Symbol markup of a parameter or quantity (render with <Sym m=…/>). */
 export function paramSymbol(name: string): string {
-  return SYMBOL[name] ?? name;
+  return symbolOf(name);
 }
 
-/** "mJ/(mol*K^2)" → "mJ mol⁻¹ K⁻²"; "mJ*K/mol" → "mJ K mol⁻¹"; "K" → "K". */
+/** "mJ/(mol*K^2)" → "mJ mol⁻¹ K⁻²"; "mJ*K/mol" → "mJ K mol⁻¹"; "K" → "K"; "1" → "". */
 export function unitText(unit: string): string {
-  if (!unit || unit === "1") return "";
-  const [num, den] = unit.split("/", 2) as [string, string | undefined];
-  const tokens = (s: string) => s.replace(/[()]/g, "").split(/[*\s]+/).filter(Boolean);
-  const up = tokens(num).filter((t) => t !== "1").map((t) => prettyUnit(t));
-  const down = den ? tokens(den).map((t) => {
-    const [base, e] = t.split("^") as [string, string | undefined];
-    return prettyUnit(`${base}^-${e ?? "1"}`);
-  }) : [];
-  return [...up, ...down].join(" ");
+  return formatUnit(unit);
 }
 
-/** Compact "4.213(25)" of a value and σ in the same unit; "—" for null. */
+/** Compact "4.213(25)" of a value and σ in the same unit (the one display rule); "—" for null. */
 export function compact(value: number | null | undefined, sigma?: number | null): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return "—";
-  if (sigma === null || sigma === undefined || sigma === 0) return fmtNumber(value, 6);
-  try {
-    return formatUncertainty(value, sigma ?? null, { exponent: "times" });
-  } catch {
-    return formatUncertainty(value, null, { exponent: "times" });
-  }
+  return formatValue(value, sigma ?? null, 6);
 }
 
-/** A number with 4 significant figures for labels (no uncertainty). */
+/** A number with `sig` significant figures for labels (no uncertainty). */
 export function num(value: number | null | undefined, sig = 4): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return "—";
-  return compact(Number(value.toPrecision(sig)));
+  return formatNumber(value, sig);
 }
 
 export const BASIS_LABEL: Record<string, string> = {

@@ -2,7 +2,7 @@
 /** Small labelled inputs of the step forms. Numbers are typed as text and parsed here (syntax only). */
 import { useEffect, useId, useState, type ReactNode } from "react";
 
-export function NumField({ label, value, onChange, unit, hint, required = false, testId }: { label: string; value: number | null | undefined; onChange: (v: number | null) => void; unit?: string; hint?: string; required?: boolean; testId?: string }) {
+export function NumField({ label, value, onChange, unit, hint, required = false, testId }: { label: ReactNode; value: number | null | undefined; onChange: (v: number | null) => void; unit?: string; hint?: string; required?: boolean; testId?: string }) {
   const id = useId();
   const [text, setText] = useState(value === null || value === undefined ? "" : String(value));
   const parsed = text.trim() === "" ? null : Number(text.replace(",", "."));
@@ -29,7 +29,7 @@ export function NumField({ label, value, onChange, unit, hint, required = false,
   );
 }
 
-export function SelectField<T extends string>({ label, value, options, onChange, hint, testId }: { label: string; value: T; options: readonly { value: T; label: string }[]; onChange: (v: T) => void; hint?: string; testId?: string }) {
+export function SelectField<T extends string>({ label, value, options, onChange, hint, testId }: { label: ReactNode; value: T; options: readonly { value: T; label: string }[]; onChange: (v: T) => void; hint?: string; testId?: string }) {
   const id = useId();
   return (
     <div className="field">

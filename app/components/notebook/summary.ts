@@ -4,6 +4,7 @@
  */
 import type { AddendaStepResult, DeriveStepResult, EntropyStepResult, FitStepResult, TransitionStepResult } from "@/lib/charts/notebook";
 import { BASIS_LABEL, compact, num, unitText } from "./display";
+import { formatCount, formatRange, formatUnit, symbolOf } from "@/lib/display";
 import type { StepView } from "./types";
 
 const q = (v: { value: number; stdError: number | null } | null | undefined, k = 1) => (v ? compact(v.value * k, v.stdError === null ? null : v.stdError * k) : "—");
@@ -14,24 +15,25 @@ function fit(r: FitStepResult): string {
   const parts: string[] = [];
   if (g) parts.push(`γ = ${q(g, 1e3)} mJ mol⁻¹ K⁻²`);
   if (b) parts.push(`β = ${q(b, 1e3)} mJ mol⁻¹ K⁻⁴`);
-  if (!g && !b) parts.push(r.fit.parameters.slice(0, 3).map((x) => `${x.name} = ${q(x)}${x.unit ? ` ${unitText(x.unit)}` : ""}`).join(" · "));
-  parts.push(`${r.window.nPoints} points in ${num(r.window.tMinK, 3)}–${num(r.window.tMaxK, 3)} K`);
-  if (r.fit.reducedChiSquare !== null) parts.push(`χ²_red = ${num(r.fit.reducedChiSquare, 3)}`);
+  if (!g && !b) parts.push(r.fit.parameters.slice(0, 3).map((x) => `${symbolOf(x.name)} = ${q(x)}${x.unit ? ` ${unitText(x.unit)}` : ""}`).join(" · "));
+  parts.push(`${formatCount(r.window.nPoints, "point")} in ${formatRange(r.window.tMinK, r.window.tMaxK, "K")}`);
+  if (r.fit.reducedChiSquare !== null) parts.push(r.fit.weighted ? `χ²_red = ${num(r.fit.reducedChiSquare, 3)}` : `residual s.d. ${num(Math.sqrt(r.fit.reducedChiSquare) * 1e3, 2)} mJ mol⁻¹ K⁻¹`);
   return `${parts.join(" · ")} (${BASIS_LABEL[r.basis]})`;
 }
 
 function derive(r: DeriveStepResult): string {
   const by = new Map(r.quantities.map((x) => [x.name, x]));
   const pick = ["thetaD", "dosEF", "massRatio", "lambda"].map((k) => by.get(k)).filter((x) => !!x);
-  return pick.map((x) => `${x!.symbol} = ${q(x)} ${prettyQuantityUnit(x!.unit)}`.trim()).join(" · ");
+  return pick.map((x) => `${symbolOf(x!.name)} = ${q(x)} ${prettyQuantityUnit(x!.unit)}`.trim()).join(" · ");
 }
 
 /** Engine quantity units are written out ("states eV^-1 f.u.^-1"): superscripts only. */
 export function prettyQuantityUnit(unit: string): string {
-  if (unit === "1") return "";
-  const sup: Record<string, string> = { "-": "⁻", "0": "⁰", "1": "¹", "2": "²", "3": "³", "4": "⁴", "5": "⁵", "6": "⁶", "7": "⁷", "8": "⁸", "9": "⁹" };
-  return unit.replace(/\^(-?\d+)/g, (_, e: string) => [...e].map((c) => sup[c] ?? c).join(""));
+  return formatUnit(unit);
 }
+
+/** Step kinds whose summary is built only from our own symbols and numbers (safe to typeset). */
+export const TYPESET_SUMMARY = new Set(["fit", "derive", "transition", "entropy"]);
 
 /** Summary text of a computed step, or null when there is nothing to say. */
 export function summaryLine(step: StepView): string | null {
@@ -43,7 +45,7 @@ export function summaryLine(step: StepView): string | null {
     case "data": {
       const ms = (r.measurements as { label: string }[]) ?? [];
       const ex = (r.excluded as unknown[])?.length ?? 0;
-      return `${r.points} points, ${num(r.tMinK as number, 3)}–${num(r.tMaxK as number, 3)} K, ${num(r.fieldT as number)} T · ${ms.map((m) => m.label).join(", ")}${ex ? ` · ${ex} left out by hand` : ""} · ${BASIS_LABEL[r.basis as string] ?? r.basis}`;
+      return `${formatCount(r.points as number, "point")}, ${formatRange(r.tMinK as number, r.tMaxK as number, "K")}, ${num(r.fieldT as number)} T · ${ms.map((m) => m.label).join(", ")}${ex ? ` · ${formatCount(ex, "point")} left out by hand` : ""} · ${BASIS_LABEL[r.basis as string] ?? r.basis}`;
     }
     case "addenda": {
       const a = r as unknown as AddendaStepResult;
@@ -57,7 +59,7 @@ export function summaryLine(step: StepView): string | null {
     case "derive": return derive(r as unknown as DeriveStepResult);
     case "transition": {
       const t = r as unknown as TransitionStepResult;
-      return `T_c = ${q(t.tc)} K · ΔC/(γ_n T_c) = ${q(t.jumpRatio)} (BCS weak coupling ${num(t.bcsJumpRatio, 3)})${t.nonSuperconductingFraction ? ` · non-superconducting fraction ${q(t.nonSuperconductingFraction)}` : ""}`;
+      return `T_c = ${q(t.tc)} K · ΔC/(γ_n T_c) = ${q(t.jumpRatio)} (BCS weak coupling ${num(t.bcsJumpRatio, 4)})${t.nonSuperconductingFraction ? ` · non-superconducting fraction ${q(t.nonSuperconductingFraction)}` : ""}`;
     }
     case "entropy": {
       const e = r as unknown as EntropyStepResult;

@@ -14,6 +14,8 @@ import { seriesPlot, seriesPoints, QUANTITY_LABEL, SERIES_CHART_QUANTITIES, type
 import type { SeriesView } from "@/lib/server/series";
 import { SeriesTable, ALL_COLUMNS } from "./SeriesTable";
 import { TrendSummary } from "./TrendSummary";
+import { Sym } from "../Sym";
+import { plainSymbol } from "@/lib/display";
 
 interface Props { slug: string; initial: SeriesView; others: { id: string; name: string }[] }
 
@@ -81,30 +83,33 @@ export function SeriesExplorer({ slug, initial, others }: Props) {
       <div className="sx-controls" data-testid="series-controls">
         <span>Axis <Seg label="Axis" value={axis} onChange={setAxis} options={[["x", view.series.compositionVariable], ["ea", "electrons per atom"]]} /></span>
         <label>Quantity <select value={quantity} onChange={(e) => setQuantity(e.target.value as SeriesChartQuantity)} data-testid="series-quantity">
-          {SERIES_CHART_QUANTITIES.map((k) => <option key={k} value={k}>{QUANTITY_LABEL[k].symbol}</option>)}
+          {SERIES_CHART_QUANTITIES.map((k) => <option key={k} value={k}>{plainSymbol(QUANTITY_LABEL[k].symbol)}</option>)}
         </select></label>
         <span>Trend <Seg label="Trend" value={String(degree) as "1" | "2"} onChange={(v) => setDegree(v === "2" ? 2 : 1)} options={[["1", "linear"], ["2", "quadratic"]]} /></span>
         <label className="checkbox"><input type="checkbox" checked={drafts} onChange={(e) => setDrafts(e.target.checked)} data-testid="series-drafts" /> show unreviewed drafts</label>
         {drafts && <label className="checkbox"><input type="checkbox" checked={trendFromShown} onChange={(e) => setTrendFromShown(e.target.checked)} /> fit the trend to drafts too</label>}
-        {quantity === "gamma" && <label className="checkbox"><input type="checkbox" checked={showFree} onChange={(e) => setShowFree(e.target.checked)} /> γ_free</label>}
+        {quantity === "gamma" && <label className="checkbox"><input type="checkbox" checked={showFree} onChange={(e) => setShowFree(e.target.checked)} /> <Sym m="γ_free" /></label>}
         {others.length > 0 && <label>Overlay <select value={overlayId} onChange={(e) => setOverlayId(e.target.value)} data-testid="series-overlay"><option value="">— none —</option>{others.map((o) => <option key={o.id} value={o.id}>{o.name}</option>)}</select></label>}
         {loading && <span className="small muted">updating…</span>}
       </div>
       {error && <p className="form-error" role="alert">{error}</p>}
       <div className="sx-layout">
         <section className="chart">
-          <h3>{q.symbol} against {view.axisLabel}</h3>
-          <div ref={chartHost}><PlotView build={build} testId="series-chart" label={`${q.symbol} against ${view.axisLabel}, with the weighted trend`} /></div>
+          <h3><Sym m={q.symbol} /> against {view.axisLabel}</h3>
+          <div ref={chartHost}><PlotView build={build} testId="series-chart" label={`${plainSymbol(q.symbol)} against ${view.axisLabel}, with the weighted trend`} /></div>
           <TrendSummary fit={fit} degree={degree} quantity={quantity} axisLabel={axis === "x" ? view.series.compositionVariable : "e/a"} trendFrom={view.trendFrom} />
           <div className="actions small">
             <a className="button quiet small" href={`${api}/${view.series.id}/export${query}`} download data-testid="export-csv">CSV of the table</a>
+            <a className="button quiet small" href={`${api}/${view.series.id}/export${query}${query ? "&" : "?"}format=latex`} download data-testid="export-latex">LaTeX table</a>
+            {(["single", "double"] as const).map((col) => <a key={col} className="button quiet small" href={`${api}/${view.series.id}/export${query}${query ? "&" : "?"}format=pdf&quantity=${quantity}&degree=${degree}&column=${col}`} download data-testid={`export-figure-${col}`}>Figure PDF {col === "single" ? "8.5" : "17.5"} cm</a>)}
+            <a className="button quiet small" href={`${api}/${view.series.id}/export${query}${query ? "&" : "?"}format=svg&quantity=${quantity}&degree=${degree}&column=single`} download>Figure SVG 8.5 cm</a>
             <button type="button" className="quiet small" onClick={() => { const s = svg(); if (s) downloadText(`${stem}.svg`, svgText(s), "image/svg+xml"); }} data-testid="export-svg">SVG</button>
             <button type="button" className="quiet small" onClick={() => { const s = svg(); if (s) void downloadPng(`${stem}.png`, s).catch((e: Error) => setError(e.message)); }} data-testid="export-png">PNG</button>
           </div>
         </section>
         <section>
-          <h3>{q.symbol} by sample</h3>
-          <SeriesTable rows={view.rows} slug={slug} flagged={flagged} testId="series-table" caption={`${q.symbol} by sample`}
+          <h3><Sym m={q.symbol} /> by sample</h3>
+          <SeriesTable rows={view.rows} slug={slug} flagged={flagged} testId="series-table" caption={`${plainSymbol(q.symbol)} by sample`}
             columns={[ALL_COLUMNS[0]!, ALL_COLUMNS.find((c) => c.key === (axis === "x" ? "x" : "ea"))!, ALL_COLUMNS.find((c) => c.key === quantity)!, ALL_COLUMNS[ALL_COLUMNS.length - 1]!]} />
         </section>
       </div>

@@ -6,9 +6,10 @@
  */
 import Link from "next/link";
 import { useMemo, useState } from "react";
-import { formatUncertainty } from "@/lib/engine/units/format";
+import { formatNumber, formatValue } from "@/lib/display";
 import type { SeriesRow } from "@/lib/server/series";
 import { STATE_LABEL } from "@/app/components/review/labels";
+import { Sym } from "../Sym";
 
 type Key = "sample" | "x" | "ea" | "gamma" | "beta" | "thetaD" | "dosEF" | "massRatio" | "tc" | "gammaFree" | "status";
 
@@ -34,14 +35,14 @@ function cell(r: SeriesRow, k: Key, slug: string) {
   if (k === "sample") return <>{r.sample.label}{r.sample.archived && <span className="tag">archived</span>}</>;
   if (k === "x") return r.x === null ? "—" : String(r.x);
   if (k === "ea") return r.electronsPerAtom === null ? "—" : r.electronsPerAtom.toFixed(3);
-  if (k === "gammaFree") return r.gammaFree === null ? "—" : formatUncertainty(r.gammaFree, null, { plainDigits: 4 });
+  if (k === "gammaFree") return r.gammaFree === null ? "—" : formatNumber(r.gammaFree, 4);
   if (k === "status") {
     if (!r.revision) return <span className="muted" title={r.warnings.join("; ")}>no sealed revision yet</span>;
     const href = `/g/${encodeURIComponent(slug)}/analyses/${r.revision.analysisId}?revision=${r.revision.revisionId}`;
     return <Link href={href} title={r.revision.analysisTitle}>r{r.revision.revisionNumber} · {STATE_LABEL[r.revision.state]}</Link>;
   }
   const v = r[k];
-  return v ? formatUncertainty(v.value, v.stdError) : "—";
+  return v ? formatValue(v.value, v.stdError) : "—";
 }
 
 interface Props {
@@ -75,7 +76,7 @@ export function SeriesTable({ rows, columns, slug, flagged, testId, caption }: P
           <tr>
             {columns.map((c) => (
               <th key={c.key} className={c.key === "sample" || c.key === "status" ? undefined : "num"} aria-sort={sort?.key === c.key ? (sort.dir === 1 ? "ascending" : "descending") : "none"}>
-                <button type="button" onClick={() => click(c.key)} data-testid={`sort-${c.key}`}>{c.label}{sort?.key === c.key ? (sort.dir === 1 ? " ▲" : " ▼") : ""}</button>
+                <button type="button" onClick={() => click(c.key)} data-testid={`sort-${c.key}`}><Sym m={c.label} />{sort?.key === c.key ? (sort.dir === 1 ? " ▲" : " ▼") : ""}</button>
                 {c.unit && <div className="small muted">{c.unit}</div>}
               </th>
             ))}

@@ -70,7 +70,7 @@ export default async function GroupHome({ params }: { params: Promise<{ slug: st
                 {analyses.slice(0, 6).map((a) => (
                   <tr key={a.id}>
                     <td><Link href={`${p.home}/analyses/${a.id}`}>{a.title}</Link></td>
-                    <td className="small">{a.latestRevision ? `r${a.latestRevision.number} ${STATE_LABEL[a.latestRevision.state]}` : "—"}{a.sealedRevision ? " · sealed" : ""}</td>
+                    <td className="small">{a.latestRevision ? `Revision ${a.latestRevision.number}: ${STATE_LABEL[a.latestRevision.state]}` : "—"}{a.sealedRevision && a.sealedRevision.number !== a.latestRevision?.number ? ` (revision ${a.sealedRevision.number} sealed)` : ""}</td>
                   </tr>
                 ))}
               </tbody>

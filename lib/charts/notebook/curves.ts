@@ -7,7 +7,7 @@
 import * as Plot from "@observablehq/plot";
 import type { PlotOptions } from "@observablehq/plot";
 import { heatCapacityUnit, maxAbs } from "../units";
-import { BASIS_TEXT, COLOURS, fmt, frame, xAxis, yAxis } from "./frame";
+import { BASIS_TEXT, COLOURS, fmt, frame, tipText, xAxis, yAxis } from "./frame";
 import type { AddendaStepResult, EntropyStepResult, TransitionStepResult } from "./types";
 
 const SERIES = ["total", "addenda", "net"] as const;
@@ -69,7 +69,7 @@ export function transitionPlot(r: TransitionStepResult, opts: { width?: number; 
       Plot.text([tc], { x: (d: number) => d, text: () => `T_c = ${fmt(tc)} K`, frameAnchor: "top", dy: 6, dx: 6, textAnchor: "start", fill: COLOURS.copper, fontWeight: 600 }),
       Plot.dot(data, { x: "t", y: "y", r: 2.2, fill: COLOURS.ink, stroke: null }),
       Plot.line(ideal, { x: "t", y: "y", stroke: COLOURS.copper, strokeWidth: 2 }),
-      Plot.tip(data, Plot.pointer({ x: "t", y: "y", title: (d: { t: number; y: number }) => `T = ${fmt(d.t)} K\nC_el/T = ${fmt(d.y)} mJ mol⁻¹ K⁻²`, fontSize: 12 })),
+      Plot.tip(data, Plot.pointer({ x: "t", y: "y", title: (d: { t: number; y: number }) => tipText(`T = ${fmt(d.t)} K\nC_el/T = ${fmt(d.y)} mJ mol⁻¹ K⁻²`), fontSize: 12 })),
     ],
   };
 }

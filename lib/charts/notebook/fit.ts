@@ -8,7 +8,7 @@
 import * as Plot from "@observablehq/plot";
 import type { PlotOptions } from "@observablehq/plot";
 import { invalid } from "../../engine/errors";
-import { BASIS_TEXT, COLOURS, fmt, frame, xAxis, yAxis } from "./frame";
+import { BASIS_TEXT, COLOURS, fmt, frame, tipText, xAxis, yAxis } from "./frame";
 import type { FitStepResult } from "./types";
 
 /** A range drawn on a chart: a discussion anchor or the range being dragged. */
@@ -144,7 +144,7 @@ export function residualRows(r: FitStepResult): ResidualRow[] {
 export function residualPlot(r: FitStepResult, opts: { width?: number; height?: number; xDomain?: [number, number] } = {}): PlotOptions {
   const data = residualRows(r);
   const unit = OVER_T_UNIT;
-  const title = (d: ResidualRow) => `T = ${fmt(d.t)} K\n(C − C_fit)/T = ${fmt(d.y)} ${unit}${d.normalised !== null ? `\n(C − C_fit)/σ = ${fmt(d.normalised)}` : ""}`;
+  const title = (d: ResidualRow) => tipText(`T = ${fmt(d.t)} K\n(C − C_fit)/T = ${fmt(d.y)} ${unit}${d.normalised !== null ? `\n(C − C_fit)/σ = ${fmt(d.normalised)}` : ""}`);
   const bars = data.filter((d) => d.lo !== null);
   return {
     ...frame(opts.width, opts.height ?? 190),

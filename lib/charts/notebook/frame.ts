@@ -3,6 +3,8 @@
  * text used in hover read-outs. Display only.
  */
 import type { PlotOptions, ScaleOptions } from "@observablehq/plot";
+import { formatNumber } from "../../display/numbers";
+import { plainSymbol } from "../../display/typeset";
 
 export const COLOURS = {
   ink: "#1e2431",
@@ -32,11 +34,13 @@ export function axis(label: string, extra: ScaleOptions = {}): ScaleOptions {
 export const xAxis = (label: string, extra: ScaleOptions = {}) => axis(label, { labelOffset: 38, ...extra });
 export const yAxis = (label: string, extra: ScaleOptions = {}) => axis(label, { labelOffset: 56, ...extra });
 
-/** Five significant figures, exponent form outside 1e-3 … 1e5 (hover text only). */
+/** Five significant figures, "× 10ⁿ" outside 10⁻³ … 10⁵ (the display rule, lib/display). */
 export function fmt(v: number | null | undefined): string {
-  if (v === null || v === undefined || !Number.isFinite(v)) return "—";
-  return Math.abs(v) >= 1e-3 && Math.abs(v) < 1e5 || v === 0 ? String(Number(v.toPrecision(5))) : v.toExponential(4);
+  return formatNumber(v, 5);
 }
+
+/** Hover text of our own (no people's labels in it): symbol markup as plain Unicode ("T_max" → "Tmax"). */
+export const tipText = (s: string) => plainSymbol(s);
 
 /** "mJ mol^-1 K^-2" → "mJ mol⁻¹ K⁻²" (unit text from the engine, for display). */
 export function prettyUnit(unit: string): string {

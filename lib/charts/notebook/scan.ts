@@ -6,7 +6,8 @@
  */
 import * as Plot from "@observablehq/plot";
 import type { PlotOptions } from "@observablehq/plot";
-import { BASIS_TEXT, COLOURS, fmt, frame, xAxis, yAxis } from "./frame";
+import { BASIS_TEXT, COLOURS, fmt, frame, tipText, xAxis, yAxis } from "./frame";
+import { formatNumber, formatRange } from "../../display/numbers";
 import type { MoleBasis, ScanResult } from "./types";
 
 export interface ScanRow {
@@ -49,14 +50,14 @@ export interface ScanPlotOptions {
 export function scanPlot(scan: ScanResult, opts: ScanPlotOptions = {}): PlotOptions {
   const rows = scanRows(scan);
   const rec = scan.recommended && scan.recommended.gamma !== null ? [{ tMaxK: scan.recommended.tMaxK, gamma: scan.recommended.gamma * MJ, tMinK: scan.recommended.tMinK }] : [];
-  const title = (d: ScanRow) => `window ${fmt(d.tMinK)}–${fmt(d.tMaxK)} K (${d.nPoints} points)\nγ = ${fmt(d.gamma)} ± ${d.lo === null ? "—" : fmt(d.gamma - d.lo)} mJ mol⁻¹ K⁻²\nχ²_red = ${fmt(d.chi)}${d.plateau ? "\nin the plateau" : ""}${d.beyond ? "\nT_max past Θ_D/15" : ""}`;
+  const title = (d: ScanRow) => tipText(`window ${fmt(d.tMinK)}–${fmt(d.tMaxK)} K (${d.nPoints} points)\nγ = ${fmt(d.gamma)} ± ${d.lo === null ? "—" : fmt(d.gamma - d.lo)} mJ mol⁻¹ K⁻²\nχ²_red = ${fmt(d.chi)}${d.plateau ? "\nin the plateau" : ""}${d.beyond ? "\nT_max past Θ_D/15" : ""}`);
   const basis = opts.basis ? `, ${BASIS_TEXT[opts.basis]}` : "";
   return {
     ...frame(opts.width, opts.height ?? 340),
     x: xAxis("window upper edge T_max (K)"),
     y: yAxis(`γ (mJ mol⁻¹ K⁻²${basis})`),
     // Quantised so that the legend is a row of swatches (and lines of neighbouring T_min share a colour).
-    color: { type: "quantize", n: 5, range: ["#e3b58c", "#c27a4a", "#9a4519", "#5a3a3a", "#1e2431"], label: "window lower edge T_min (K)", legend: true, tickFormat: (v: number) => fmt(v) },
+    color: { type: "quantize", n: 5, range: ["#e3b58c", "#c27a4a", "#9a4519", "#5a3a3a", "#1e2431"], label: "window lower edge T_min (K)", legend: true, tickFormat: (v: number) => formatNumber(v, 3) },
     marks: [
       Plot.frame({ stroke: COLOURS.frame }),
       ...(scan.plateau ? [Plot.ruleY([scan.plateau.gammaMean * MJ], { stroke: COLOURS.plateau, strokeDasharray: "5,4" })] : []),
@@ -66,7 +67,7 @@ export function scanPlot(scan: ScanResult, opts: ScanPlotOptions = {}): PlotOpti
       Plot.dot(rows.filter((d) => d.beyond), { x: "tMaxK", y: "gamma", r: 2.2, stroke: "tMinK", fill: "white" }),
       Plot.dot(rows.filter((d) => d.plateau), { x: "tMaxK", y: "gamma", r: 4, stroke: COLOURS.plateau, strokeWidth: 1.2 }),
       Plot.dot(rec, { x: "tMaxK", y: "gamma", r: 8, stroke: COLOURS.copper, strokeWidth: 2.2 }),
-      Plot.text(rec, { x: "tMaxK", y: "gamma", text: (d: { tMinK: number; tMaxK: number }) => `recommended ${fmt(d.tMinK)}–${fmt(d.tMaxK)} K`, dy: -16, fill: COLOURS.copper, fontWeight: 600, stroke: "white", strokeWidth: 3, paintOrder: "stroke" }),
+      Plot.text(rec, { x: "tMaxK", y: "gamma", text: (d: { tMinK: number; tMaxK: number }) => `recommended ${formatRange(d.tMinK, d.tMaxK, "K")}`, dy: -16, textAnchor: "end", fill: COLOURS.copper, fontWeight: 600, stroke: "white", strokeWidth: 3, paintOrder: "stroke" }),
       ...(opts.current ? [Plot.dot([{ x: opts.current.tMaxK, y: opts.current.gammaSI * MJ }], { x: "x", y: "y", symbol: "diamond", r: 5.5, fill: COLOURS.copper, stroke: "white" })] : []),
       Plot.tip(rows, Plot.pointer({ x: "tMaxK", y: "gamma", title, fontSize: 12 })),
     ],

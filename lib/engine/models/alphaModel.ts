@@ -15,9 +15,9 @@ export const alphaModel: HeatCapacityModel = Object.freeze<HeatCapacityModel>({
   title: "α-model superconductor + βT³",
   formula: "C = γ_n T_c c_α(T/T_c) + βT³",
   parameters: [
-    param("gammaN", "J/(mol*K^2)", "mJ/(mol*K^2)", 1e3, "normal-state Sommerfeld coefficient γ_n", [0, Infinity]),
-    param("tc", "K", "K", 1, "transition temperature T_c", [1e-6, 1e3]),
-    param("alpha", "1", "1", 1, "gap ratio α = Δ(0)/(k_B T_c)", [0.1, 10]),
+    param("γ_n", "normal-state Sommerfeld coefficient", "gammaN", "J/(mol*K^2)", "mJ/(mol*K^2)", 1e3, "normal-state Sommerfeld coefficient γ_n", [0, Infinity]),
+    param("T_c", "transition temperature", "tc", "K", "K", 1, "transition temperature T_c", [1e-6, 1e3]),
+    param("α", "gap ratio Δ(0)/(k_B T_c)", "alpha", "1", "1", 1, "gap ratio α = Δ(0)/(k_B T_c)", [0.1, 10]),
     BETA,
   ],
   linear: false,

@@ -8,14 +8,14 @@
  */
 import { BETA, param, temperatureSpan, type HeatCapacityModel, type Params } from "./types";
 
-export const GAMMA_N = param("gammaN", "J/(mol*K^2)", "mJ/(mol*K^2)", 1e3, "normal-state Sommerfeld coefficient γ_n", [-Infinity, Infinity], "required");
-export const TC = param("tc", "K", "K", 1, "superconducting transition temperature T_c", [1e-6, 1e3], "required");
+export const GAMMA_N = param("γ_n", "normal-state Sommerfeld coefficient", "gammaN", "J/(mol*K^2)", "mJ/(mol*K^2)", 1e3, "normal-state Sommerfeld coefficient γ_n", [-Infinity, Infinity], "required");
+export const TC = param("T_c", "transition temperature", "tc", "K", "K", 1, "superconducting transition temperature T_c", [1e-6, 1e3], "required");
 
 export const bcs: HeatCapacityModel = Object.freeze<HeatCapacityModel>({
   name: "bcs",
   title: "γ_n T_c a·exp(−bT_c/T) + βT³",
   formula: "C = γ_n T_c a exp(−b T_c/T) + βT³",
-  parameters: [GAMMA_N, TC, param("a", "1", "1", 1, "prefactor a", [0, Infinity]), param("b", "1", "1", 1, "exponent b = Δ(0)/(k_B T_c)", [0, Infinity]), BETA],
+  parameters: [GAMMA_N, TC, param("a", "prefactor", "a", "1", "1", 1, "prefactor a", [0, Infinity]), param("b", "exponent Δ(0)/(k_B T_c)", "b", "1", "1", 1, "exponent b = Δ(0)/(k_B T_c)", [0, Infinity]), BETA],
   linear: false,
   evaluate: (T: number, p: Params) => p.gammaN * p.tc * p.a * Math.exp((-p.b * p.tc) / T) + p.beta * T ** 3,
   gradient: (T: number, p: Params) => {

@@ -9,7 +9,7 @@ import { debyeHeatCapacity, debyeHeatCapacityDThetaD } from "./debyeFunction";
 import { GAMMA, param, temperatureSpan, type HeatCapacityModel, type ModelOptions, type Params } from "./types";
 import { guessGammaBeta } from "./linearGuess";
 
-export const THETA_D = param("thetaD", "K", "K", 1, "Debye temperature Θ_D", [1e-3, 1e5]);
+export const THETA_D = param("Θ_D", "Debye temperature", "thetaD", "K", "K", 1, "Debye temperature Θ_D", [1e-3, 1e5]);
 
 /** Θ_D [K] from β [J mol⁻¹ K⁻⁴]: Θ_D = (12π⁴ r R / (5β))^{1/3}. */
 export function debyeTemperatureFromBeta(beta: number, r = 1): number {

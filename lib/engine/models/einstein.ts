@@ -23,7 +23,7 @@ export const einstein: HeatCapacityModel = Object.freeze<HeatCapacityModel>({
   name: "einstein",
   title: "γT + βT³ + Einstein modes",
   formula: "C = γT + βT³ + 3n_E R x²eˣ/(eˣ−1)², x = Θ_E/T",
-  parameters: [GAMMA, BETA, param("nE", "1", "1", 1, "Einstein oscillators per formula unit", [0, Infinity]), param("thetaE", "K", "K", 1, "Einstein temperature Θ_E", [1e-3, 1e5])],
+  parameters: [GAMMA, BETA, param("n_E", "Einstein oscillators per formula unit", "nE", "1", "1", 1, "Einstein oscillators per formula unit", [0, Infinity]), param("Θ_E", "Einstein temperature", "thetaE", "K", "K", 1, "Einstein temperature Θ_E", [1e-3, 1e5])],
   linear: false,
   evaluate: (T: number, p: Params) => p.gamma * T + p.beta * T ** 3 + einsteinHeatCapacity(T, p.thetaE, p.nE),
   guess: (data) => {

@@ -5,7 +5,7 @@
 import { BETA, GAMMA, param, type HeatCapacityModel, type Params } from "./types";
 import { guessGammaBeta } from "./linearGuess";
 
-const B = param("B", "J/(mol*K^2.5)", "mJ/(mol*K^2.5)", 1e3, "ferromagnetic magnon coefficient B");
+const B = param("B", "ferromagnetic magnon coefficient", "B", "J/(mol*K^2.5)", "mJ/(mol*K^2.5)", 1e3, "ferromagnetic magnon coefficient B");
 const basis = [(T: number) => T, (T: number) => T ** 3, (T: number) => T * Math.sqrt(T)];
 
 export const magnon: HeatCapacityModel = Object.freeze<HeatCapacityModel>({

@@ -6,7 +6,7 @@
 import { BETA, GAMMA, param, type HeatCapacityModel, type Params } from "./types";
 import { guessGammaBeta } from "./linearGuess";
 
-const A = param("A", "J*K/mol", "mJ*K/mol", 1e3, "nuclear hyperfine tail coefficient A_N");
+const A = param("A_N", "nuclear hyperfine coefficient", "A", "J*K/mol", "mJ*K/mol", 1e3, "nuclear hyperfine tail coefficient A_N");
 const basis = [(T: number) => T, (T: number) => T ** 3, (T: number) => 1 / (T * T)];
 
 export const nuclear: HeatCapacityModel = Object.freeze<HeatCapacityModel>({

@@ -26,9 +26,9 @@ export const schottky: HeatCapacityModel = Object.freeze<HeatCapacityModel>({
   parameters: [
     GAMMA,
     BETA,
-    param("n", "1", "1", 1, "two-level centres per formula unit", [0, Infinity]),
-    param("gap", "K", "K", 1, "level splitting Δ/k_B", [1e-6, 1e5]),
-    param("g", "1", "1", 1, "degeneracy ratio g₁/g₀", [1e-6, 1e6], 1),
+    param("n_S", "two-level centres per formula unit", "n", "1", "1", 1, "two-level centres per formula unit", [0, Infinity]),
+    param("Δ/k_B", "level splitting", "gap", "K", "K", 1, "level splitting Δ/k_B", [1e-6, 1e5]),
+    param("g_1/g_0", "degeneracy ratio", "g", "1", "1", 1, "degeneracy ratio g₁/g₀", [1e-6, 1e6], 1),
   ],
   linear: false,
   evaluate: (T: number, p: Params) => p.gamma * T + p.beta * T ** 3 + schottkyHeatCapacity(T, p.gap, p.g, p.n),

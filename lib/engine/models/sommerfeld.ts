@@ -9,8 +9,8 @@
 import { BETA, GAMMA, param, type HeatCapacityModel, type Params } from "./types";
 import { guessGammaBeta } from "./linearGuess";
 
-export const DELTA = param("delta", "J/(mol*K^6)", "mJ/(mol*K^6)", 1e3, "T⁵ dispersion coefficient δ");
-export const EPSILON = param("epsilon", "J/(mol*K^8)", "mJ/(mol*K^8)", 1e3, "T⁷ dispersion coefficient ε");
+export const DELTA = param("δ", "T⁵ dispersion coefficient", "delta", "J/(mol*K^6)", "mJ/(mol*K^6)", 1e3, "T⁵ dispersion coefficient δ");
+export const EPSILON = param("ε", "T⁷ dispersion coefficient", "epsilon", "J/(mol*K^8)", "mJ/(mol*K^8)", 1e3, "T⁷ dispersion coefficient ε");
 
 const POWERS = [1, 3, 5, 7];
 const SPECS = [GAMMA, BETA, DELTA, EPSILON];

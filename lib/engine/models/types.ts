@@ -17,6 +17,10 @@ export interface ParameterSpec {
   readonly description: string;
   /** Held fixed unless the caller frees it: a default value, or "required" (caller must give it). */
   readonly fixedByDefault?: number | "required";
+  /** Display symbol as light markup ("Θ_D", "γ_n"; lib/display/typeset.ts renders it). */
+  readonly symbol: string;
+  /** Display name in words, e.g. "Debye temperature". */
+  readonly label: string;
 }
 
 export interface ModelOptions {
@@ -73,6 +77,8 @@ export function temperatureSpan(data: HeatCapacityData): { tMin: number; tMax: n
 
 /** Parameter spec helper. */
 export function param(
+  symbol: string,
+  label: string,
   name: string,
   unit: string,
   displayUnit: string,
@@ -81,8 +87,8 @@ export function param(
   bounds: [number, number] = [-Infinity, Infinity],
   fixedByDefault?: number | "required",
 ): ParameterSpec {
-  return Object.freeze({ name, unit, displayUnit, displayFactor, lower: bounds[0], upper: bounds[1], description, fixedByDefault });
+  return Object.freeze({ name, symbol, label, unit, displayUnit, displayFactor, lower: bounds[0], upper: bounds[1], description, fixedByDefault });
 }
 
-export const GAMMA = param("gamma", "J/(mol*K^2)", "mJ/(mol*K^2)", 1e3, "Sommerfeld coefficient γ");
-export const BETA = param("beta", "J/(mol*K^4)", "mJ/(mol*K^4)", 1e3, "lattice T³ coefficient β");
+export const GAMMA = param("γ", "Sommerfeld coefficient", "gamma", "J/(mol*K^2)", "mJ/(mol*K^2)", 1e3, "Sommerfeld coefficient γ");
+export const BETA = param("β", "lattice T³ coefficient", "beta", "J/(mol*K^4)", "mJ/(mol*K^4)", 1e3, "lattice T³ coefficient β");

@@ -143,7 +143,7 @@ function finish(points: readonly TrendPoint[], options: TrendOptions, weighting:
   if (weighting === "unweighted" && points.some((q) => q.sigma !== null)) warnings.push("some points have no σ: the trend is unweighted and its errors come from the scatter");
   if (dof === 0) warnings.push("as many parameters as points: the trend passes through every point and has no scatter estimate");
   if (weighting === "absolute" && red !== null && dof >= 3 && (red > 3 || red < 0.2)) warnings.push(`χ²_red = ${red.toPrecision(3)}: the points scatter ${red > 1 ? "more" : "less"} than their σ say`);
-  if (outliers.length) warnings.push(`${outliers.length} point(s) lie more than ${outlierSigma}σ from the trend`);
+  if (outliers.length) warnings.push(`${outliers.length} ${outliers.length === 1 ? "point lies" : "points lie"} more than ${outlierSigma}σ from the trend`);
   const fit = { parameters, covariance };
   return {
     ok: true, message: null, degree: options.degree, n: m, dof, weighting, parameters, covariance, chiSquare: ls.chiSquare, reducedChiSquare: red,

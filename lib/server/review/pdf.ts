@@ -1,82 +1,79 @@
 /**
- * The report as a PDF (pdfkit): the same sections as the print page, from the same report
- * object, with a C/T vs T² plot of each fit (points, window, model curve). Greek letters and
- * superscripts need a Unicode font: DejaVu Sans (HEATBOOK_PDF_FONT overrides the path) when
- * present, otherwise Helvetica with those characters spelled out (γ → gamma).
+ * The report as a PDF (pdfkit), from the same report object as the print page: the same
+ * sections, the same numbers by the one display rule (lib/display), symbols with real sub- and
+ * superscripts, and the same figures drawn as vectors (axes, ticks, units, ±σ bars, the fit
+ * window shaded, the model line, residuals; the window scan). Text is text in the embedded
+ * DejaVu Sans (lib/server/figures/fonts.ts), so it can be searched and copied.
  */
-import { existsSync } from "node:fs";
 import PDFDocument from "pdfkit";
 import type { RevisionReport } from "./report";
+import { formatBytes, reportSentences } from "./reportText";
+import { drawSvg, pdfBytes, registerFonts } from "../figures/svgPdf";
+import { figureSvg, reportFigures } from "../figures/reportFigures";
+import { paragraph, sym, txt, type Piece } from "../figures/pdfText";
+import { formatTime } from "../../display";
 
-const FONT_PATHS = ["/usr/share/fonts/truetype/dejavu/DejaVuSans.ttf"];
-const SPELLED: Record<string, string> = { "γ": "gamma", "β": "beta", "δ": "delta", "ε": "epsilon", "Θ": "Theta", "θ": "theta", "χ": "chi", "σ": "sigma", "λ": "lambda", "μ": "mu", "ρ": "rho", "Δ": "Delta", "⁻": "-", "¹": "1", "²": "^2", "³": "^3", "⁴": "^4", "→": "->", "≈": "~", "·": "*", "−": "-", "…": "..." };
-
-function pickFont(): string | null {
-  const p = process.env.HEATBOOK_PDF_FONT ?? FONT_PATHS.find((f) => existsSync(f));
-  return p && existsSync(p) ? p : null;
-}
-
-function plotFit(doc: PDFDocument, fit: RevisionReport["fits"][number], x0: number, y0: number, w: number, h: number): void {
-  const pts = fit.plot.points as { temperatureK: number[]; heatCapacity: number[]; inWindow: boolean[] } | null;
-  const curve = fit.plot.curve as { temperatureK: number[]; heatCapacity: number[] } | null;
-  if (!pts?.temperatureK?.length) return;
-  const xs = pts.temperatureK.map((t) => t * t), ys = pts.heatCapacity.map((c, i) => c / pts.temperatureK[i]!);
-  const cx = curve ? curve.temperatureK.map((t) => t * t) : [], cy = curve ? curve.heatCapacity.map((c, i) => c / curve.temperatureK[i]!) : [];
-  const [xmin, xmax] = [Math.min(...xs, ...cx), Math.max(...xs, ...cx)], [ymin, ymax] = [Math.min(...ys, ...cy), Math.max(...ys, ...cy)];
-  const X = (v: number) => x0 + ((v - xmin) / (xmax - xmin || 1)) * w, Y = (v: number) => y0 + h - ((v - ymin) / (ymax - ymin || 1)) * h;
-  doc.lineWidth(0.5).strokeColor("#444").rect(x0, y0, w, h).stroke();
-  xs.forEach((x, i) => doc.circle(X(x), Y(ys[i]!), 1.6).fill(pts.inWindow[i] ? "#1f5fa8" : "#b0b0b0"));
-  if (cx.length) {
-    doc.moveTo(X(cx[0]!), Y(cy[0]!));
-    cx.forEach((x, i) => doc.lineTo(X(x), Y(cy[i]!)));
-    doc.lineWidth(1).strokeColor("#c0392b").stroke();
-  }
-  doc.fillColor("#000").fontSize(8).text(`C/T [J mol⁻¹ K⁻²]  ${ymin.toPrecision(3)} … ${ymax.toPrecision(3)}   vs   T² [K²]  ${xmin.toPrecision(3)} … ${xmax.toPrecision(3)}`, x0, y0 + h + 4, { width: w });
-}
+const FIGURE_FONT = 8;
 
 /** Render the report to PDF bytes. */
 export async function renderReportPdf(report: RevisionReport): Promise<Uint8Array> {
-  const font = pickFont();
-  const doc = new PDFDocument({ size: "A4", margin: 50, info: { Title: `${report.title}, revision ${report.revision.number}`, Subject: `content hash ${report.contentHash}` } });
-  if (font) doc.registerFont("body", font).font("body");
-  const t = (s: string) => (font ? s : s.replace(/[^\x00-\xff]/g, (c) => SPELLED[c] ?? "?"));
-  const chunks: Uint8Array[] = [];
-  const done = new Promise<void>((resolve, reject) => { doc.on("data", (c) => chunks.push(c)); doc.on("end", () => resolve()); doc.on("error", reject); });
-  const h = (s: string) => doc.moveDown(0.6).fontSize(12).text(t(s)).fontSize(9.5);
-  const line = (s: string) => doc.text(t(s));
-  doc.fontSize(16).text(t(report.title));
-  doc.fontSize(9.5).text(t(`${report.group.name} · revision ${report.revision.number} (${report.revision.state === "sealed" ? "sealed" : "sealed, since replaced by a newer revision"}) · engine ${report.engineVersion}`));
-  line(`content hash (SHA-256 of the canonical snapshot): ${report.contentHash}`);
-  h("Sample");
-  const s = report.sample;
-  line(`${s.label}: ${s.formula}, M = ${s.molarMassGPerMol} g/mol, ${s.atomsPerFormulaUnit} atoms per formula unit${s.massMg !== null ? `, mass ${s.massMg} mg` : ""}${s.densityGPerCm3 !== null ? `, density ${s.densityGPerCm3} g/cm³` : ""}`);
-  h("Data provenance");
-  for (const p of report.provenance) line(`${p.label} (${p.kind}, ${p.fieldT} T): ${p.fileName}, ${p.sizeBytes} bytes, ${p.pointCount} points, ${p.tMinK}–${p.tMaxK} K; SHA-256 ${p.sha256}`);
-  h("Corrections");
-  for (const c of report.corrections) line(`${c.position + 1}. ${c.summary}`);
+  const doc = new PDFDocument({
+    size: "A4", margins: { top: 56, bottom: 56, left: 56, right: 56 }, lang: "en-GB", displayTitle: true,
+    info: { Title: `${report.title}, revision ${report.revision.number}`, Subject: `Specific-heat analysis report; content hash ${report.contentHash}`, Creator: "Heatbook" },
+  });
+  registerFonts(doc);
+  doc.font("body");
+  const textWidth = doc.page.width - doc.page.margins.left - doc.page.margins.right;
+  const s = reportSentences(report);
+  const heading = (t: string | Piece[]) => { doc.y += 6; paragraph(doc, typeof t === "string" ? txt(t, true) : t, { size: 12, gapAfter: 2 }); };
+  const para = (p: Piece[], size = 9.5) => paragraph(doc, p, { size });
+  const row = (label: Piece[], value: Piece[], note?: string) => {
+    paragraph(doc, [...label, ...txt("  =  "), ...value, ...(note ? txt(`   (${note})`) : [])], { size: 9.5, indent: 12 });
+  };
+
+  paragraph(doc, txt(report.title, true), { size: 17, gapAfter: 3 });
+  para(txt(s.subtitle), 9.5);
+  para(txt(report.safetyNote, true), 9.5);
+
+  heading("Sample");
+  para(txt(s.sample));
+
+  heading("Data provenance");
+  for (const p of report.provenance)
+    para(txt(`${p.label} (${p.kind === "addenda" ? "addenda" : "sample"} measurement, ${s.field(p.fieldT)}): ${p.fileName}, ${formatBytes(p.sizeBytes)}, ${s.points(p.pointCount)}, ${s.range(p.tMinK, p.tMaxK)}; SHA-256 ${p.sha256}`));
+
+  heading("Corrections and data selection");
+  if (!report.corrections.length) para(txt("None."));
+  for (const c of report.corrections) para(txt(`Step ${c.position + 1}: ${c.summary}.`));
+
+  const figures = reportFigures(report, { widthPt: textWidth, fontSize: FIGURE_FONT });
   for (const f of report.fits) {
-    h(`Fit (step ${f.position + 1}): model ${f.model}, ${f.tMinK}–${f.tMaxK} K, ${f.nPoints} points, ${f.weighted ? "weighted by σ" : "unweighted"}${f.reducedChiSquare !== null ? `, χ²_red = ${f.reducedChiSquare.toPrecision(4)}` : ""}`);
-    for (const p of f.parameters) line(`${p.symbol} = ${p.compact}`);
-    if (doc.y + 190 > doc.page.height - doc.page.margins.bottom) doc.addPage();
-    const y = doc.y + 6;
-    plotFit(doc, f, doc.page.margins.left, y, 300, 160);
-    doc.x = doc.page.margins.left;
-    doc.moveDown(1);
+    heading([...txt(`Fit (step ${f.position + 1}): `, true), ...sym(f.modelLabel, true)]);
+    para(s.fitLine(f).flatMap((x) => (typeof x === "string" ? txt(x) : sym(x.sym))));
+    for (const p of f.parameters) row(sym(p.symbol), txt(p.compact), p.label);
+    for (const fig of figures.filter((g) => g.position === f.position)) {
+      const svg = figureSvg(fig, FIGURE_FONT);
+      const [w, h] = [Number(/width="([\d.]+)"/.exec(svg)![1]), Number(/height="([\d.]+)"/.exec(svg)![1])];
+      const height = (h / w) * textWidth;
+      if (doc.y + height + 40 > doc.page.height - doc.page.margins.bottom) doc.addPage();
+      const y = doc.y + 4;
+      drawSvg(doc, svg, doc.page.margins.left, y, textWidth);
+      doc.y = y + height + 4;
+      paragraph(doc, sym(fig.caption), { size: 8, color: "#333333", gapAfter: 6 });
+    }
   }
-  if (report.derived.length) {
-    h("Derived quantities");
-    for (const q of report.derived) line(`${q.symbol} = ${q.compact}${q.note ? ` — ${q.note}` : ""}`);
-  }
-  if (report.warnings.length) { h("Warnings"); for (const w of report.warnings) line(`• ${w}`); }
-  if (report.notes.length) { h("Notes"); for (const n of report.notes) line(n); }
-  h("Review");
-  line(`submitted by ${report.review.submittedBy ?? "—"} at ${report.review.submittedAt ?? "—"}; approved and sealed by ${report.review.sealedBy ?? "—"} at ${report.review.sealedAt}`);
-  for (const d of report.review.decisions) line(`${d.at}: ${d.decision} by ${d.reviewer ?? "—"}${d.comment ? ` — ${d.comment}` : ""}`);
-  doc.moveDown(1).fontSize(10).text(t(report.safetyNote));
-  doc.end();
-  await done;
-  const out = new Uint8Array(chunks.reduce((n, c) => n + c.length, 0));
-  let k = 0;
-  for (const c of chunks) { out.set(c, k); k += c.length; }
-  return out;
+
+  heading("Derived quantities");
+  if (!report.derived.length) para(txt("No derived-quantities step."));
+  for (const q of report.derived) paragraph(doc, [...sym(q.symbol), ...txt(`  =  ${q.compact}   (${q.label}`), ...(q.note ? [...txt("; "), ...sym(q.note)] : []), ...txt(")")], { size: 9.5, indent: 12 });
+
+  // Warnings and derived-quantity notes are the engine's sentences: their symbols are typeset.
+  if (report.warnings.length) { heading("Warnings at sealing"); for (const w of report.warnings) para([...txt("• "), ...sym(w)]); }
+  if (report.notes.length) { heading("Notes"); for (const n of report.notes) para(txt(n)); }
+
+  heading("Review and seal");
+  for (const line of s.review) para(txt(line));
+  para(txt(`Content hash (SHA-256 of the sealed snapshot): ${report.contentHash}`));
+  para(txt(`Engine version ${report.engineVersion}. Report written ${formatTime(new Date())}.`));
+  return pdfBytes(doc);
 }

@@ -4,8 +4,7 @@
  * threads on the analysis — so a reviewer sees what is asked of them before opening it.
  */
 import type { Db } from "../db/client";
-import { MODELS } from "../../engine/models";
-import { formatBeta, formatGamma, formatUncertainty } from "../../engine/units/format";
+import { formatCount, formatQuantity, formatRange, modelLabel, plainSymbol } from "../../display";
 
 export interface QueueFigures {
   /** "4.483(17) mJ mol⁻¹ K⁻²" style texts (value(σ) unit, no symbol), or null when the revision has no such result. */
@@ -22,12 +21,9 @@ interface FitOut { ok?: boolean; result?: { fit?: { model?: string; parameters?:
 interface DeriveOut { ok?: boolean; result?: { quantities?: { name: string; value: number; stdError: number | null; unit: string }[] } }
 
 function modelTitle(name: string | undefined): string | null {
-  if (!name) return null;
-  const spec = (MODELS as Record<string, { title?: string }>)[name];
-  return spec?.title ?? (name === "expression" ? "user expression" : name);
+  return name ? plainSymbol(modelLabel(name)) : null;
 }
 
-const kelvin = (t: number) => String(Number(t.toPrecision(4)));
 
 /** Figures per revision id (revisions without a computed fit still get their thread count). */
 export async function queueFigures(db: Db, items: readonly { revisionId: string; analysisId: string }[]): Promise<Map<string, QueueFigures>> {
@@ -47,11 +43,11 @@ export async function queueFigures(db: Db, items: readonly { revisionId: string;
     const theta = derive?.result?.quantities?.find((q) => q.name === "thetaD");
     const w = fit?.result?.window;
     out.set(item.revisionId, {
-      gamma: g ? formatGamma(g.value, g.stdError) : null,
-      beta: b ? formatBeta(b.value, b.stdError, undefined) : null,
-      thetaD: theta ? `${formatUncertainty(theta.value, theta.stdError, { exponent: "times" })} K` : null,
+      gamma: g ? formatQuantity(g.value * 1e3, g.stdError === null ? null : g.stdError * 1e3, "mJ mol^-1 K^-2") : null,
+      beta: b ? formatQuantity(b.value * 1e3, b.stdError === null ? null : b.stdError * 1e3, "mJ mol^-1 K^-4") : null,
+      thetaD: theta ? formatQuantity(theta.value, theta.stdError, "K") : null,
       model: modelTitle(fit?.result?.fit?.model),
-      window: w ? `${kelvin(w.tMinK)}–${kelvin(w.tMaxK)} K, ${w.nPoints} points` : null,
+      window: w ? `${formatRange(w.tMinK, w.tMaxK, "K")}, ${formatCount(w.nPoints, "point")}` : null,
       openThreads: open.get(item.analysisId) ?? 0,
     });
   }

@@ -7,14 +7,19 @@
  */
 import type { Db } from "../db/client";
 import { ConflictError, NotFoundError } from "../../engine/errors";
-import { formatUncertainty, formatWithUnit, DISPLAY_UNITS } from "../../engine/units";
+import { cleanText, formatCount, formatNumber, formatQuantity, formatUnit, modelLabel, stepKindLabel, term } from "../../display";
 import { authorise, type Member } from "../access";
 import { uuidOrNone } from "../samples";
 import type { RevisionSnapshot } from "./snapshot";
 
 export const SAFETY_SENTENCE = "These results need expert review under local practice before use in any safety-relevant decision.";
 
-export interface ReportValue { name: string; symbol: string; value: number; stdError: number | null; unit: string; compact: string; note?: string }
+/**
+ * One reported number. `symbol` is markup ("Θ_D", lib/display/typeset.ts), `label` its name in
+ * words, `unit` typeset ("mJ mol⁻¹ K⁻²", "" when dimensionless), `compact` "value(σ) unit" by
+ * the one display rule (lib/display/numbers.ts). `value`/`stdError` are in `unit`.
+ */
+export interface ReportValue { name: string; symbol: string; label: string; value: number; stdError: number | null; unit: string; compact: string; note?: string }
 
 export interface RevisionReport {
   title: string;
@@ -25,10 +30,13 @@ export interface RevisionReport {
   provenance: { measurementId: string; label: string; kind: string; fileName: string; sha256: string; sizeBytes: number; pointCount: number; tMinK: number; tMaxK: number; fieldT: number; units: unknown }[];
   corrections: { position: number; kind: string; summary: string }[];
   fits: {
-    position: number; model: string; basis: string; tMinK: number; tMaxK: number; nPoints: number; weighted: boolean;
-    reducedChiSquare: number | null; parameters: ReportValue[];
-    /** For the page's plot: the points (with in-window flags) and the model curve, SI. */
-    plot: { points: unknown; curve: unknown };
+    position: number; model: string; modelLabel: string; basis: string; tMinK: number; tMaxK: number; nPoints: number; weighted: boolean;
+    reducedChiSquare: number | null;
+    /** Unweighted fits: √(Σr²/(n − p)) in mJ mol⁻¹ K⁻¹, the residual standard deviation in data units. */
+    residualStdMJ: number | null;
+    parameters: ReportValue[];
+    /** For the figures: the points (with in-window flags), the model curve, residuals of the window's points and the window scan, SI. */
+    plot: { points: unknown; curve: unknown; residuals: unknown; windowIndices: unknown; scan: unknown };
   }[];
   derived: ReportValue[];
   warnings: string[];
@@ -40,20 +48,48 @@ export interface RevisionReport {
 }
 
 type Out = { ok: boolean; warnings: string[]; result: Record<string, any> | null };
-const SYMBOLS: Record<string, string> = { gamma: "γ", beta: "β", delta: "δ", epsilon: "ε", thetaD: "Θ_D", thetaE: "Θ_E" };
 
-function parameter(p: { name: string; value: number; stdError: number | null; unit: string; fixed?: boolean }, basis: string): ReportValue {
-  const du = (DISPLAY_UNITS as Record<string, (typeof DISPLAY_UNITS)["gamma"]>)[p.name];
-  const per = basis === "atom" ? "atom" : "formula-unit";
-  const compact = du ? formatWithUnit(p.value, p.stdError, du, { per }) : `${formatUncertainty(p.value, p.stdError)} ${p.unit}`.trim();
-  return { name: p.name, symbol: SYMBOLS[p.name] ?? p.name, value: p.value, stdError: p.stdError, unit: p.unit, compact: p.fixed ? `${compact} (fixed)` : compact };
+/** SI unit text of the engine ("J/(mol*K^2)") → display factor and unit (mJ for molar heat-capacity coefficients). */
+function displayUnit(unit: string): { factor: number; unit: string } {
+  const u = unit.replace(/\s+/g, "");
+  if (/^J\/\(mol\*K\^[\d.]+\)$/.test(u) || /^J\*K\/mol$/.test(u) || /^J\/\(mol\*K\)$/.test(u)) return { factor: 1e3, unit: formatUnit(`m${u}`) };
+  return { factor: 1, unit: formatUnit(unit) };
 }
 
-function correction(kind: string, config: Record<string, any>, result: Record<string, any> | null): string {
-  if (kind === "addenda") return `addenda ${result?.addendaLabel ?? config.addendaMeasurementId} subtracted (${config.method ?? "smooth"}); largest addenda fraction ${result ? (100 * result.maxAddendaFraction).toFixed(1) + " %" : "n/a"}`;
-  if (kind === "normalise") return `normalised per mole ${config.per === "atom" ? "of atoms" : "formula unit"}${config.massMg ? ` with mass ${config.massMg} mg (set in the step)` : " with the sample's mass"}`;
-  if (kind === "data") return `data: ${result?.points ?? "?"} points${config.tMinK || config.tMaxK ? ` in ${config.tMinK ?? "…"}–${config.tMaxK ?? "…"} K` : ""}${config.excluded?.length ? `, ${config.excluded.length} left out by hand (${config.excluded.map((e: any) => e.reason).join("; ")})` : ""}`;
-  return kind;
+function parameter(p: { name: string; value: number; stdError: number | null; unit: string; fixed?: boolean }): ReportValue {
+  const t = term(p.name);
+  const d = displayUnit(p.unit);
+  const value = p.value * d.factor, stdError = p.stdError === null ? null : p.stdError * d.factor;
+  const compact = formatQuantity(value, stdError, d.unit);
+  return { name: p.name, symbol: t.symbol ?? t.label, label: t.label, value, stdError, unit: d.unit, compact: p.fixed ? `${compact} (held fixed)` : compact };
+}
+
+const PER = (b: unknown) => (b === "atom" ? "per mole of atoms" : "per mole formula unit");
+
+/** What a correction step actually did, from its stored result (never from what it might have done). */
+export function describeCorrection(kind: string, config: Record<string, any>, result: Record<string, any> | null): string {
+  if (!result) return `${stepKindLabel(kind)}: no result stored`;
+  if (kind === "addenda") return `addenda “${result.addendaLabel}” subtracted (${result.method === "linear" ? "linear interpolation" : "smooth fit"} of the addenda curve); the addenda were at most ${formatNumber(100 * result.maxAddendaFraction, 3)} % of the total`;
+  if (kind === "normalise") {
+    const per = PER(result.per), mm = `M = ${formatNumber(result.molarMassGPerMol, 6)} g mol⁻¹`;
+    if (result.from === "sample")
+      return `whole-sample heat capacity converted ${per} with the sample mass m = ${formatNumber(result.massMg, 6)} mg${config.massMg ? " (entered in this step)" : ""} and ${mm}${typeof result.moles === "number" ? ` (n = ${formatNumber(result.moles, 4)} mol)` : ""}`;
+    if (result.from === "specific") return `specific heat capacity (per kilogram) converted ${per} with ${mm}`;
+    if (result.from === result.per) return `data imported already ${per}: no conversion`;
+    return `data imported ${PER(result.from)}, restated ${per} (${formatCount(result.atomsPerFormulaUnit, "atom")} per formula unit)`;
+  }
+  if (kind === "data") {
+    const range = config.tMinK != null || config.tMaxK != null ? ` in ${config.tMinK != null ? formatNumber(config.tMinK) : "…"}–${config.tMaxK != null ? formatNumber(config.tMaxK) : "…"} K` : "";
+    const out = config.excluded?.length ? `; ${formatCount(config.excluded.length, "point")} left out by hand (${config.excluded.map((e: any) => e.reason).join("; ")})` : "";
+    return `${formatCount(result.points, "point")} used${range}${out}`;
+  }
+  return stepKindLabel(kind);
+}
+
+function derivedValue(q: { name: string; symbol: string; value: number; stdError: number | null; unit: string; note?: string }): ReportValue {
+  const t = term(q.name);
+  const unit = formatUnit(q.unit);
+  return { name: q.name, symbol: t.symbol ?? q.symbol, label: t.label, value: q.value, stdError: q.stdError, unit, compact: formatQuantity(q.value, q.stdError, q.unit), ...(q.note ? { note: cleanText(q.note) } : {}) };
 }
 
 /** The report object from a sealed snapshot and the names of the people involved. Pure. */
@@ -75,15 +111,18 @@ export function reportFromSnapshot(s: RevisionSnapshot, meta: { group: { name: s
     const out = s.outputs.steps[i]?.output as unknown as Out | undefined;
     const r = out?.result ?? null;
     const config = (st.config ?? {}) as Record<string, any>;
-    for (const w of out?.warnings ?? []) report.warnings.push(`step ${st.position + 1} (${st.kind}): ${w}`);
-    if (st.kind === "data" || st.kind === "addenda" || st.kind === "normalise") report.corrections.push({ position: st.position, kind: st.kind, summary: correction(st.kind, config, r) });
+    for (const w of out?.warnings ?? []) report.warnings.push(`${stepKindLabel(st.kind)} (step ${st.position + 1}): ${cleanText(w)}`);
+    if (st.kind === "data" || st.kind === "addenda" || st.kind === "normalise") report.corrections.push({ position: st.position, kind: st.kind, summary: describeCorrection(st.kind, config, r) });
     else if (st.kind === "fit" && r?.fit) {
       report.fits.push({
-        position: st.position, model: r.fit.model, basis: r.basis, tMinK: r.window.tMinK, tMaxK: r.window.tMaxK, nPoints: r.window.nPoints, weighted: r.fit.weighted,
-        reducedChiSquare: r.fit.reducedChiSquare, parameters: r.fit.parameters.map((p: any) => parameter(p, r.basis)), plot: { points: r.points, curve: r.curve },
+        position: st.position, model: r.fit.model, modelLabel: modelLabel(r.fit.model), basis: r.basis, tMinK: r.window.tMinK, tMaxK: r.window.tMaxK, nPoints: r.window.nPoints, weighted: r.fit.weighted,
+        reducedChiSquare: r.fit.weighted ? r.fit.reducedChiSquare : null,
+        residualStdMJ: !r.fit.weighted && typeof r.fit.reducedChiSquare === "number" ? Math.sqrt(r.fit.reducedChiSquare) * 1e3 : null,
+        parameters: r.fit.parameters.map((p: any) => parameter(p)),
+        plot: { points: r.points, curve: r.curve, residuals: r.fit.residuals ?? null, windowIndices: r.fit.window?.indices ?? null, scan: r.scan ?? null },
       });
     } else if (st.kind === "derive" && r?.quantities)
-      for (const q of r.quantities) report.derived.push({ name: q.name, symbol: q.symbol, value: q.value, stdError: q.stdError, unit: q.unit, compact: `${formatUncertainty(q.value, q.stdError)} ${q.unit}`, ...(q.note ? { note: q.note } : {}) });
+      for (const q of r.quantities) report.derived.push(derivedValue(q));
     else if (st.kind === "note" && typeof r?.markdown === "string" && r.markdown.trim()) report.notes.push(r.markdown);
   });
   return report;

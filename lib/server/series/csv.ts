@@ -4,16 +4,23 @@
  */
 import { writeCsv, type CsvCell, type CsvColumn } from "../../engine/csv";
 import { QUANTITY_UNITS, type SeriesView } from "./view";
+import { formatUnit, plainSymbolOf } from "../../display";
 import type { Valued } from "./extract";
 
 const VALUES = ["gamma", "beta", "thetaD", "dosEF", "massRatio", "tc"] as const;
 
-/** CSV text of a series view (CRLF, RFC 4180). */
+/** A header "γ (mJ mol⁻¹ K⁻²)"; no unit for dimensionless columns. */
+function unitColumn(name: string, unit: string): CsvColumn {
+  const u = formatUnit(unit);
+  return u ? { name, unit: u } : { name };
+}
+
+/** CSV text of a series view (CRLF, RFC 4180; UTF-8 with symbols and superscript units in the header). */
 export function seriesCsv(view: SeriesView): string {
   const columns: CsvColumn[] = [
     { name: "sample" }, { name: "formula" }, { name: view.series.compositionVariable }, { name: "e/a" },
-    ...VALUES.flatMap((q) => [{ name: q, unit: QUANTITY_UNITS[q] }, { name: `${q} sigma`, unit: QUANTITY_UNITS[q] }]),
-    { name: "gammaFree", unit: QUANTITY_UNITS.gammaFree },
+    ...VALUES.flatMap((q) => [unitColumn(plainSymbolOf(q), QUANTITY_UNITS[q]), unitColumn(`σ(${plainSymbolOf(q)})`, QUANTITY_UNITS[q])]),
+    unitColumn(plainSymbolOf("gammaFree"), QUANTITY_UNITS.gammaFree),
     { name: "status" }, { name: "analysis id" }, { name: "revision" }, { name: "revision id" }, { name: "content hash" },
   ];
   const rows: CsvCell[][] = view.rows.map((r) => [

@@ -13,3 +13,4 @@ export type { SeriesView, SeriesRow, SeriesAxis, SeriesQuantity, SeriesViewOptio
 export { seriesCsv } from "./csv";
 export { valuesFromSteps } from "./extract";
 export type { RevisionValues, Valued, StepLike } from "./extract";
+export { seriesLatex, latexText, latexFormula, latexNumber } from "./latex";

@@ -9,6 +9,7 @@ import { groupPaths } from "@/app/_lib/paths";
 import { fmtDate } from "@/app/_lib/format";
 import { STATE_LABEL } from "@/app/components/notebook/display";
 import { CreateAnalysisForm, AnalysisActions } from "@/app/components/notebook/AnalysisControls";
+import { Sym } from "@/app/components/Sym";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Analyses" };
@@ -26,7 +27,7 @@ export default async function AnalysesPage({ params, searchParams }: { params: P
   return (
     <>
       <h1>Analyses</h1>
-      <p className="lede">Each analysis is a chain of steps from a sample&apos;s measurements to its γ, β and Θ_D, computed on the server and discussed by the group.</p>
+      <p className="lede">Each analysis is a chain of steps from a sample&apos;s measurements to its γ, β and <Sym m="Θ_D" />, computed on the server and discussed by the group.</p>
       {write && !archived && (
         <section className="sheet" aria-labelledby="new-analysis">
           <h2 id="new-analysis">New analysis</h2>
@@ -48,8 +49,8 @@ export default async function AnalysesPage({ params, searchParams }: { params: P
                   <tr key={a.id}>
                     <td><Link href={`${p.home}/analyses/${a.id}`}>{a.title}</Link></td>
                     <td><Link href={p.sample(a.sampleId)}>{a.sampleLabel}</Link></td>
-                    <td>{a.latestRevision ? <>r{a.latestRevision.number} <span className={`nb-state nb-state-${a.latestRevision.state}`}>{STATE_LABEL[a.latestRevision.state]}</span></> : "—"}</td>
-                    <td>{a.sealedRevision ? <span className="nb-sealed" title={a.sealedRevision.contentHash ?? undefined}>sealed r{a.sealedRevision.number}</span> : <span className="muted">—</span>}</td>
+                    <td>{a.latestRevision ? <>Revision {a.latestRevision.number} <span className={`nb-state nb-state-${a.latestRevision.state}`}>{STATE_LABEL[a.latestRevision.state]}</span></> : "—"}</td>
+                    <td>{a.sealedRevision ? <span className="nb-sealed" title={a.sealedRevision.contentHash ?? undefined}>revision {a.sealedRevision.number}</span> : <span className="muted">—</span>}</td>
                     <td className="small">{fmtDate(a.updatedAt)}</td>
                     {write && <td><AnalysisActions api={`${api}/${a.id}`} title={a.title} archived={a.archived} basePath={`${p.home}/analyses`} /></td>}
                   </tr>

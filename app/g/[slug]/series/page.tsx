@@ -6,6 +6,7 @@ import { listSamples } from "@/lib/server/samples";
 import { can } from "@/lib/server/permissions";
 import { fmtDay } from "@/app/_lib/format";
 import { SeriesCreateForm } from "@/app/components/series/SeriesCreateForm";
+import { Sym } from "@/app/components/Sym";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Series" };
@@ -20,7 +21,7 @@ export default async function SeriesListPage({ params }: { params: Promise<{ slu
   return (
     <>
       <h1>Composition series</h1>
-      <p className="lede">γ, Θ_D, D(E_F), m*/m and T_c across a series of samples, from reviewed (sealed) analyses, with weighted trends.</p>
+      <p className="lede">γ, <Sym m="Θ_D" />, D(<Sym m="E_F" />), m*/m and <Sym m="T_c" /> across a series of samples, from reviewed (sealed) analyses, with weighted trends.</p>
       <section className="sheet" aria-labelledby="all-series">
         <h2 id="all-series">Series of {member.group.name}</h2>
         {series.length === 0 ? <p className="muted">No series yet.</p> : (

@@ -5,17 +5,21 @@ import { diffRevisions, reviewStatus } from "@/lib/server/review";
 import { STATE_LABEL } from "@/app/components/review/labels";
 import type { RevisionState } from "@/lib/server/review";
 import { valueText } from "@/app/components/review/units";
+import { Sym } from "@/app/components/Sym";
+import { configPathLabel, formatNumber, modelLabel, plainSymbol, stepKindLabel, stepRefLabel, symbolOf, term } from "@/lib/display";
 import "@/app/components/review/review.css";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "What changed" };
 
-const KIND: Record<string, string> = { data: "Data", addenda: "Addenda subtraction", normalise: "Per-mole normalisation", fit: "Model fit", derive: "Derived quantities", transition: "Superconducting transition", entropy: "Entropy and enthalpy", note: "Note" };
-
-function show(v: unknown): string {
+/** A configuration value as people read it: numbers by the display rule, yes/no, model names in words. */
+function show(v: unknown, path: string): string {
   if (v === null || v === undefined) return "—";
-  if (typeof v === "string") return v;
-  return JSON.stringify(v);
+  if (typeof v === "number") return formatNumber(v, 6);
+  if (typeof v === "boolean") return v ? "yes" : "no";
+  if (typeof v === "string") return /(^|\.)model$|^compare\[/.test(path) ? plainSymbol(modelLabel(v)) : v;
+  if (Array.isArray(v)) return v.map((x) => show(x, path)).join(", ") || "none";
+  return Object.entries(v as Record<string, unknown>).map(([k, x]) => `${plainSymbol(configPathLabel(k))}: ${show(x, k)}`).join("; ") || "—";
 }
 
 function valued(v: { value: number; stdError: number | null } | null, unit: string): string {
@@ -61,12 +65,12 @@ export default async function DiffPage({ params, searchParams }: { params: Promi
             <thead><tr><th>Step</th><th>What</th><th>Field</th><th>Revision {d.a.number}</th><th>Revision {d.b.number}</th></tr></thead>
             <tbody>
               {changed.flatMap((s) => {
-                const name = `${KIND[s.kind] ?? s.kind}${s.occurrence > 1 ? ` #${s.occurrence}` : ""}`;
+                const name = `${stepKindLabel(s.kind)}${s.occurrence > 1 ? ` ${s.occurrence}` : ""}`;
                 const pos = `${s.positionA !== null ? s.positionA + 1 : "—"} → ${s.positionB !== null ? s.positionB + 1 : "—"}`;
                 if (s.status !== "changed") return [<tr key={`${s.kind}${s.occurrence}`}><td>{pos}</td><td>{name}</td><td colSpan={3}><em>{s.status === "added" ? "added" : "removed"}</em></td></tr>];
                 return s.changes.map((c, i) => (
                   <tr key={`${s.kind}${s.occurrence}${c.path}`}>
-                    <td>{i === 0 ? pos : ""}</td><td>{i === 0 ? name : ""}</td><td className="mono">{c.path}</td><td className="mono">{show(c.from)}</td><td className="mono rv-moved">{show(c.to)}</td>
+                    <td>{i === 0 ? pos : ""}</td><td>{i === 0 ? name : ""}</td><td><Sym m={configPathLabel(c.path)} /></td><td className="mono">{show(c.from, c.path)}</td><td className="mono rv-moved">{show(c.to, c.path)}</td>
                   </tr>
                 ));
               })}
@@ -81,11 +85,11 @@ export default async function DiffPage({ params, searchParams }: { params: Promi
           <tbody>
             {d.results.map((m) => (
               <tr key={m.key}>
-                <td>{m.symbol} <span className="small muted">{m.key.split(":")[0]}</span></td>
+                <td><Sym m={symbolOf(m.name)} /> <span className="small muted">{term(m.name).label}, {stepRefLabel(m.key.split(":")[0]!)}</span></td>
                 <td className="mono">{valued(m.from, m.unit)}</td>
                 <td className="mono">{valued(m.to, m.unit)}</td>
                 <td className="num mono">{m.change === null ? "—" : valueText(m.change, null, m.unit)}</td>
-                <td className={`num${m.changeInSigmas !== null && Math.abs(m.changeInSigmas) > 2 ? " rv-big" : ""}`}>{m.changeInSigmas === null ? "—" : m.changeInSigmas.toFixed(2)}</td>
+                <td className={`num${m.changeInSigmas !== null && Math.abs(m.changeInSigmas) > 2 ? " rv-big" : ""}`}>{m.changeInSigmas === null ? "—" : formatNumber(m.changeInSigmas, 3)}</td>
               </tr>
             ))}
           </tbody>
