@@ -1,0 +1,185 @@
+/**
+ * Cells of the candidate C = γT + βT³ + n·S(T; Δ), S the two-level Schottky term per unit
+ * amount (g = 1, models/schottky.ts), with the gap Δ free, on every window of the grid, by
+ * separable least squares (variable projection): for fixed Δ the model is linear in γ, β, n
+ * and their best values follow exactly, so χ² is a function of Δ alone (the profile χ²(Δ)).
+ *   1. Grid: for each of GRID_SIZE gaps spaced evenly in ln Δ over [T_lo/5, 2·T_hi] (the
+ *      peak of S lies near Δ/2.4: from far below the data to the top of the range) all
+ *      windows are solved at once by sequential Givens row updating (one sweep per lower
+ *      edge), χ² from the running sum of rotated-out squares; only gaps with n > 0 count.
+ *      In a window starting at T_min only gaps up to PEAK_LIMIT·T_min count: the peak of S
+ *      (at ≈ Δ/2.4) then lies at most at twice the window's lowest temperature, so the term is
+ *      the low-temperature upturn this candidate stands for. A bump inside the window (an
+ *      Einstein mode, a Schottky peak at higher T) is not a candidate's business: it shows as
+ *      a window the candidates cannot describe, and diagnose.ts names it.
+ *   2. Refine: Brent's minimiser on ln Δ between the grid neighbours of the best grid gap,
+ *      each evaluation a fresh Givens pass over the window's rows.
+ *   3. At the minimum: γ, β, n by solveLinearLeastSquares, and the statistical covariance of
+ *      (γ, β, n, Δ) from the 4-column Jacobian [T, T³, S, n ∂S/∂Δ] (Gauss–Newton), so σ(γ)
+ *      includes the freedom of the gap. A best gap on the edge of the grid is "at the search
+ *      bound": Δ is then not determined by the window, and σ comes from (γ, β, n) at that Δ.
+ * Windows without any gap giving n > 0 show no Schottky term: their cell is not usable.
+ * Reference: Golub & Pereyra, SIAM J. Numer. Anal. 10 (1973) 413 (variable projection).
+ */
+import { schottkyHeatCapacity } from "../models/schottky";
+import { GAS_CONSTANT_J_PER_MOL_K as R } from "../constants";
+import { solveLinearLeastSquares } from "../linalg/lstsq";
+import { appendRow, solveUpper } from "./givens";
+import { minimizeBrent } from "./brent";
+import { cellFrom, failedCell, type CandidateCell } from "./candidateCell";
+import type { SortedSeries } from "./linearCells";
+import type { RecommendWindow } from "./recommendGrid";
+
+const GRID_SIZE = 36;
+/** Largest gap of a window, in units of its lowest temperature (peak at ≤ 2 T_min). */
+export const PEAK_LIMIT = 4.8;
+const N_FREE = 4;
+
+/** ∂S/∂Δ of the unit-amount two-level term (g = 1): R x e (2 − x(1 − e)/(1 + e)) / ((1 + e)² T), e = e^{−x}, x = Δ/T. */
+export function schottkyGapDerivative(temperatureK: number, gapK: number): number {
+  const x = gapK / temperatureK;
+  if (x > 700) return 0;
+  const e = Math.exp(-x);
+  return (R * x * e * (2 - (x * (1 - e)) / (1 + e))) / ((1 + e) * (1 + e) * temperatureK);
+}
+
+/** The gap grid for data from tLo to tHi. */
+export function gapGrid(tLo: number, tHi: number, size = GRID_SIZE): Float64Array {
+  const a = tLo / 5;
+  const b = 2 * tHi;
+  return Float64Array.from({ length: size }, (_, k) => a * (b / a) ** (k / (size - 1)));
+}
+
+interface Profile {
+  /** χ² per (window, gap), row-major windows × gaps; NaN where n ≤ 0 or rank deficient. */
+  readonly chi: Float64Array;
+}
+
+/** Step 1: χ² of every window at every grid gap (only where n > 0). */
+function gridProfile(s: SortedSeries, windows: readonly RecommendWindow[], gaps: Float64Array): Profile {
+  const m = s.T.length;
+  const G = gaps.length;
+  const chi = new Float64Array(windows.length * G).fill(NaN);
+  const order = windows.map((_, k) => k).sort((p, q) => windows[p].lo - windows[q].lo || windows[p].hi - windows[q].hi);
+  const rows = new Float64Array(m * 3);
+  const b = new Float64Array(m);
+  for (let i = 0; i < m; i++) {
+    const w = s.S ? 1 / s.S[i] : 1;
+    rows[3 * i] = s.T[i] * w;
+    rows[3 * i + 1] = s.T[i] ** 3 * w;
+    b[i] = s.C[i] * w;
+  }
+  const r = new Float64Array(9);
+  const qtb = new Float64Array(3);
+  const work = new Float64Array(3);
+  const z = new Float64Array(3);
+  for (let g = 0; g < G; g++) {
+    for (let i = 0; i < m; i++) rows[3 * i + 2] = schottkyHeatCapacity(s.T[i], gaps[g]) * (s.S ? 1 / s.S[i] : 1);
+    let lo = -1;
+    let next = 0;
+    let rss = 0;
+    for (const k of order) {
+      const win = windows[k];
+      if (win.lo !== lo) {
+        lo = win.lo;
+        next = lo;
+        r.fill(0);
+        qtb.fill(0);
+        rss = 0;
+      }
+      for (; next <= win.hi; next++) {
+        const out = appendRow(r, qtb, 3, rows, 3 * next, b[next], work);
+        rss += out * out;
+      }
+      const diag = Math.abs(r[0]) + Math.abs(r[4]) + Math.abs(r[8]);
+      if (!(Math.abs(r[8]) > 1e-12 * diag) || !(Math.abs(r[4]) > 1e-12 * diag)) continue;
+      z.set(qtb);
+      solveUpper(r, 3, z);
+      if (z[2] > 0) chi[k * G + g] = rss;
+    }
+  }
+  return { chi };
+}
+
+/** χ² and n of one window at one gap by a fresh Givens pass. */
+function windowAt(s: SortedSeries, lo: number, hi: number, gap: number): { chi: number; n: number } {
+  const r = new Float64Array(9);
+  const qtb = new Float64Array(3);
+  const work = new Float64Array(3);
+  const row = new Float64Array(3);
+  let rss = 0;
+  for (let i = lo; i <= hi; i++) {
+    const w = s.S ? 1 / s.S[i] : 1;
+    const t = s.T[i];
+    row[0] = t * w;
+    row[1] = t * t * t * w;
+    row[2] = schottkyHeatCapacity(t, gap) * w;
+    const out = appendRow(r, qtb, 3, row, 0, s.C[i] * w, work);
+    rss += out * out;
+  }
+  if (!(Math.abs(r[8]) > 0)) return { chi: rss, n: NaN };
+  solveUpper(r, 3, qtb);
+  return { chi: rss, n: qtb[2] };
+}
+
+function columns(s: SortedSeries, lo: number, hi: number, gap: number, amount: number | null): Float64Array {
+  const k = hi - lo + 1;
+  const n = amount === null ? 3 : 4;
+  const a = new Float64Array(k * n);
+  for (let i = 0; i < k; i++) {
+    const t = s.T[lo + i];
+    a[i] = t;
+    a[k + i] = t * t * t;
+    a[2 * k + i] = schottkyHeatCapacity(t, gap);
+    if (amount !== null) a[3 * k + i] = amount * schottkyGapDerivative(t, gap);
+  }
+  return a;
+}
+
+/** Steps 2 and 3 for one window whose best grid gap has index g. */
+function refineWindow(s: SortedSeries, win: RecommendWindow, gaps: Float64Array, g: number, gMax: number, level: number): CandidateCell {
+  const k = win.hi - win.lo + 1;
+  const atBound = g === 0 || g === gMax;
+  let gap = gaps[g];
+  if (!atBound) {
+    const f = (u: number) => {
+      const v = windowAt(s, win.lo, win.hi, Math.exp(u));
+      return v.n > 0 ? v.chi : Infinity;
+    };
+    const best = minimizeBrent(f, Math.log(gaps[g - 1]), Math.log(gaps[g + 1]), 1e-6, 30);
+    if (Number.isFinite(best.f)) gap = Math.exp(best.x);
+  }
+  const sigma = s.S ? s.S.subarray(win.lo, win.hi + 1) : undefined;
+  const y = s.C.subarray(win.lo, win.hi + 1);
+  const lin = solveLinearLeastSquares(columns(s, win.lo, win.hi, gap, null), k, 3, y, { sigma });
+  if (!lin.fullRank || !(lin.coefficients[2] > 0)) return failedCell(win.tMinK, win.tMaxK, k, N_FREE, "no positive Schottky amplitude at the best gap");
+  const [gamma, beta, n] = lin.coefficients;
+  let cov = lin.covariance;
+  let nc = 3;
+  if (!atBound) {
+    const full = solveLinearLeastSquares(columns(s, win.lo, win.hi, gap, n), k, 4, y, { sigma });
+    if (full.fullRank) [cov, nc] = [full.covariance, 4];
+  }
+  const se = (j: number) => (j < nc ? Math.sqrt(cov[j * nc + j]) : null);
+  const fitted = new Float64Array(k);
+  for (let i = 0; i < k; i++) fitted[i] = y[i] - lin.residuals[i];
+  const note = atBound ? `gap at the search bound (Δ = ${Number(gap.toPrecision(3))} K): not determined by this window` : nc === 3 ? "σ with the gap held fixed (the 4-parameter Jacobian is rank deficient)" : null;
+  return cellFrom(s, win.lo, win.hi, win.tMinK, win.tMaxK, { values: { gamma, beta, n, gap }, rawStdErrors: { gamma: se(0), beta: se(1), n: se(2), gap: se(3) }, fitted, nFree: N_FREE, note }, level);
+}
+
+/** Cells of the two-level Schottky candidate with free gap on `windows`. */
+export function gapCandidateCells(s: SortedSeries, windows: readonly RecommendWindow[], level: number): CandidateCell[] {
+  if (windows.length === 0) return [];
+  const gaps = gapGrid(s.T[0], s.T[s.T.length - 1]);
+  const G = gaps.length;
+  const { chi } = gridProfile(s, windows, gaps);
+  return windows.map((win, k) => {
+    const limit = PEAK_LIMIT * s.T[win.lo];
+    let gMax = 0;
+    while (gMax + 1 < G && gaps[gMax + 1] <= limit) gMax++;
+    let g = -1;
+    for (let j = 0; j <= gMax; j++) if (Number.isFinite(chi[k * G + j]) && (g < 0 || chi[k * G + j] < chi[k * G + g])) g = j;
+    if (g < 0) return failedCell(win.tMinK, win.tMaxK, win.hi - win.lo + 1, N_FREE, "no gap gives a positive Schottky amplitude: no Schottky term in this window");
+    return refineWindow(s, win, gaps, g, gMax, level);
+  });
+}
