@@ -14,13 +14,14 @@ import { parseDelimited, guessColumnRoles, extractPoints, type ParsedTable } fro
 import { toSI, heatCapacityBasis } from "../../engine/units";
 import { fitHeatCapacity, type FitResult, type HeatCapacityFitResult } from "../../engine/fit";
 import { MODELS, debyeTemperatureFromBeta } from "../../engine/models";
-import { scanWindows, type ScanResult } from "../../engine/scan";
+import type { Recommendation } from "../../engine/scan";
+import { recommendationJson, recommendationText, recommendedModel, recommendedStart, runRecommendation } from "./fitScan";
 
 const FLAGS: Record<string, FlagSpec> = {
   model: { kind: "string", meta: "NAME|EXPR", help: `model name (${Object.keys(MODELS).join(", ")}) or a mathjs expression in T; default sommerfeld` },
   "t-min": { kind: "number", meta: "K", help: "lower window edge, inclusive" },
   "t-max": { kind: "number", meta: "K", help: "upper window edge, inclusive" },
-  scan: { kind: "boolean", help: "scan T_min × T_max windows, report the plateau and fit the recommended window" },
+  scan: { kind: "boolean", help: "recommend a model and window (candidates Sommerfeld, +T⁵, +A/T², +Schottky and --model), with statistical and systematic σ; fit them" },
   "c-unit": { kind: "string", meta: "UNIT", help: 'heat-capacity unit, e.g. "mJ/(mol*K)" (default: header unit, else J/(mol*K))' },
   "t-col": { kind: "string", meta: "NAME|N", help: "temperature column (name or 1-based number)" },
   "c-col": { kind: "string", meta: "NAME|N", help: "heat-capacity column" },
@@ -130,9 +131,6 @@ function fitText(fit: HeatCapacityFitResult, file: string): string {
   return lines.join("\n");
 }
 
-function scanJson(s: ScanResult) {
-  return { reason: s.reason, recommended: s.recommended, plateauCells: s.plateau?.cells.length ?? 0, cells: s.cells.map((c) => ({ ...c, gamma: c.gamma === null ? null : c.gamma * 1e3, gammaStdError: c.gammaStdError === null ? null : c.gammaStdError * 1e3, beta: c.beta === null ? null : c.beta * 1e3, betaStdError: c.betaStdError === null ? null : c.betaStdError * 1e3 })), units: { gamma: "mJ/(mol*K^2)", beta: "mJ/(mol*K^4)", T: "K" } };
-}
 
 /** Run the command; see the module comment for exit codes. */
 export async function run(argv: string[], io: CliIo): Promise<number> {
@@ -148,24 +146,28 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
     const model = Object.hasOwn(MODELS, modelArg) ? modelArg : { expression: modelArg };
     let tMinK = getNumber(args, "t-min");
     let tMaxK = getNumber(args, "t-max");
-    let scan: ScanResult | null = null;
-    if (getBoolean(args, "scan")) {
-      if (typeof model !== "string") throw new InputError("--scan needs a registered model, not an expression", { field: "scan" });
-      const inRange = data.temperatureK.map((t, i) => i).filter((i) => (tMinK === undefined || data.temperatureK[i] >= tMinK) && (tMaxK === undefined || data.temperatureK[i] <= tMaxK));
-      const sub = (a: number[]) => inRange.map((i) => a[i]);
-      scan = scanWindows({ temperatureK: sub(data.temperatureK), heatCapacity: sub(data.heatCapacity), sigma: data.sigma ? sub(data.sigma) : undefined }, { model, r: getNumber(args, "r") });
-      if (scan.recommended) [tMinK, tMaxK] = [scan.recommended.tMinK, scan.recommended.tMaxK];
-    }
+    let scan: Recommendation | null = null;
+    let fitModel = model;
     const toSi = (values: Record<string, number> | undefined) => (values && typeof model === "string" ? fromDisplay(model, values) : values);
-    const fit = fitHeatCapacity(data, { model, tMinK, tMaxK, r: getNumber(args, "r"), fixed: toSi(getAssignments(args, "fix")), start: toSi(getAssignments(args, "start")), scaleErrors: getBoolean(args, "scale-errors") });
+    if (getBoolean(args, "scan")) {
+      scan = runRecommendation(data, model, { tMinK, tMaxK }, getNumber(args, "r"), toSi(getAssignments(args, "start")));
+      if (scan.recommended) [tMinK, tMaxK, fitModel] = [scan.window!.tMinK, scan.window!.tMaxK, recommendedModel(scan, model)];
+    }
+    // a recommended model other than --model gets no --fix/--start of --model: it starts where the recommendation ended
+    const own = fitModel === model;
+    const fit = fitHeatCapacity(data, { model: fitModel, tMinK, tMaxK, r: getNumber(args, "r"), fixed: own ? toSi(getAssignments(args, "fix")) : undefined, start: own ? toSi(getAssignments(args, "start")) : recommendedStart(scan!), scaleErrors: getBoolean(args, "scale-errors") });
     if (getBoolean(args, "json")) {
-      io.out(JSON.stringify({ file: args.positionals[0], columns: data.columns, model: fit.modelName, window: { tMinK: fit.window.tMinK, tMaxK: fit.window.tMaxK, nPoints: fit.window.nPoints }, parameters: displayParameters(fit), derived: thetaFromBeta(fit), statistics: statistics(fit), correlation: fit.correlation, warnings: fit.warnings, ...(scan ? { scan: scanJson(scan) } : {}) }));
+      io.out(JSON.stringify({ file: args.positionals[0], columns: data.columns, model: fit.modelName, window: { tMinK: fit.window.tMinK, tMaxK: fit.window.tMaxK, nPoints: fit.window.nPoints }, parameters: displayParameters(fit), derived: thetaFromBeta(fit), statistics: statistics(fit), correlation: fit.correlation, warnings: fit.warnings, ...(scan ? { scan: recommendationJson(scan, data.sigma !== undefined) } : {}) }));
     } else {
-      if (scan) io.out(`window scan: ${scan.cells.length} windows; ${scan.reason}`);
+      if (scan) io.out(recommendationText(scan));
       io.out(fitText(fit, args.positionals[0]));
     }
     if (!fit.converged) {
       io.err(`heatbook fit: the fit failed: ${fit.message}`);
+      return 1;
+    }
+    if (scan && !scan.recommended) {
+      io.err(`heatbook fit: no recommendation: ${scan.reason}`);
       return 1;
     }
     return 0;
