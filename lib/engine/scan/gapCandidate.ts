@@ -24,7 +24,6 @@
 import { schottkyHeatCapacity } from "../models/schottky";
 import { GAS_CONSTANT_J_PER_MOL_K as R } from "../constants";
 import { solveLinearLeastSquares } from "../linalg/lstsq";
-import { appendRow, solveUpper } from "./givens";
 import { minimizeBrent } from "./brent";
 import { cellFrom, failedCell, type CandidateCell } from "./candidateCell";
 import type { SortedSeries } from "./linearCells";
@@ -50,6 +49,46 @@ export function gapGrid(tLo: number, tHi: number, size = GRID_SIZE): Float64Arra
   return Float64Array.from({ length: size }, (_, k) => a * (b / a) ** (k / (size - 1)));
 }
 
+/**
+ * Rotate the row (x0, x1, x2 | b) into the 3-column factor held in `st` =
+ * [R00, R01, R02, R11, R12, R22, q0, q1, q2, rss] (Givens, as givens.ts appendRow with the
+ * loops written out for three columns; rss sums the rotated-out squares).
+ */
+function rotate3(st: Float64Array, x0: number, x1: number, x2: number, b: number): void {
+  if (x0 !== 0) {
+    const p = st[0];
+    const h = Math.sqrt(p * p + x0 * x0);
+    const c = p / h, s = x0 / h;
+    st[0] = h;
+    let t = st[1]; st[1] = c * t + s * x1; x1 = c * x1 - s * t;
+    t = st[2]; st[2] = c * t + s * x2; x2 = c * x2 - s * t;
+    t = st[6]; st[6] = c * t + s * b; b = c * b - s * t;
+  }
+  if (x1 !== 0) {
+    const p = st[3];
+    const h = Math.sqrt(p * p + x1 * x1);
+    const c = p / h, s = x1 / h;
+    st[3] = h;
+    let t = st[4]; st[4] = c * t + s * x2; x2 = c * x2 - s * t;
+    t = st[7]; st[7] = c * t + s * b; b = c * b - s * t;
+  }
+  if (x2 !== 0) {
+    const p = st[5];
+    const h = Math.sqrt(p * p + x2 * x2);
+    const c = p / h, s = x2 / h;
+    st[5] = h;
+    const t = st[8]; st[8] = c * t + s * b; b = c * b - s * t;
+  }
+  st[9] += b * b;
+}
+
+/** n of the factor in `st` (back substitution of the last row only), NaN when R22 or R11 vanishes against the diagonal. */
+function amountOf(st: Float64Array): number {
+  const diag = Math.abs(st[0]) + Math.abs(st[3]) + Math.abs(st[5]);
+  if (!(Math.abs(st[5]) > 1e-12 * diag) || !(Math.abs(st[3]) > 1e-12 * diag)) return NaN;
+  return st[8] / st[5];
+}
+
 interface Profile {
   /** χ² per (window, gap), row-major windows × gaps; NaN where n ≤ 0 or rank deficient. */
   readonly chi: Float64Array;
@@ -69,57 +108,34 @@ function gridProfile(s: SortedSeries, windows: readonly RecommendWindow[], gaps:
     rows[3 * i + 1] = s.T[i] ** 3 * w;
     b[i] = s.C[i] * w;
   }
-  const r = new Float64Array(9);
-  const qtb = new Float64Array(3);
-  const work = new Float64Array(3);
-  const z = new Float64Array(3);
+  const st = new Float64Array(10);
   for (let g = 0; g < G; g++) {
     for (let i = 0; i < m; i++) rows[3 * i + 2] = schottkyHeatCapacity(s.T[i], gaps[g]) * (s.S ? 1 / s.S[i] : 1);
     let lo = -1;
     let next = 0;
-    let rss = 0;
     for (const k of order) {
       const win = windows[k];
       if (win.lo !== lo) {
         lo = win.lo;
         next = lo;
-        r.fill(0);
-        qtb.fill(0);
-        rss = 0;
+        st.fill(0);
       }
-      for (; next <= win.hi; next++) {
-        const out = appendRow(r, qtb, 3, rows, 3 * next, b[next], work);
-        rss += out * out;
-      }
-      const diag = Math.abs(r[0]) + Math.abs(r[4]) + Math.abs(r[8]);
-      if (!(Math.abs(r[8]) > 1e-12 * diag) || !(Math.abs(r[4]) > 1e-12 * diag)) continue;
-      z.set(qtb);
-      solveUpper(r, 3, z);
-      if (z[2] > 0) chi[k * G + g] = rss;
+      for (; next <= win.hi; next++) rotate3(st, rows[3 * next], rows[3 * next + 1], rows[3 * next + 2], b[next]);
+      if (amountOf(st) > 0) chi[k * G + g] = st[9];
     }
   }
   return { chi };
 }
 
 /** χ² and n of one window at one gap by a fresh Givens pass. */
-function windowAt(s: SortedSeries, lo: number, hi: number, gap: number): { chi: number; n: number } {
-  const r = new Float64Array(9);
-  const qtb = new Float64Array(3);
-  const work = new Float64Array(3);
-  const row = new Float64Array(3);
-  let rss = 0;
+function windowAt(s: SortedSeries, lo: number, hi: number, gap: number, st: Float64Array): { chi: number; n: number } {
+  st.fill(0);
   for (let i = lo; i <= hi; i++) {
     const w = s.S ? 1 / s.S[i] : 1;
     const t = s.T[i];
-    row[0] = t * w;
-    row[1] = t * t * t * w;
-    row[2] = schottkyHeatCapacity(t, gap) * w;
-    const out = appendRow(r, qtb, 3, row, 0, s.C[i] * w, work);
-    rss += out * out;
+    rotate3(st, t * w, t * t * t * w, schottkyHeatCapacity(t, gap) * w, s.C[i] * w);
   }
-  if (!(Math.abs(r[8]) > 0)) return { chi: rss, n: NaN };
-  solveUpper(r, 3, qtb);
-  return { chi: rss, n: qtb[2] };
+  return { chi: st[9], n: amountOf(st) };
 }
 
 function columns(s: SortedSeries, lo: number, hi: number, gap: number, amount: number | null): Float64Array {
@@ -142,11 +158,13 @@ function refineWindow(s: SortedSeries, win: RecommendWindow, gaps: Float64Array,
   const atBound = g === 0 || g === gMax;
   let gap = gaps[g];
   if (!atBound) {
+    const st = new Float64Array(10);
     const f = (u: number) => {
-      const v = windowAt(s, win.lo, win.hi, Math.exp(u));
+      const v = windowAt(s, win.lo, win.hi, Math.exp(u), st);
       return v.n > 0 ? v.chi : Infinity;
     };
-    const best = minimizeBrent(f, Math.log(gaps[g - 1]), Math.log(gaps[g + 1]), 1e-6, 30);
+    // tolerance 1e-5 in ln Δ: far inside σ(Δ)/Δ of any real window, and about 12 evaluations
+    const best = minimizeBrent(f, Math.log(gaps[g - 1]), Math.log(gaps[g + 1]), 1e-5, 30);
     if (Number.isFinite(best.f)) gap = Math.exp(best.x);
   }
   const sigma = s.S ? s.S.subarray(win.lo, win.hi + 1) : undefined;
