@@ -7,3 +7,4 @@ export { buildFitResult, type FitResult, type FitParameter, type NamedMatrix } f
 export { fitHeatCapacity, registryCore, type HeatCapacityInput, type HeatCapacityFitOptions, type HeatCapacityFitResult, type FitWindow } from "./heatCapacity";
 export { heatCapacityWarnings, type WarningContext } from "./warnings";
 export { runsTest, type RunsTestResult } from "./runsTest";
+export { applyWeighting, describeQuality, type WeightingChoice, type AppliedWeighting } from "./weighting";

@@ -12,8 +12,9 @@
  *      the low-temperature upturn this candidate stands for. A bump inside the window (an
  *      Einstein mode, a Schottky peak at higher T) is not a candidate's business: it shows as
  *      a window the candidates cannot describe, and diagnose.ts names it.
- *   2. Refine: Brent's minimiser on ln Δ between the grid neighbours of the best grid gap,
- *      each evaluation a fresh Givens pass over the window's rows.
+ *   2. Refine: Brent's minimiser on ln Δ between the grid neighbours of the best grid gap
+ *      (to 1e-3 in ln Δ), each evaluation a fresh Givens pass over the window's rows, then up to four
+ *      Gauss–Newton steps on (γ, β, n, Δ), each kept only if χ² does not rise.
  *   3. At the minimum: γ, β, n by solveLinearLeastSquares, and the statistical covariance of
  *      (γ, β, n, Δ) from the 4-column Jacobian [T, T³, S, n ∂S/∂Δ] (Gauss–Newton), so σ(γ)
  *      includes the freedom of the gap. A best gap on the edge of the grid is "at the search
@@ -163,13 +164,24 @@ function refineWindow(s: SortedSeries, win: RecommendWindow, gaps: Float64Array,
       const v = windowAt(s, win.lo, win.hi, Math.exp(u), st);
       return v.n > 0 ? v.chi : Infinity;
     };
-    // tolerance 1e-5 in ln Δ: far inside σ(Δ)/Δ of any real window, and about 12 evaluations
-    const best = minimizeBrent(f, Math.log(gaps[g - 1]), Math.log(gaps[g + 1]), 1e-5, 30);
+    const best = minimizeBrent(f, Math.log(gaps[g - 1]), Math.log(gaps[g + 1]), 1e-3, 20);
     if (Number.isFinite(best.f)) gap = Math.exp(best.x);
   }
   const sigma = s.S ? s.S.subarray(win.lo, win.hi + 1) : undefined;
   const y = s.C.subarray(win.lo, win.hi + 1);
-  const lin = solveLinearLeastSquares(columns(s, win.lo, win.hi, gap, null), k, 3, y, { sigma });
+  const solveAt = (d: number) => solveLinearLeastSquares(columns(s, win.lo, win.hi, d, null), k, 3, y, { sigma });
+  let lin = solveAt(gap);
+  // Gauss–Newton polish of (γ, β, n, Δ) from Brent's point: quadratic convergence to the exact minimum
+  for (let it = 0; it < 4 && !atBound && lin.fullRank && lin.coefficients[2] > 0; it++) {
+    const step = solveLinearLeastSquares(columns(s, win.lo, win.hi, gap, lin.coefficients[2]), k, 4, lin.residuals, { sigma });
+    const next = gap + (step.fullRank ? step.coefficients[3] : NaN);
+    if (!(next > 0)) break;
+    const trial = solveAt(next);
+    if (!trial.fullRank || !(trial.chiSquare <= lin.chiSquare) || !(trial.coefficients[2] > 0)) break;
+    const converged = Math.abs(next - gap) <= 1e-12 * gap;
+    [gap, lin] = [next, trial];
+    if (converged) break;
+  }
   if (!lin.fullRank || !(lin.coefficients[2] > 0)) return failedCell(win.tMinK, win.tMaxK, k, N_FREE, "no positive Schottky amplitude at the best gap");
   const [gamma, beta, n] = lin.coefficients;
   let cov = lin.covariance;
