@@ -7,6 +7,7 @@
 import Link from "next/link";
 import { useMemo, useState } from "react";
 import { formatUncertainty } from "@/lib/engine/units/format";
+import { formatStatSyst } from "@/lib/engine/scan/statSyst";
 import type { SeriesRow } from "@/lib/server/series";
 import { STATE_LABEL } from "@/app/components/review/labels";
 
@@ -41,6 +42,7 @@ function cell(r: SeriesRow, k: Key, slug: string) {
     return <Link href={href} title={r.revision.analysisTitle}>r{r.revision.revisionNumber} · {STATE_LABEL[r.revision.state]}</Link>;
   }
   const v = r[k];
+  if (v && typeof v.systematicError === "number") return <span title="value(statistical σ)(systematic σ)">{formatStatSyst(v.value, v.stdError, v.systematicError)}</span>;
   return v ? formatUncertainty(v.value, v.stdError) : "—";
 }
 
