@@ -8,13 +8,14 @@
 import type { Db } from "../db/client";
 import { ConflictError, NotFoundError } from "../../engine/errors";
 import { formatUncertainty, formatWithUnit, DISPLAY_UNITS } from "../../engine/units";
+import { formatStatSyst } from "../../engine/scan/statSyst";
 import { authorise, type Member } from "../access";
 import { uuidOrNone } from "../samples";
 import type { RevisionSnapshot } from "./snapshot";
 
 export const SAFETY_SENTENCE = "These results need expert review under local practice before use in any safety-relevant decision.";
 
-export interface ReportValue { name: string; symbol: string; value: number; stdError: number | null; unit: string; compact: string; note?: string }
+export interface ReportValue { name: string; symbol: string; value: number; stdError: number | null; unit: string; compact: string; note?: string; systematicError?: number | null }
 
 export interface RevisionReport {
   title: string;
@@ -83,7 +84,12 @@ export function reportFromSnapshot(s: RevisionSnapshot, meta: { group: { name: s
         reducedChiSquare: r.fit.reducedChiSquare, parameters: r.fit.parameters.map((p: any) => parameter(p, r.basis)), plot: { points: r.points, curve: r.curve },
       });
     } else if (st.kind === "derive" && r?.quantities)
-      for (const q of r.quantities) report.derived.push({ name: q.name, symbol: q.symbol, value: q.value, stdError: q.stdError, unit: q.unit, compact: `${formatUncertainty(q.value, q.stdError)} ${q.unit}`, ...(q.note ? { note: q.note } : {}) });
+      for (const q of r.quantities) {
+        // a systematic σ (from a recommended fit) is written as value(stat)(syst)
+        const sys = typeof q.systematicError === "number" ? q.systematicError : null;
+        const compact = sys === null ? `${formatUncertainty(q.value, q.stdError)} ${q.unit}` : `${formatStatSyst(q.value, q.stdError, sys)} ${q.unit} (stat)(syst)`;
+        report.derived.push({ name: q.name, symbol: q.symbol, value: q.value, stdError: q.stdError, unit: q.unit, compact, ...(q.note ? { note: q.note } : {}), ...(sys !== null ? { systematicError: sys } : {}) });
+      }
     else if (st.kind === "note" && typeof r?.markdown === "string" && r.markdown.trim()) report.notes.push(r.markdown);
   });
   return report;
