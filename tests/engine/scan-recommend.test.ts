@@ -1,5 +1,5 @@
 import { describe, it, expect } from "vitest";
-import { recommendFit, chiSquareSurvival, formatStatSyst, schottkyGapDerivative, minimizeBrent, gapCandidateCells, testWindow, type Recommendation } from "../../lib/engine/scan";
+import { scanWindows, recommendFit, chiSquareSurvival, formatStatSyst, schottkyGapDerivative, minimizeBrent, gapCandidateCells, testWindow, type Recommendation } from "../../lib/engine/scan";
 import { recommendationWindows } from "../../lib/engine/scan/recommendGrid";
 import { schottkyHeatCapacity } from "../../lib/engine/models";
 import { expectClose } from "../helpers/expectClose";
@@ -97,6 +97,19 @@ describe("recommendFit on invented data with known truth", () => {
     expect(() => recommendFit(d, { level: 0.7 })).toThrow(/level/);
     expect(() => recommendFit(d, { candidates: ["nope"] })).toThrow(/invalid model/);
     expect(() => recommendFit({ temperatureK: [1, -2], heatCapacity: [1, 2] })).toThrow(/temperatureK/);
+  });
+});
+
+describe("scanWindows without a plateau", () => {
+  it("scanWindows recommends no window when no two adjacent windows agree (no fallback to the smallest σ)", () => {
+    // invented: a strong T⁵ term measured with σ = 1e-6 of C, so every window's γ differs from its neighbours'
+    const T = Array.from({ length: 200 }, (_, i) => 1 + (19 * i) / 199);
+    const C = T.map((t) => 2e-3 * t + 5e-5 * t ** 3 + 1e-6 * t ** 5);
+    const s = scanWindows({ temperatureK: T, heatCapacity: C, sigma: C.map((c) => 1e-6 * c) });
+    expect(s.cells.length).toBeGreaterThan(100);
+    expect(s.recommended).toBeNull();
+    expect(s.plateau).toBeNull();
+    expect(s.reason).toMatch(/no window is recommended/);
   });
 });
 

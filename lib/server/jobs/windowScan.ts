@@ -69,6 +69,7 @@ export async function runWindowScan(ctx: JobContext, p: WindowScanParams): Promi
   const plateau = findPlateau(usable.map(({ c, k }) => ({ ...pos[k]!, value: c.gamma!, sigma: c.gammaStdError! })));
   const members = plateau ? plateau.members.map((m) => cells[usable[m]!.k]!) : [];
   const clean = members.filter((c) => !c.beyondT3Range);
-  const recommended = (clean.length ? clean : members).reduce<ScanCell | null>((a, b) => (a === null || b.gammaStdError! < a.gammaStdError! ? b : a), null);
+  // a "plateau" of one window is no plateau: no window is recommended then (never the narrowest-σ, i.e. widest, window by default)
+  const recommended = members.length < 2 ? null : (clean.length ? clean : members).reduce<ScanCell | null>((a, b) => (a === null || b.gammaStdError! < a.gammaStdError! ? b : a), null);
   return { model: options.model, gridSize: p.gridSize, cells, plateauCells: members.length, plateauGamma: plateau?.mean ?? null, recommended };
 }
