@@ -36,7 +36,7 @@ export function describeRecommendation(r: Chosen, level: number): { method: stri
   const reason = [
     `${r.modelTitle}: lowest AICc on the common window ${k3(cw.tMinK)}–${k3(cw.tMaxK)} K (${cw.nPoints} points)${next ? `, ΔAICc = ${next.deltaAicc!.toFixed(1)} to ${next.title}` : ", the only candidate acceptable there"}.`,
     `Window ${k3(w.tMinK)}–${k3(w.tMaxK)} K (${w.nPoints} points, ${quality}): its acceptable window with the smallest statistical σ(γ).`,
-    `${r.acceptableFits} of ${r.totalFits} (model, window) fits acceptable.`,
+    `${r.acceptableFits} of ${r.totalFits} (model, window) fits acceptable; the systematic σ is the 1/σ²-weighted root-mean-square deviation of γ (β) over them from the recommended value.`,
     `γ = ${g} mJ mol⁻¹ K⁻²${b} (stat)(syst).`,
   ].join(" ");
   return { method: methodText(r.weighting, level), reason };
