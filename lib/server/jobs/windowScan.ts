@@ -9,7 +9,7 @@
 import { NotFoundError } from "../../engine/errors";
 import { computeChain, parseStepConfig, type StepSpec } from "../../engine/notebook";
 import { findPlateau, quantileEdges, scanWindows, type ScanCell } from "../../engine/scan";
-import type { FitConfig } from "../../engine/notebook/steps/fit";
+import { weightingOf, type FitConfig } from "../../engine/notebook/steps/fit";
 import { getModel } from "../../engine/models/registry";
 import { loadContext } from "../notebook/context";
 import type { JobContext } from "./context";
@@ -40,7 +40,9 @@ async function fitInput(ctx: JobContext, p: WindowScanParams) {
   if (!data) throw new NotFoundError("data above the fit step");
   const config = parseStepConfig("fit", step.config) as FitConfig;
   const r = data.basis === "atom" ? 1 : chainCtx.sample.atomsPerFormulaUnit;
-  const input = { temperatureK: data.temperatureK, heatCapacity: data.heatCapacity, ...(config.weighting === "sigma" && data.sigma ? { sigma: data.sigma } : {}) };
+  // the step's own weighting (data σ, none, relative or absolute σ)
+  const sigma = weightingOf(config, data.heatCapacity, data.sigma).sigma;
+  const input = { temperatureK: data.temperatureK, heatCapacity: data.heatCapacity, ...(sigma ? { sigma } : {}) };
   return { input, options: { model: config.model === "expression" ? "sommerfeld" : config.model, r, fixed: Object.keys(config.fixed).length ? config.fixed : undefined } };
 }
 

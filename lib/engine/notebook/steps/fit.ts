@@ -72,7 +72,7 @@ function scanGrid(T: readonly number[], lo: number, hi: number): { tMinGridK: nu
 }
 
 /** The σ of the fit from the configured weighting; "sigma" on data without σ falls back to unweighted (with a warning). */
-function weightingOf(config: FitConfig, heatCapacity: readonly number[], sigma: readonly number[] | null | undefined): AppliedWeighting {
+export function weightingOf(config: FitConfig, heatCapacity: readonly number[], sigma: readonly number[] | null | undefined): AppliedWeighting {
   if (config.weighting === "relative" && config.relativeSigmaPercent === null) throw new StepFailure("give the relative σ in % of C (weighting by a relative σ)", "relativeSigmaPercent");
   if (config.weighting === "absolute" && config.absoluteSigmaSI === null) throw new StepFailure("give the absolute σ (weighting by an absolute σ)", "absoluteSigmaSI");
   try {
