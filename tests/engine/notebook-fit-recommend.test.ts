@@ -44,6 +44,8 @@ describe("fit step with recommend", () => {
     expectClose(g.value, rec.gamma, { rel: 1e-6 });
     expect(Math.abs(g.value - TRUTH.gamma)).toBeLessThanOrEqual(3 * Math.hypot(rec.gammaStdError, rec.gammaSystematicError));
     expect(rec.candidates.map((c) => c.model)).toEqual(["sommerfeld", "sommerfeld-t5", "nuclear", "schottky"]);
+    const stored = (out[1]!.result as { summary: { gamma: { systematicError: number } } }).summary;
+    expect(stored.gamma.systematicError).toBe(rec.gammaSystematicError);
     const q = (out[2]!.result as { quantities: { name: string; value: number; stdError: number; systematicError?: number }[] }).quantities;
     const gq = q.find((x) => x.name === "gamma")!;
     expectClose(gq.systematicError!, rec.gammaSystematicError * 1e3, { rel: 1e-9 });
@@ -60,6 +62,8 @@ describe("fit step with recommend", () => {
   });
   it("fit step without recommend leaves the systematic σ out", () => {
     const out = computeChain(steps({ tMinK: 2, tMaxK: 15 }), context(true));
+    const stored = (out[1]!.result as { summary: { gamma: { systematicError: number } } }).summary;
+    expect(stored.gamma.systematicError).toBe(rec.gammaSystematicError);
     const q = (out[2]!.result as { quantities: { name: string; systematicError?: number }[] }).quantities;
     expect(q.find((x) => x.name === "gamma")!.systematicError).toBeUndefined();
   });

@@ -181,6 +181,7 @@ export const fitStep: StepDefinition<FitConfig> = {
     }
     const curve = modelCurve(fit, fitsExpression ? config.expression : null, Math.min(lo, span.tMinK), Math.max(hi, span.tMaxK));
     const residualStdDev = residualSpread(fit);
+    const handed = summary(fit, data.basis, data.fieldT, lo, hi, rec);
     return {
       result: {
         fit,
@@ -197,9 +198,11 @@ export const fitStep: StepDefinition<FitConfig> = {
         weighting: { kind: weighting.kind, sigmaKnown: weighting.sigmaKnown, text: weighting.text, relativeSigmaPercent: config.weighting === "relative" ? config.relativeSigmaPercent : null, absoluteSigmaSI: config.weighting === "absolute" ? config.absoluteSigmaSI : null },
         quality: { reducedChiSquare: weighting.sigmaKnown ? fit.reducedChiSquare : null, residualStdDev, text: describeQuality(weighting.sigmaKnown, fit.reducedChiSquare, residualStdDev) },
         recommendation: rec ? recommendationOutput(rec) : null,
+        // γ and β as handed down (with the systematic σ of a recommended fit), for readers of the stored output (series)
+        summary: handed,
       },
       warnings,
-      state: { ...state, fit: summary(fit, data.basis, data.fieldT, lo, hi, rec) },
+      state: { ...state, fit: handed },
     };
   },
 };
