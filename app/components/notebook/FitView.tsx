@@ -124,7 +124,7 @@ export function FitView({ step, result: r, ctx, save }: Props) {
               ? <><dt>χ², χ²_red</dt><dd>{num(f.chiSquare, 4)}, <strong>{num(f.reducedChiSquare, 3)}</strong></dd></>
               : <><dt>Residual standard deviation</dt><dd data-testid="fit-residual-sd"><strong>{num(residualSd === null ? null : residualSd * 1e3, 3)}</strong> mJ mol⁻¹ K⁻¹ <span className="muted small">(σ unknown: no χ²_red)</span></dd></>}
             <dt>AICc, BIC</dt><dd>{num(f.aicc, 5)}, {num(f.bic, 5)} <span className="muted small">(only differences matter)</span></dd>
-            <dt>Weights</dt><dd data-testid="fit-weighting-text">{r.weighting?.text ?? (f.weighted ? "weighted by 1/σ²" : "unweighted")}; errors {f.errorsScaledByReducedChiSquare ? "scaled by √χ²_red" : f.weighted ? "from σ as given" : "from the residual scatter"}</dd>
+            <dt>Weights</dt><dd data-testid="fit-weighting-text">{r.weighting?.text ?? (f.weighted ? "weighted by 1/σ²" : "unweighted (standard errors from the residual scatter)")}{f.weighted && <>; errors {f.errorsScaledByReducedChiSquare ? "scaled by √χ²_red" : "from σ as given"}</>}</dd>
           </dl>
         </section>
         {f.correlation && f.correlation.names.length > 1 && (
