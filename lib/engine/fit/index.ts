@@ -1,4 +1,4 @@
-/** Fitting: Levenberg–Marquardt, the shared fit core, general regression and the result type. */
+/** Fitting: Levenberg–Marquardt, separable global starts, the shared fit core, general regression and the result type. */
 export { levenbergMarquardt } from "./lm";
 export { weightedJacobian, weightedResiduals, type LeastSquaresProblem, type LevenbergMarquardtOptions, type LevenbergMarquardtResult } from "./problem";
 export { fitCore, type ModelCore, type CoreOptions } from "./core";
@@ -8,3 +8,6 @@ export { fitHeatCapacity, registryCore, type HeatCapacityInput, type HeatCapacit
 export { heatCapacityWarnings, type WarningContext } from "./warnings";
 export { runsTest, type RunsTestResult } from "./runsTest";
 export { applyWeighting, describeQuality, type WeightingChoice, type AppliedWeighting } from "./weighting";
+export { fitGlobal, multiStartThetas, type GlobalSearch } from "./global";
+export { solveAmplitudes, projected, gridSearch, reducedFit, type SeparableProblem, type Candidate, type Axis } from "./separable";
+export { fitExpression, searchBudget, localFitLimit } from "./expressionFit";
