@@ -4,12 +4,14 @@
  * display unit (γ in mJ/(mol K²), β in mJ/(mol K⁴), temperatures in K: see --help);
  * `r` (atoms per formula unit, default 1) may be set with --set r=N. Unset additive
  * coefficients (gamma, beta, delta, epsilon, A, B) are 0; any other parameter must be set.
- * Exit 0 success, 2 bad usage or input.
+ * Parameter values outside the model's bounds (e.g. Θ_D ≤ 0) are refused naming the parameter.
+ * The engine (evaluateHeatCapacity) refuses a C that is not finite. Exit 0 success, 2 bad usage or input.
  */
 import type { CliIo } from "../io";
 import { formatFlagHelp, getAssignments, getBoolean, getList, parseArgs, type FlagSpec, reportFailure } from "../args";
 import { InputError } from "../../engine/errors";
 import { evaluateHeatCapacity, getModel, MODELS, type HeatCapacityModel } from "../../engine/models";
+import { checkParameterValues } from "../modelParams";
 
 const FLAGS: Record<string, FlagSpec> = {
   set: { kind: "assignments", meta: "p=v,...", help: "parameter values in display units (and r=N)" },
@@ -33,6 +35,7 @@ function siParameters(model: HeatCapacityModel, set: Record<string, number>): Re
     if (v === undefined) throw new InputError(`--set needs ${p.name} (${p.description}, in ${p.displayUnit}) for model ${model.name}`, { field: "set" });
     out[p.name] = v;
   }
+  checkParameterValues(model, out, "set");
   return out;
 }
 
