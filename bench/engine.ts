@@ -20,6 +20,7 @@ import { solveLinearLeastSquares } from "../lib/engine/linalg";
 import { fitHeatCapacity, levenbergMarquardt, type LeastSquaresProblem } from "../lib/engine/fit";
 import { scanWindows } from "../lib/engine/scan";
 import { debyeHeatCapacity, debyeHeatCapacityDThetaD } from "../lib/engine/models";
+import { recommendRow } from "./recommend";
 
 interface Row { name: string; ours: number; lib: number; oursDigits: number; libDigits: number }
 
@@ -154,6 +155,18 @@ function calibrate(): number {
   return s > 0 ? performance.now() - t0 : NaN;
 }
 
+/** The recommendation row (bench/recommend.ts) beside its naive LM baseline, as its own table. */
+function recommendTable(): string[] {
+  const r = recommendRow(median);
+  return [
+    "| case | ours median ms | naive LM baseline median ms | baseline / ours | what came out |",
+    "|---|---:|---:|---:|---|",
+    `| ${r.name} | ${r.oursMs.toFixed(0)} | ${r.naiveMs.toFixed(0)} | ${(r.naiveMs / r.oursMs).toFixed(1)} | ${r.detail} |`,
+    "",
+    "Target: the recommendation under 1 s. Baseline: every window and model fitted afresh by lib/engine/fit/lm.ts from the model's own starting values, with the same window tests.",
+  ];
+}
+
 /** Run every case and return the markdown table. */
 export async function runEngineBench(): Promise<string> {
   const rows = [...[1e2, 1e3, 1e4, 1e5].map(linearRow), scanRow(), ...debyeRows()];
@@ -169,6 +182,8 @@ export async function runEngineBench(): Promise<string> {
     ...rows.map((r) => `| ${r.name} | ${f(r.ours)} | ${f(r.lib)} | ${r.oursDigits.toFixed(1)} | ${Number.isNaN(r.libDigits) ? "—" : r.libDigits.toFixed(1)} |`),
     "",
     "Targets: faster than the library on every row with at least as many digits; 1e4-point linear fit < 1 ms; 400-point scan < 50 ms.",
+    "",
+    ...recommendTable(),
   ];
   return lines.join("\n");
 }

@@ -2,11 +2,13 @@
 /**
  * A fit step's result: the C/T vs T² chart (drag to choose a new window, or shift-drag / the
  * "comment" mode to discuss a range of points), residuals lined up beneath, the parameter table
- * with compact standard errors, fit statistics, correlations, the window scan with its
- * recommendation, and the model comparison.
+ * with compact standard errors, fit statistics (χ²_red only with known σ, else the residual
+ * standard deviation), correlations, the model-and-window recommendation with both σ, the window
+ * scan with its plateau, and the model comparison.
  */
 import { useCallback, useMemo, useState } from "react";
-import { fitPlot, residualPlot, scanPlot, fitCsv, scanCsv, defaultMaxTK, type FitStepResult, type RangeBand } from "@/lib/charts/notebook";
+import { fitPlot, residualPlot, scanPlot, candidatesPlot, fitCsv, scanCsv, defaultMaxTK, type FitStepResult, type RangeBand, type StoredRecommendation } from "@/lib/charts/notebook";
+import { formatStatSyst } from "@/lib/engine/scan/statSyst";
 import { ChartBox, type RangePick } from "./ChartBox";
 import { BASIS_LABEL, compact, num, paramSymbol, unitText } from "./display";
 import { Sym } from "../Sym";
@@ -64,6 +66,9 @@ export function FitView({ step, result: r, ctx, save }: Props) {
 
   const f = r.fit;
   const rec = r.scan?.recommended ?? null;
+  const sigmaKnown = r.weighting?.sigmaKnown ?? f.weighted;
+  // outputs stored before `quality` existed: unweighted χ² is the residual sum of squares
+  const residualSd = r.quality ? r.quality.residualStdDev : !f.weighted && f.chiSquare !== null && f.dof > 0 ? Math.sqrt(f.chiSquare / f.dof) : null;
   return (
     <div className="nb-result">
       <ChartBox
@@ -117,11 +122,12 @@ export function FitView({ step, result: r, ctx, save }: Props) {
           <dl className="facts nb-facts">
             <dt>Solved by</dt><dd>{f.method === "linear-qr" ? "linear least squares (Householder QR)" : `Levenberg–Marquardt, ${f.evaluations} evaluations`}{f.converged ? "" : " — not converged"}</dd>
             <dt>Points, free parameters</dt><dd>{f.nData}, {f.nFree} (ν = {f.dof})</dd>
-            {f.weighted
+            <dt>Fit variable</dt><dd>{r.fitVariable ?? "C(T)"}</dd>
+            {sigmaKnown
               ? <><dt>χ², <Sym m="χ²_red" /></dt><dd>{num(f.chiSquare, 4)}, <strong>{num(f.reducedChiSquare, 3)}</strong></dd></>
-              : <><dt>Residual standard deviation</dt><dd>{f.reducedChiSquare === null ? "—" : `${num(Math.sqrt(f.reducedChiSquare) * 1e3, 2)} mJ mol⁻¹ K⁻¹`} <span className="muted small">(no σ in the data: χ² has no scale)</span></dd></>}
+              : <><dt>Residual standard deviation</dt><dd data-testid="fit-residual-sd"><strong>{num(residualSd === null ? null : residualSd * 1e3, 3)}</strong> mJ mol⁻¹ K⁻¹ <span className="muted small">(σ unknown: no reduced χ²)</span></dd></>}
             <dt>AICc, BIC</dt><dd>{num(f.aicc, 5)}, {num(f.bic, 5)} <span className="muted small">(only differences matter)</span></dd>
-            <dt>Weights</dt><dd>{f.weighted ? "1/σ²" : "none"}; errors {f.errorsScaledByReducedChiSquare ? <>scaled by √<Sym m="χ²_red" /></> : "from σ as given"}</dd>
+            <dt>Weights</dt><dd data-testid="fit-weighting-text">{r.weighting?.text ?? (f.weighted ? "weighted by 1/σ²" : "unweighted (standard errors from the residual scatter)")}{f.weighted && <>; errors {f.errorsScaledByReducedChiSquare ? <>scaled by √<Sym m="χ²_red" /></> : "from σ as given"}</>}</dd>
           </dl>
         </section>
         {f.correlation && f.correlation.names.length > 1 && (
@@ -136,6 +142,7 @@ export function FitView({ step, result: r, ctx, save }: Props) {
           </section>
         )}
       </div>
+      {r.recommendation && <RecommendationView rec={r.recommendation} basis={r.basis} />}
       {r.scan && (
         <div className="nb-scan">
           <ChartBox title={<>Window scan: γ against <Sym m="T_max" /> for each <Sym m="T_min" /> <span className="muted">· ringed: plateau · large ring: recommended · diamond: this fit</span></>} name="window-scan" label="Window scan of gamma" testId="chart-scan" paperHref={`${ctx.apiBase}/analyses/${ctx.analysisId}/steps/${step.id}/figure?chart=scan&revision=${ctx.revisionId}`} build={buildScan} csv={() => scanCsv(r.scan!)} />
@@ -168,5 +175,28 @@ export function FitView({ step, result: r, ctx, save }: Props) {
         </section>
       )}
     </div>
+  );
+}
+
+/** The model-and-window recommendation: the chosen model, window, γ and β as value(stat)(syst), the reason and the rules. */
+function RecommendationView({ rec, basis }: { rec: StoredRecommendation; basis: FitStepResult["basis"] }) {
+  const build = useCallback((width: number) => candidatesPlot(rec, { width, basis }), [rec, basis]);
+  const both = (v: number | null, stat: number | null, syst: number | null) => (v === null ? "—" : formatStatSyst(v * 1e3, stat === null ? null : stat * 1e3, syst === null ? null : syst * 1e3));
+  return (
+    <section className="nb-scan" aria-label="Recommended model and window" data-testid="recommendation">
+      <h4>Recommended model and window</h4>
+      {rec.recommended && rec.window ? (
+        <dl className="facts nb-facts">
+          <dt>Model</dt><dd data-testid="recommendation-model">{rec.modelTitle}</dd>
+          <dt>Window</dt><dd>{num(rec.window.tMinK)}–{num(rec.window.tMaxK)} K ({rec.window.nPoints} points)</dd>
+          <dt>γ (stat)(syst)</dt><dd data-testid="recommendation-gamma">{both(rec.gamma, rec.gammaStdError, rec.gammaSystematicError)} mJ mol⁻¹ K⁻²</dd>
+          <dt>β (stat)(syst)</dt><dd>{both(rec.beta, rec.betaStdError, rec.betaSystematicError)} mJ mol⁻¹ K⁻⁴</dd>
+          <dt>Fits acceptable</dt><dd>{rec.acceptableFits} of {rec.totalFits} (model, window) fits</dd>
+        </dl>
+      ) : <p className="nb-bad"><strong>Not recommended.</strong></p>}
+      <ChartBox title={<>Candidates: γ against T_max <span className="muted">· filled: the model describes the data in that window · ring: recommended · band: ± total σ</span></>} name="recommendation-candidates" label="Gamma of every candidate model and window" testId="chart-candidates" build={build} />
+      <p className="nb-reason" data-testid="recommendation-reason"><strong>Why.</strong> {rec.reason}</p>
+      <details className="small"><summary>How the choice is made</summary><p>{rec.method}</p></details>
+    </section>
   );
 }

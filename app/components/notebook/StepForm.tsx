@@ -95,6 +95,10 @@ function NormaliseForm(p: Props) {
 
 function FitForm(p: Props) {
   const model = String(p.draft.model ?? "sommerfeld");
+  const weighting = String(p.draft.weighting ?? "sigma") as "sigma" | "none" | "relative" | "absolute";
+  const absoluteSI = n(p.draft.absoluteSigmaSI);
+  // shown in mJ mol⁻¹ K⁻¹, stored in SI; rounded so that 0.1 mJ does not read 0.00010000000000000002
+  const absoluteMJ = absoluteSI === null ? null : Number((absoluteSI * 1e3).toPrecision(12));
   const compare = new Set((p.draft.compare as string[] | undefined) ?? []);
   const options = [...p.ctx.models.map((m) => ({ value: m.name, label: `${m.title}` })), { value: "expression", label: "my own expression of T" }];
   return (
@@ -107,7 +111,13 @@ function FitForm(p: Props) {
       {model !== "expression" && <p className="wide small muted nb-formula">{p.ctx.models.find((m) => m.name === model)?.formula}</p>}
       <NumField label={<>Window from <Sym m="T_min" /></>} unit="K" value={n(p.draft.tMinK)} onChange={(v) => p.set({ tMinK: v })} testId="fit-tmin" hint="or drag across the C/T vs T² chart" />
       <NumField label={<>Window to <Sym m="T_max" /></>} unit="K" value={n(p.draft.tMaxK)} onChange={(v) => p.set({ tMaxK: v })} testId="fit-tmax" />
-      <SelectField label="Weights" value={String(p.draft.weighting ?? "sigma") as "sigma" | "none"} options={[{ value: "sigma", label: "1/σ² from the data's σ" }, { value: "none", label: "equal (unweighted)" }]} onChange={(v) => p.set({ weighting: v })} />
+      <SelectField label="Weights" value={weighting} testId="fit-weighting"
+        options={[{ value: "sigma", label: "1/σ² from the data's σ" }, { value: "none", label: "equal (unweighted)" }, { value: "relative", label: "assumed σ = p % of C" }, { value: "absolute", label: "assumed σ, the same for every point" }]}
+        onChange={(v) => p.set({ weighting: v })} hint={weighting === "none" ? "no χ²/dof: the residual standard deviation is shown" : undefined} />
+      {weighting === "relative" && <NumField label="σ as a share of C" unit="%" value={n(p.draft.relativeSigmaPercent)} onChange={(v) => p.set({ relativeSigmaPercent: v })} required testId="fit-relative-sigma" />}
+      {weighting === "absolute" && <NumField label="σ of every point" unit="mJ mol⁻¹ K⁻¹" value={absoluteMJ} onChange={(v) => p.set({ absoluteSigmaSI: v === null ? null : v * 1e-3 })} required testId="fit-absolute-sigma" />}
+      <CheckField label="Recommend model and window" checked={Boolean(p.draft.recommend)} onChange={(v) => p.set({ recommend: v })}
+        hint="γT + βT³, + δT⁵, + A/T², + two-level Schottky and the model above, on every window inside the window above; γ and β then carry a systematic σ" />
       <CheckField label={<>Scale standard errors by √<Sym m="χ²_red" /></>} checked={Boolean(p.draft.scaleErrors)} onChange={(v) => p.set({ scaleErrors: v })} hint="for σ that are only relative" />
       <CheckField label={<>Scan windows (γ against <Sym m="T_min" />, <Sym m="T_max" />)</>} checked={Boolean(p.draft.scan)} onChange={(v) => p.set({ scan: v })} hint="registry models only" />
       <TextField label="Held fixed (name=value, SI)" value={pairsText(p.draft.fixed as Record<string, number>)} onChange={(v) => p.set({ fixed: parsePairs(v) })} placeholder="A=0" mono />

@@ -6,25 +6,33 @@ import type { AddendaStepResult, DeriveStepResult, EntropyStepResult, FitStepRes
 import { BASIS_LABEL, compact, num, unitText } from "./display";
 import { formatCount, formatRange, formatUnit, symbolOf } from "@/lib/display";
 import type { StepView } from "./types";
+import { formatStatSyst } from "@/lib/engine/scan/statSyst";
 
 const q = (v: { value: number; stdError: number | null } | null | undefined, k = 1) => (v ? compact(v.value * k, v.stdError === null ? null : v.stdError * k) : "—");
+/** value(stat)(syst) when a systematic σ is known (a recommended fit), else value(σ). */
+const qs = (v: { value: number; stdError: number | null } | null | undefined, syst: number | null | undefined, k = 1) =>
+  v && typeof syst === "number" ? `${formatStatSyst(v.value * k, v.stdError === null ? null : v.stdError * k, syst * k)}` : q(v, k);
 
 function fit(r: FitStepResult): string {
   const p = (name: string) => r.fit.parameters.find((x) => x.name === name);
   const g = p("gamma"), b = p("beta");
   const parts: string[] = [];
-  if (g) parts.push(`γ = ${q(g, 1e3)} mJ mol⁻¹ K⁻²`);
-  if (b) parts.push(`β = ${q(b, 1e3)} mJ mol⁻¹ K⁻⁴`);
+  const rec = r.recommendation?.recommended ? r.recommendation : null;
+  if (g) parts.push(`γ = ${qs(g, rec?.gammaSystematicError, 1e3)} mJ mol⁻¹ K⁻²`);
+  if (b) parts.push(`β = ${qs(b, rec?.betaSystematicError, 1e3)} mJ mol⁻¹ K⁻⁴`);
+  if (rec) parts.push("(stat)(syst), recommended model and window");
   if (!g && !b) parts.push(r.fit.parameters.slice(0, 3).map((x) => `${symbolOf(x.name)} = ${q(x)}${x.unit ? ` ${unitText(x.unit)}` : ""}`).join(" · "));
   parts.push(`${formatCount(r.window.nPoints, "point")} in ${formatRange(r.window.tMinK, r.window.tMaxK, "K")}`);
-  if (r.fit.reducedChiSquare !== null) parts.push(r.fit.weighted ? `χ²_red = ${num(r.fit.reducedChiSquare, 3)}` : `residual s.d. ${num(Math.sqrt(r.fit.reducedChiSquare) * 1e3, 2)} mJ mol⁻¹ K⁻¹`);
+  const sigmaKnown = r.weighting?.sigmaKnown ?? r.fit.weighted;
+  if (sigmaKnown && r.fit.reducedChiSquare !== null) parts.push(`χ²_red = ${num(r.fit.reducedChiSquare, 3)}`);
+  if (!sigmaKnown && r.quality?.residualStdDev != null) parts.push(`residual s.d. ${num(r.quality.residualStdDev * 1e3, 3)} mJ mol⁻¹ K⁻¹`);
   return `${parts.join(" · ")} (${BASIS_LABEL[r.basis]})`;
 }
 
 function derive(r: DeriveStepResult): string {
   const by = new Map(r.quantities.map((x) => [x.name, x]));
   const pick = ["thetaD", "dosEF", "massRatio", "lambda"].map((k) => by.get(k)).filter((x) => !!x);
-  return pick.map((x) => `${symbolOf(x!.name)} = ${q(x)} ${prettyQuantityUnit(x!.unit)}`.trim()).join(" · ");
+  return pick.map((x) => `${symbolOf(x!.name)} = ${qs(x, x!.systematicError)} ${prettyQuantityUnit(x!.unit)}`.trim()).join(" · ");
 }
 
 /** Engine quantity units are written out ("states eV^-1 f.u.^-1"): superscripts only. */

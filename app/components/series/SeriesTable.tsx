@@ -7,6 +7,7 @@
 import Link from "next/link";
 import { useMemo, useState } from "react";
 import { formatNumber, formatValue } from "@/lib/display";
+import { formatStatSyst } from "@/lib/engine/scan/statSyst";
 import type { SeriesRow } from "@/lib/server/series";
 import { STATE_LABEL } from "@/app/components/review/labels";
 import { Sym } from "../Sym";
@@ -42,6 +43,7 @@ function cell(r: SeriesRow, k: Key, slug: string) {
     return <Link href={href} title={r.revision.analysisTitle}>r{r.revision.revisionNumber} · {STATE_LABEL[r.revision.state]}</Link>;
   }
   const v = r[k];
+  if (v && typeof v.systematicError === "number") return <span title="value(statistical σ)(systematic σ)">{formatStatSyst(v.value, v.stdError, v.systematicError)}</span>;
   return v ? formatValue(v.value, v.stdError) : "—";
 }
 

@@ -4,6 +4,7 @@
  *
  *   fitPlot / residualPlot     C/T vs T² with window, model, σ bars; (C − C_fit)/T
  *   scanPlot                   γ ± σ vs T_max per T_min, plateau, recommended window
+ *   candidatesPlot             γ per window of each candidate model, acceptable ones filled, the recommendation
  *   addendaPlot                total / addenda / net vs T
  *   transitionPlot             C_el/T with the idealised equal-area step
  *   integralPlot               S(T) or H(T) − H(0)
@@ -13,6 +14,8 @@
 export { fitPlot, residualPlot, fitRows, residualRows, defaultMaxTK, OVER_T_UNIT } from "./fit";
 export type { FitPlotOptions, FitRow, RangeBand, ResidualRow } from "./fit";
 export { scanPlot, scanRows } from "./scan";
+export { candidatesPlot, candidateRows } from "./candidates";
+export type { CandidateRow, CandidatesPlotOptions } from "./candidates";
 export type { ScanRow, ScanPlotOptions } from "./scan";
 export { addendaPlot, addendaRows, transitionPlot, integralPlot, integralRows } from "./curves";
 export { dataPlot, dataRows } from "./data";

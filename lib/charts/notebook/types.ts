@@ -5,7 +5,7 @@
  */
 import type { HeatCapacityFitResult } from "../../engine/fit/heatCapacity";
 import type { ScanResult } from "../../engine/scan";
-import type { ModelComparisonRow } from "../../engine/scan";
+import type { ModelComparisonRow, Recommendation } from "../../engine/scan";
 import type { FitParameter } from "../../engine/fit/result";
 import type { Quantity } from "../../engine/uncertainty/quantity";
 import type { IntegratedCurve } from "../../engine/thermo/entropy";
@@ -24,6 +24,35 @@ export interface FitStepResult {
   curve: { temperatureK: number[]; heatCapacity: number[] };
   scan: ScanResult | null;
   comparison: (Omit<ModelComparisonRow, "fit"> & { gamma: FitParameter | null; beta: FitParameter | null })[] | null;
+  /** Absent in outputs stored before these fields existed. */
+  fitVariable?: string;
+  weighting?: FitWeighting;
+  quality?: { reducedChiSquare: number | null; residualStdDev: number | null; text: string };
+  recommendation?: StoredRecommendation | null;
+}
+
+export interface FitWeighting {
+  kind: "sigma" | "none" | "relative" | "absolute";
+  sigmaKnown: boolean;
+  text: string;
+  relativeSigmaPercent: number | null;
+  absoluteSigmaSI: number | null;
+}
+
+/** One candidate's window in the stored recommendation (SI). */
+export interface StoredCandidateCell {
+  tMinK: number;
+  tMaxK: number;
+  nPoints: number;
+  gamma: number | null;
+  gammaStdError: number | null;
+  aicc: number | null;
+  acceptable: boolean;
+}
+
+/** The model-and-window recommendation as the fit step stores it (SI). */
+export interface StoredRecommendation extends Omit<Recommendation, "candidates"> {
+  candidates: { model: string; title: string; acceptableCount: number; cells: StoredCandidateCell[] }[];
 }
 
 /** Result of an addenda step: curves in J/K on the sample temperatures. */

@@ -15,13 +15,14 @@ import { DATA_FLAGS, describeWeighting, findColumn, loadHeatCapacity, readTable,
 import { checkParameterValues } from "../modelParams";
 import { fitHeatCapacity, type FitResult, type HeatCapacityFitResult } from "../../engine/fit";
 import { MODELS, debyeTemperatureFromBeta } from "../../engine/models";
-import { scanWindows, type ScanResult } from "../../engine/scan";
+import type { Recommendation } from "../../engine/scan";
+import { recommendationJson, recommendationText, recommendedModel, recommendedStart, runRecommendation } from "./fitScan";
 
 const FLAGS: Record<string, FlagSpec> = {
   model: { kind: "string", meta: "NAME|EXPR", help: `model name (${Object.keys(MODELS).join(", ")}) or a mathjs expression in T; default sommerfeld` },
   "t-min": { kind: "number", meta: "K", help: "lower window edge, inclusive" },
   "t-max": { kind: "number", meta: "K", help: "upper window edge, inclusive" },
-  scan: { kind: "boolean", help: "scan T_min × T_max windows, report the plateau and fit the recommended window" },
+  scan: { kind: "boolean", help: "recommend a model and window (candidates Sommerfeld, +T⁵, +A/T², +Schottky and --model), with statistical and systematic σ; fit them" },
   ...DATA_FLAGS,
   r: { kind: "number", meta: "N", help: "atoms per formula unit for Θ_D and lattice models (default: from --formula, else 1)" },
   fix: { kind: "assignments", meta: "p=v,...", help: "hold parameters fixed (display units, as printed: γ in mJ/(mol K²); SI for expressions)" },
@@ -90,9 +91,6 @@ function fitText(fit: HeatCapacityFitResult, data: LoadedHeatCapacity): string {
   return lines.join("\n");
 }
 
-function scanJson(s: ScanResult) {
-  return { reason: s.reason, recommended: s.recommended, plateauCells: s.plateau?.cells.length ?? 0, cells: s.cells.map((c) => ({ ...c, gamma: c.gamma === null ? null : c.gamma * 1e3, gammaStdError: c.gammaStdError === null ? null : c.gammaStdError * 1e3, beta: c.beta === null ? null : c.beta * 1e3, betaStdError: c.betaStdError === null ? null : c.betaStdError * 1e3 })), units: { gamma: "mJ/(mol*K^2)", beta: "mJ/(mol*K^4)", T: "K" } };
-}
 
 /** Run the command; see the module comment for exit codes. */
 export async function run(argv: string[], io: CliIo): Promise<number> {
@@ -110,29 +108,33 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
     if (r !== undefined && !(r > 0)) throw new InputError(`invalid --r: ${r} (atoms per formula unit, must be > 0)`, { field: "r" });
     let tMinK = getNumber(args, "t-min");
     let tMaxK = getNumber(args, "t-max");
-    let scan: ScanResult | null = null;
-    if (getBoolean(args, "scan")) {
-      if (typeof model !== "string") throw new InputError("--scan needs a registered model, not an expression", { field: "scan" });
-      const inRange = data.temperatureK.map((t, i) => i).filter((i) => (tMinK === undefined || data.temperatureK[i] >= tMinK) && (tMaxK === undefined || data.temperatureK[i] <= tMaxK));
-      const sub = (a: number[]) => inRange.map((i) => a[i]);
-      scan = scanWindows({ temperatureK: sub(data.temperatureK), heatCapacity: sub(data.heatCapacity), sigma: data.sigma ? sub(data.sigma) : undefined }, { model, r });
-      if (scan.recommended) [tMinK, tMaxK] = [scan.recommended.tMinK, scan.recommended.tMaxK];
-    }
+    let scan: Recommendation | null = null;
+    let fitModel = model;
     const toSi = (values: Record<string, number> | undefined, flag: string) => {
       if (!values || typeof model !== "string") return values;
       const si = fromDisplay(model, values);
       checkParameterValues(MODELS[model], si, flag);
       return si;
     };
-    const fit = fitHeatCapacity(data, { model, tMinK, tMaxK, r, fixed: toSi(getAssignments(args, "fix"), "fix"), start: toSi(getAssignments(args, "start"), "start"), scaleErrors: getBoolean(args, "scale-errors") });
+    if (getBoolean(args, "scan")) {
+      scan = runRecommendation(data, model, { tMinK, tMaxK }, r, toSi(getAssignments(args, "start"), "start"));
+      if (scan.recommended) [tMinK, tMaxK, fitModel] = [scan.window!.tMinK, scan.window!.tMaxK, recommendedModel(scan, model)];
+    }
+    // a recommended model other than --model gets no --fix/--start of --model: it starts where the recommendation ended
+    const own = fitModel === model;
+    const fit = fitHeatCapacity(data, { model: fitModel, tMinK, tMaxK, r, fixed: own ? toSi(getAssignments(args, "fix"), "fix") : undefined, start: own ? toSi(getAssignments(args, "start"), "start") : recommendedStart(scan!), scaleErrors: getBoolean(args, "scale-errors") });
     if (getBoolean(args, "json")) {
-      io.out(JSON.stringify({ file: args.positionals[0], columns: data.columns, weighting: { ...data.weighting, text: describeWeighting(data.weighting) }, basis: data.basis, model: fit.modelName, window: { tMinK: fit.window.tMinK, tMaxK: fit.window.tMaxK, nPoints: fit.window.nPoints }, parameters: displayParameters(fit), derived: thetaFromBeta(fit), statistics: { ...statistics(fit), residualStdDev: residualStdDev(fit) }, correlation: fit.correlation, warnings: fit.warnings, notes: data.notes, ...(scan ? { scan: scanJson(scan) } : {}) }));
+      io.out(JSON.stringify({ file: args.positionals[0], columns: data.columns, weighting: { ...data.weighting, text: describeWeighting(data.weighting) }, basis: data.basis, model: fit.modelName, window: { tMinK: fit.window.tMinK, tMaxK: fit.window.tMaxK, nPoints: fit.window.nPoints }, parameters: displayParameters(fit), derived: thetaFromBeta(fit), statistics: { ...statistics(fit), residualStdDev: residualStdDev(fit) }, correlation: fit.correlation, warnings: fit.warnings, notes: data.notes, ...(scan ? { scan: recommendationJson(scan, data.sigma !== undefined) } : {}) }));
     } else {
-      if (scan) io.out(`window scan: ${scan.cells.length} windows; ${scan.reason}`);
+      if (scan) io.out(recommendationText(scan));
       io.out(fitText(fit, data));
     }
     if (!fit.converged) {
       io.err(`heatbook fit: the fit failed: ${fit.message}`);
+      return 1;
+    }
+    if (scan && !scan.recommended) {
+      io.err(`heatbook fit: no recommendation: ${scan.reason}`);
       return 1;
     }
     return 0;

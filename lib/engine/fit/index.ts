@@ -7,6 +7,7 @@ export { buildFitResult, type FitResult, type FitParameter, type NamedMatrix } f
 export { fitHeatCapacity, registryCore, type HeatCapacityInput, type HeatCapacityFitOptions, type HeatCapacityFitResult, type FitWindow } from "./heatCapacity";
 export { heatCapacityWarnings, type WarningContext } from "./warnings";
 export { runsTest, type RunsTestResult } from "./runsTest";
+export { applyWeighting, describeQuality, type WeightingChoice, type AppliedWeighting } from "./weighting";
 export { fitGlobal, multiStartThetas, type GlobalSearch } from "./global";
 export { solveAmplitudes, projected, gridSearch, reducedFit, type SeparableProblem, type Candidate, type Axis } from "./separable";
 export { fitExpression, searchBudget, localFitLimit } from "./expressionFit";

@@ -55,8 +55,9 @@ export interface FitSummary {
   stepId: string;
   model: string;
   basis: Dataset["basis"];
-  gamma: { value: number; stdError: number | null } | null;
-  beta: { value: number; stdError: number | null } | null;
+  /** systematicError: from the model-and-window recommendation (scan/recommend.ts) when the fit is the recommended one. */
+  gamma: { value: number; stdError: number | null; systematicError?: number | null } | null;
+  beta: { value: number; stdError: number | null; systematicError?: number | null } | null;
   covGammaBeta: number | null;
   tMinK: number;
   tMaxK: number;

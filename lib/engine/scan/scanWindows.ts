@@ -133,15 +133,17 @@ function summarise(model: string, tMinGridK: number[], tMaxGridK: number[], cell
   const base = { model, tMinGridK: Object.freeze(tMinGridK), tMaxGridK: Object.freeze(tMaxGridK), cells: Object.freeze(cells) };
   if (!plateau) return Object.freeze({ ...base, plateau: null, recommended: null, reason: cells.length ? "no window gave a γ with a standard error" : "no window of the grid holds enough points" });
   const members = plateau.members.map((m) => usable[m].k);
+  const k4 = (v: number) => Number(v.toPrecision(4));
+  const g = (v: number) => (v * 1e3).toPrecision(4);
+  if (members.length < 2) {
+    // no fallback: the window with the smallest σ(γ) is the widest one, where a missing term biases γ most
+    return Object.freeze({ ...base, plateau: null, recommended: null, reason: "no two adjacent windows agree on γ within σ: γ depends on the window and no window is recommended (a term is likely missing from the model: the model-and-window recommendation tests candidates with an upturn or curvature term)" });
+  }
   const pick = (list: number[]) => list.reduce((a, b) => (cells[b].gammaStdError! < cells[a].gammaStdError! ? b : a));
   const clean = members.filter((k) => !cells[k].beyondT3Range);
   const best = pick(clean.length ? clean : members);
   const rec = cells[best];
-  const k4 = (v: number) => Number(v.toPrecision(4));
   const span = (f: (c: ScanCell) => number) => `${k4(Math.min(...members.map((k) => f(cells[k]))))}–${k4(Math.max(...members.map((k) => f(cells[k]))))} K`;
-  const g = (v: number) => (v * 1e3).toPrecision(4);
-  const reason = members.length > 1
-    ? `plateau of ${members.length} adjacent windows (T_min ${span((c) => c.tMinK)}, T_max ${span((c) => c.tMaxK)}) whose γ agree within their σ with the running mean γ̄ = ${g(plateau.mean)} mJ mol⁻¹ K⁻²; recommended the plateau window with the smallest σ(γ)${clean.length ? " inside the T³ range" : ""}: [${k4(rec.tMinK)}, ${k4(rec.tMaxK)}] K, ${rec.nPoints} points, γ = ${g(rec.gamma!)} ± ${g(rec.gammaStdError!)}`
-    : `no two adjacent windows agree on γ within σ: γ depends on the window; the window with the smallest σ(γ) is [${k4(rec.tMinK)}, ${k4(rec.tMaxK)}] K (treat with care)`;
+  const reason = `plateau of ${members.length} adjacent windows (T_min ${span((c) => c.tMinK)}, T_max ${span((c) => c.tMaxK)}) whose γ agree within their σ with the running mean γ̄ = ${g(plateau.mean)} mJ mol⁻¹ K⁻²; recommended the plateau window with the smallest σ(γ)${clean.length ? " inside the T³ range" : ""}: [${k4(rec.tMinK)}, ${k4(rec.tMaxK)}] K, ${rec.nPoints} points, γ = ${g(rec.gamma!)} ± ${g(rec.gammaStdError!)}`;
   return Object.freeze({ ...base, plateau: Object.freeze({ cells: Object.freeze(members), gammaMean: plateau.mean }), recommended: rec, reason });
 }

@@ -14,6 +14,18 @@ export interface Quantity {
   /** Unit of `value` and `stdError`, written out, e.g. "mJ mol^-1 K^-2". */
   readonly unit: string;
   readonly note?: string;
+  /** Systematic standard uncertainty in `unit` (e.g. the window and model dependence of a fit), when one was estimated. */
+  readonly systematicError?: number | null;
+}
+
+/**
+ * The quantity with a systematic standard uncertainty added: `relative` × |value| (the
+ * relative systematic uncertainty of what it was derived from). A non-finite or negative
+ * relative uncertainty leaves it without one.
+ */
+export function withSystematic(q: Quantity, relative: number | null): Quantity {
+  if (relative === null || !Number.isFinite(relative) || relative < 0) return q;
+  return Object.freeze({ ...q, systematicError: Math.abs(q.value) * relative });
 }
 
 /**

@@ -9,7 +9,7 @@
 import { NotFoundError } from "../../engine/errors";
 import { computeChain, parseStepConfig, type StepSpec } from "../../engine/notebook";
 import { findPlateau, quantileEdges, scanWindows, type ScanCell } from "../../engine/scan";
-import type { FitConfig } from "../../engine/notebook/steps/fit";
+import { weightingOf, type FitConfig } from "../../engine/notebook/steps/fit";
 import { getModel } from "../../engine/models/registry";
 import { loadContext } from "../notebook/context";
 import type { JobContext } from "./context";
@@ -40,7 +40,9 @@ async function fitInput(ctx: JobContext, p: WindowScanParams) {
   if (!data) throw new NotFoundError("data above the fit step");
   const config = parseStepConfig("fit", step.config) as FitConfig;
   const r = data.basis === "atom" ? 1 : chainCtx.sample.atomsPerFormulaUnit;
-  const input = { temperatureK: data.temperatureK, heatCapacity: data.heatCapacity, ...(config.weighting === "sigma" && data.sigma ? { sigma: data.sigma } : {}) };
+  // the step's own weighting (data σ, none, relative or absolute σ)
+  const sigma = weightingOf(config, data.heatCapacity, data.sigma).sigma;
+  const input = { temperatureK: data.temperatureK, heatCapacity: data.heatCapacity, ...(sigma ? { sigma } : {}) };
   return { input, options: { model: config.model === "expression" ? "sommerfeld" : config.model, r, fixed: Object.keys(config.fixed).length ? config.fixed : undefined } };
 }
 
@@ -69,6 +71,7 @@ export async function runWindowScan(ctx: JobContext, p: WindowScanParams): Promi
   const plateau = findPlateau(usable.map(({ c, k }) => ({ ...pos[k]!, value: c.gamma!, sigma: c.gammaStdError! })));
   const members = plateau ? plateau.members.map((m) => cells[usable[m]!.k]!) : [];
   const clean = members.filter((c) => !c.beyondT3Range);
-  const recommended = (clean.length ? clean : members).reduce<ScanCell | null>((a, b) => (a === null || b.gammaStdError! < a.gammaStdError! ? b : a), null);
+  // a "plateau" of one window is no plateau: no window is recommended then (never the narrowest-σ, i.e. widest, window by default)
+  const recommended = members.length < 2 ? null : (clean.length ? clean : members).reduce<ScanCell | null>((a, b) => (a === null || b.gammaStdError! < a.gammaStdError! ? b : a), null);
   return { model: options.model, gridSize: p.gridSize, cells, plateauCells: members.length, plateauGamma: plateau?.mean ?? null, recommended };
 }

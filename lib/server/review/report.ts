@@ -8,6 +8,7 @@
 import type { Db } from "../db/client";
 import { ConflictError, NotFoundError } from "../../engine/errors";
 import { cleanText, formatCount, formatNumber, formatQuantity, formatUnit, modelLabel, stepKindLabel, term } from "../../display";
+import { formatStatSyst } from "../../engine/scan/statSyst";
 import { authorise, type Member } from "../access";
 import { uuidOrNone } from "../samples";
 import type { RevisionSnapshot } from "./snapshot";
@@ -19,7 +20,7 @@ export const SAFETY_SENTENCE = "These results need expert review under local pra
  * words, `unit` typeset ("mJ mol⁻¹ K⁻²", "" when dimensionless), `compact` "value(σ) unit" by
  * the one display rule (lib/display/numbers.ts). `value`/`stdError` are in `unit`.
  */
-export interface ReportValue { name: string; symbol: string; label: string; value: number; stdError: number | null; unit: string; compact: string; note?: string }
+export interface ReportValue { name: string; symbol: string; label: string; value: number; stdError: number | null; unit: string; compact: string; note?: string; systematicError?: number | null }
 
 export interface RevisionReport {
   title: string;
@@ -86,10 +87,13 @@ export function describeCorrection(kind: string, config: Record<string, any>, re
   return stepKindLabel(kind);
 }
 
-function derivedValue(q: { name: string; symbol: string; value: number; stdError: number | null; unit: string; note?: string }): ReportValue {
+function derivedValue(q: { name: string; symbol: string; value: number; stdError: number | null; unit: string; note?: string; systematicError?: number | null }): ReportValue {
   const t = term(q.name);
   const unit = formatUnit(q.unit);
-  return { name: q.name, symbol: t.symbol ?? q.symbol, label: t.label, value: q.value, stdError: q.stdError, unit, compact: formatQuantity(q.value, q.stdError, q.unit), ...(q.note ? { note: cleanText(q.note) } : {}) };
+  // a systematic σ (from a recommended fit) is written value(stat)(syst)
+  const sys = typeof q.systematicError === "number" ? q.systematicError : null;
+  const compact = sys === null ? formatQuantity(q.value, q.stdError, q.unit) : `${formatStatSyst(q.value, q.stdError, sys)}${unit ? ` ${unit}` : ""} (stat)(syst)`;
+  return { name: q.name, symbol: t.symbol ?? q.symbol, label: t.label, value: q.value, stdError: q.stdError, unit, compact, ...(q.note ? { note: cleanText(q.note) } : {}), ...(sys !== null ? { systematicError: sys } : {}) };
 }
 
 /** The report object from a sealed snapshot and the names of the people involved. Pure. */

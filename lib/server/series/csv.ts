@@ -1,6 +1,7 @@
 /**
  * The series table as CSV through the safe writer (lib/engine/csv): one row per table row,
- * every value with its standard error, units in the headers, the revision each value came from.
+ * every value with its standard error, units in the headers, the revision each value came from;
+ * γ and β also with their systematic σ (empty unless the fit came from a recommendation).
  */
 import { writeCsv, type CsvCell, type CsvColumn } from "../../engine/csv";
 import { QUANTITY_UNITS, type SeriesView } from "./view";
@@ -21,12 +22,14 @@ export function seriesCsv(view: SeriesView): string {
     { name: "sample" }, { name: "formula" }, { name: view.series.compositionVariable }, { name: "e/a" },
     ...VALUES.flatMap((q) => [unitColumn(plainSymbolOf(q), QUANTITY_UNITS[q]), unitColumn(`σ(${plainSymbolOf(q)})`, QUANTITY_UNITS[q])]),
     unitColumn(plainSymbolOf("gammaFree"), QUANTITY_UNITS.gammaFree),
+    unitColumn(`systematic σ(${plainSymbolOf("gamma")})`, QUANTITY_UNITS.gamma), unitColumn(`systematic σ(${plainSymbolOf("beta")})`, QUANTITY_UNITS.beta),
     { name: "status" }, { name: "analysis id" }, { name: "revision" }, { name: "revision id" }, { name: "content hash" },
   ];
   const rows: CsvCell[][] = view.rows.map((r) => [
     r.sample.label, r.sample.formula, r.x, r.electronsPerAtom,
     ...VALUES.flatMap((q) => { const v = r[q] as Valued | null; return [v?.value ?? null, v?.stdError ?? null]; }),
     r.gammaFree,
+    r.gamma?.systematicError ?? null, r.beta?.systematicError ?? null,
     r.revision ? (r.draft ? `draft (${r.revision.state})` : r.revision.state) : "no analysis",
     r.revision?.analysisId ?? null, r.revision?.revisionNumber ?? null, r.revision?.revisionId ?? null, r.revision?.contentHash ?? null,
   ]);

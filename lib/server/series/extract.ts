@@ -16,6 +16,8 @@ import { debyeTemperature, densityOfStates, MILLI_PER_UNIT } from "../../engine/
 export interface Valued {
   value: number;
   stdError: number | null;
+  /** Systematic σ (window and model dependence of the fit), when the fit came from a recommendation. */
+  systematicError?: number | null;
 }
 
 export interface RevisionValues {
@@ -46,7 +48,8 @@ const isObj = (v: unknown): v is Obj => typeof v === "object" && v !== null && !
 function valued(v: unknown, factor = 1): Valued | null {
   if (!isObj(v) || typeof v.value !== "number" || !Number.isFinite(v.value)) return null;
   const s = typeof v.stdError === "number" && Number.isFinite(v.stdError) ? v.stdError * factor : null;
-  return { value: v.value * factor, stdError: s };
+  const sys = typeof v.systematicError === "number" && Number.isFinite(v.systematicError) ? Math.abs(v.systematicError * factor) : null;
+  return sys === null ? { value: v.value * factor, stdError: s } : { value: v.value * factor, stdError: s, systematicError: sys };
 }
 
 function lastResult(steps: readonly StepLike[], kind: string): Obj | null {
@@ -102,8 +105,9 @@ function fromFit(out: RevisionValues, fit: Obj, r: number): void {
   const perFu = fitBasis(fit) === "atom" ? r : 1;
   const g = fitCoefficient(fit, "gamma");
   const b = fitCoefficient(fit, "beta");
-  out.gamma = g && { value: g.value * perFu, stdError: g.stdError === null ? null : g.stdError * perFu };
-  out.beta = b && { value: b.value * perFu, stdError: b.stdError === null ? null : b.stdError * perFu };
+  const perFormula = (v: Valued): Valued => ({ ...v, value: v.value * perFu, stdError: v.stdError === null ? null : v.stdError * perFu, ...(typeof v.systematicError === "number" ? { systematicError: v.systematicError * perFu } : {}) });
+  out.gamma = g && perFormula(g);
+  out.beta = b && perFormula(b);
   if (out.gamma) out.source = "fit";
   const si = (v: Valued) => ({ value: v.value / MILLI_PER_UNIT, stdError: v.stdError === null ? null : v.stdError / MILLI_PER_UNIT });
   if (out.beta && out.beta.value > 0 && !out.thetaD) out.thetaD = valued(debyeTemperature(si(out.beta), r));

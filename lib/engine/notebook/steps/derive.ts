@@ -9,6 +9,20 @@ import { parseFormula, electronsPerFormulaUnit } from "../../chemistry";
 import { InputError } from "../../errors";
 import type { ChainState, FitSummary } from "../types";
 import { StepFailure, type StepDefinition } from "./shared";
+import { withSystematic, type Quantity } from "../../uncertainty/quantity";
+
+/**
+ * The fit's systematic σ (from the model-and-window recommendation) carried to γ, β and what
+ * scales with them: D(E_F) and m* / m ∝ γ keep γ's relative systematic σ, Θ_D ∝ β^(−1/3) a third
+ * of β's. Quantities of a fit without a recommendation are returned unchanged.
+ */
+function carrySystematic(quantities: readonly Quantity[], fit: FitSummary): readonly Quantity[] {
+  const rel = (m: FitSummary["gamma"]) => (m && m.systematicError !== undefined && m.systematicError !== null && m.value !== 0 ? Math.abs(m.systematicError / m.value) : null);
+  const g = rel(fit.gamma), b = rel(fit.beta);
+  if (g === null && b === null) return quantities;
+  const byName: Record<string, number | null> = { gamma: g, beta: b, thetaD: b === null ? null : b / 3, dosEF: g, massRatio: g };
+  return quantities.map((q) => (Object.hasOwn(byName, q.name) ? withSystematic(q, byName[q.name]!) : q));
+}
 
 const measured = z.object({ value: z.number().finite(), stdError: z.number().finite().min(0).nullable().default(null) });
 
@@ -75,7 +89,7 @@ export const deriveStep: StepDefinition<DeriveConfig> = {
       const warnings = [...result.warnings];
       if (!density) warnings.push("no density on the sample: the free-electron comparison (γ_free, m* / m) is left out");
       return {
-        result: { fitStepId: fit.stepId, fitModel: fit.model, fitWindow: { tMinK: fit.tMinK, tMaxK: fit.tMaxK }, fieldT: fit.fieldT, basis: result.basis, quantities: result.quantities, valences, densityGPerCm3: density },
+        result: { fitStepId: fit.stepId, fitModel: fit.model, fitWindow: { tMinK: fit.tMinK, tMaxK: fit.tMaxK }, fieldT: fit.fieldT, basis: result.basis, quantities: carrySystematic(result.quantities, fit), valences, densityGPerCm3: density },
         warnings,
         state,
       };
