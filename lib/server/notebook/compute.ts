@@ -1,8 +1,11 @@
 /**
  * Computing a revision's steps on the server: hash each step's inputs; when every stored
- * output matches its hash, nothing is computed; otherwise the chain is computed (it is cheap:
- * milliseconds for thousands of points) and the outputs that changed are written back —
- * only for editable revisions (sealed ones are immutable and were fresh when sealed).
+ * output matches its hash, nothing is computed; otherwise the chain is computed in the worker
+ * pool (lib/server/compute: never on the request thread, each task within a time budget; a step
+ * stopped at the budget is stored as the failure "stopped after N s: time budget" and kept in
+ * ComputeStop by its input hash, so it is not run again) and the outputs that changed are
+ * written back — only for editable revisions (sealed ones are immutable and were fresh when
+ * sealed). Two requests that need the same computation share it.
  *
  * Stored outputs are read only when needed and kept per process by (step id, stored input
  * hash): a step's output and its input hash are always written together, and the hash names
@@ -13,9 +16,10 @@
  */
 import { sqlRows, type Db } from "../db/client";
 import { ENGINE_VERSION } from "../../engine/version";
-import { computeChainFrom, EMPTY_STATE, type ChainState, type StepOutput, type StepSpec, type ChainContext, type ChainMeasurement, type ChainSample } from "../../engine/notebook";
+import { EMPTY_STATE, type ChainState, type StepOutput, type StepSpec, type ChainContext, type ChainMeasurement, type ChainSample } from "../../engine/notebook";
 import { inputHashes, loadMeasurements, loadSample, referencedMeasurements } from "./context";
 import type { StepRow } from "./read";
+import { computeChainBounded, defaultBudgetMs, knownStops, recordStops } from "../compute";
 
 export type StoredOutput = Omit<StepOutput, "state">;
 
@@ -152,6 +156,27 @@ async function writeOutputs(db: Db, rows: { id: string; version: number; output:
   ]);
 }
 
+/** Computations under way in this process, by revision, input hashes and budget. */
+const inflight = new Map<string, Promise<{ from: number; outputs: StoredOutput[]; context: ChainContext }>>();
+
+/** Compute the stale part of a chain in the pool and write the outputs that changed. */
+async function recompute(db: Db, groupId: string, rows: readonly StepRow[], specs: readonly StepSpec[], context: ChainContext, hashes: readonly string[], stale: readonly boolean[], now: Date, budgetMs: number) {
+  const { from, state } = resumePoint(stale, hashes);
+  // Point arrays only for the measurements the steps to compute read (none for a refit).
+  const needed = referencedMeasurements(specs.slice(from));
+  if (needed.length) context = { ...context, measurements: { ...context.measurements, ...(await loadMeasurements(db, groupId, needed)) } };
+  const skip = await knownStops(db, specs, hashes, from, budgetMs);
+  const { outputs: fresh, stopped } = await computeChainBounded(specs, context, from, state, { budgetMs, skip });
+  fresh.forEach((o, k) => rememberState(hashes[from + k]!, o.state));
+  // Each new output as its JSON text reads back: the same value whether computed or stored.
+  const outputs = fresh.map((o) => fromText(JSON.stringify(strip(o))));
+  await recordStops(db, stopped.map((i) => ({ inputHash: hashes[i]!, kind: specs[i]!.kind })), budgetMs);
+  // Every stale step is at or below `from` (resumePoint stops at the first stale one).
+  await writeOutputs(db, rows.flatMap((r, i) => (stale[i] ? [{ id: r.id, version: r.version, output: outputs[i - from]!, inputHash: hashes[i]! }] : [])), now);
+  rows.forEach((r, i) => { if (i >= from) rememberOutput(outputKey(r.id, hashes[i]!), outputs[i - from]!); });
+  return { from, outputs, context };
+}
+
 export interface ComputeResult {
   steps: StepView[];
   context: ChainContext;
@@ -167,6 +192,7 @@ export interface ComputeResult {
 export async function computeRevisionSteps(
   db: Db, groupId: string, sampleId: string, revisionId: string, mode: "edit" | "frozen",
   preloaded?: { steps: StepRow[]; sample: ChainSample; measurements: Record<string, ChainMeasurement> },
+  opts: { budgetMs?: number } = {},
 ): Promise<ComputeResult> {
   const t0 = performance.now();
   const rows: StepRow[] = preloaded?.steps ?? (await db.step.findMany({ where: { revisionId }, orderBy: { position: "asc" }, select: STEP_META }));
@@ -188,16 +214,15 @@ export async function computeRevisionSteps(
   const computed = mode === "edit" && stale.some(Boolean);
   const now = new Date();
   if (computed) {
-    const { from, state } = resumePoint(stale, hashes);
-    // Point arrays only for the measurements the steps to compute read (none for a refit).
-    const needed = referencedMeasurements(specs.slice(from));
-    if (needed.length) context = { ...context, measurements: { ...context.measurements, ...(await loadMeasurements(db, groupId, needed)) } };
-    const fresh = computeChainFrom(specs, context, from, state);
-    fresh.forEach((o, k) => rememberState(hashes[from + k]!, o.state));
-    // Each new output as its JSON text reads back: the same value whether computed or stored.
-    outputs = [...outputs.slice(0, from), ...fresh.map((o) => fromText(JSON.stringify(strip(o))))];
-    await writeOutputs(db, rows.flatMap((r, i) => (stale[i] ? [{ id: r.id, version: r.version, output: outputs[i]!, inputHash: hashes[i]! }] : [])), now);
-    rows.forEach((r, i) => { if (i >= from) rememberOutput(outputKey(r.id, hashes[i]!), outputs[i]!); });
+    const key = `${revisionId} ${hashes.join(" ")} ${opts.budgetMs ?? ""}`;
+    let shared = inflight.get(key);
+    if (!shared) {
+      shared = recompute(db, groupId, rows, specs, context, hashes, stale, now, opts.budgetMs ?? defaultBudgetMs()).finally(() => inflight.delete(key));
+      inflight.set(key, shared);
+    }
+    const done = await shared;
+    context = done.context;
+    outputs = [...outputs.slice(0, done.from), ...done.outputs];
   }
   const steps = rows.map((r, i): StepView => {
     const recomputed = computed && stale[i];
