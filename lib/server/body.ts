@@ -16,9 +16,13 @@ export const MAX_JSON_DEPTH = 64;
 const mib = (n: number) => `${Math.round((n / 1024 / 1024) * 100) / 100} MiB`;
 const sizeText = (n: number) => (n >= 1024 * 1024 ? mib(n) : `${Math.round(n / 1024)} KiB`);
 
-/** The body's bytes, refusing (413) as soon as more than `maxBytes` arrived. */
-export async function readBodyLimited(req: Request, maxBytes: number, what = "request body", field?: string): Promise<Uint8Array> {
-  const tooLarge = () => new PayloadTooLargeError(`the ${what} is larger than ${sizeText(maxBytes)}`, field);
+/**
+ * The body's bytes, refusing (413) as soon as more than `maxBytes` arrived. The message names
+ * `what` and `shownBytes` (default `maxBytes`; e.g. the file limit when `maxBytes` adds room for a
+ * multipart form's framing).
+ */
+export async function readBodyLimited(req: Request, maxBytes: number, what = "request body", field?: string, shownBytes = maxBytes): Promise<Uint8Array> {
+  const tooLarge = () => new PayloadTooLargeError(`the ${what} is larger than ${sizeText(shownBytes)}`, field);
   const declared = req.headers.get("content-length");
   if (declared !== null && Number(declared) > maxBytes) throw tooLarge();
   if (!req.body) return new Uint8Array(0);

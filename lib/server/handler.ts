@@ -96,7 +96,7 @@ export interface UploadedForm {
  * options JSON and the file name get the JSON body's checks (depth, no NUL or bidi controls).
  */
 export async function readUpload(req: Request): Promise<UploadedForm> {
-  const bytes = await readBodyLimited(req, MAX_UPLOAD_BYTES + 64 * 1024, "upload", "file");
+  const bytes = await readBodyLimited(req, MAX_UPLOAD_BYTES + 64 * 1024, "upload", "file", MAX_UPLOAD_BYTES);
   let form: FormData;
   try {
     form = await new Response(bytes as Uint8Array<ArrayBuffer>, { headers: { "content-type": req.headers.get("content-type") ?? "" } }).formData();
