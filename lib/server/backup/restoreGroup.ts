@@ -29,10 +29,10 @@ interface Parsed {
 
 /**
  * Largest decompressed archive read (bytes): decompression stops there, so a small file that
- * inflates without end (a "gzip bomb") is refused instead of filling memory. 512 MiB is about the
- * longest string JavaScript can hold.
+ * inflates without end (a "gzip bomb") is refused instead of filling memory. 500 MiB stays below the
+ * longest string JavaScript can hold (2²⁹ − 24 characters).
  */
-export const MAX_ARCHIVE_BYTES = 512 * 1024 * 1024;
+export const MAX_ARCHIVE_BYTES = 500 * 1024 * 1024;
 
 /** Parse and check an archive; InputError naming the line on anything malformed. */
 export function readArchive(archive: Uint8Array, maxBytes = MAX_ARCHIVE_BYTES): Parsed {
