@@ -10,7 +10,7 @@ import { freshDatabase, type TestDatabase } from "../helpers/db";
 import { makeGroup, type GroupFixture } from "./fixtures";
 import { createSample } from "../../lib/server/samples";
 import { importMeasurement } from "../../lib/server/measurements";
-import { createAnalysis, openNotebook } from "../../lib/server/notebook";
+import { createAnalysis, openNotebook, computeRevisionSteps } from "../../lib/server/notebook";
 import { computePool, ComputePool, budgetFailureText } from "../../lib/server/compute";
 import { EMPTY_STATE } from "../../lib/engine/notebook";
 
@@ -56,7 +56,8 @@ afterAll(async () => {
   await t.drop();
 });
 
-describe("compute pool", () => {
+// First opens start the pool's workers (1–5 s each on a busy machine) before a 1.5 s budget runs.
+describe("compute pool", { timeout: 90_000 }, () => {
   it("openNotebook stops a fit step over its time budget, reports 'time budget' on it and still computes the steps above and below", async () => {
     const id = await analysisWithSlowFit(60_000);
     const stopsBefore = computePool().stops;
@@ -113,6 +114,24 @@ describe("compute pool", () => {
     // The event loop kept running while the worker slept (a blocked thread would not tick at all).
     expect(ticks).toBeGreaterThan(5);
     expect(nb.steps.find((s) => s.kind === "fit")!.output!.ok).toBe(true);
+  });
+
+  it("computeRevisionSteps with a wait shorter than the computation answers 'computing', then tells when the outputs are written", async () => {
+    const id = await analysisWithSlowFit(1500);
+    const a = await t.db.analysis.findUniqueOrThrow({ where: { id }, include: { revisions: true } });
+    const progress: number[] = [];
+    let done!: () => void;
+    const ended = new Promise<void>((ok) => { done = ok; });
+    const r = await computeRevisionSteps(t.db, g.groupId, a.sampleId, a.revisions[0]!.id, "edit", undefined, { waitMs: 200, budgetMs: 20_000, whenDone: () => done(), onProgress: (p) => progress.push(p.position) });
+    expect(r.computing).toBe(true);
+    const fit = r.steps.find((s) => s.kind === "fit")!;
+    expect(fit).toMatchObject({ fresh: false, output: null });
+    expect(r.steps.find((s) => s.kind === "data")!.fresh).toBe(true);
+    await ended;
+    expect(progress).toContain(fit.position);
+    const nb = await openNotebook(t.db, g.members.analyst, id);
+    expect(nb.computing).toBe(false);
+    expect(nb.steps.find((s) => s.kind === "fit")).toMatchObject({ fresh: true, output: { ok: true } });
   });
 
   it("ComputePool.run resolves a task within budget with every step's output and no stop", async () => {

@@ -94,6 +94,11 @@ export class ComputePool {
     });
   }
 
+  /** Start every worker now (each loads the engine, ~1–5 s), so the first computation does not wait for it. */
+  warm(): void {
+    while (this.slots.length < this.size) this.spawn();
+  }
+
   /** Stop every worker (tests; a server process just exits). */
   async close(): Promise<void> {
     const slots = this.slots.splice(0);

@@ -160,13 +160,15 @@ async function writeOutputs(db: Db, rows: { id: string; version: number; output:
 const inflight = new Map<string, Promise<{ from: number; outputs: StoredOutput[]; context: ChainContext }>>();
 
 /** Compute the stale part of a chain in the pool and write the outputs that changed. */
-async function recompute(db: Db, groupId: string, rows: readonly StepRow[], specs: readonly StepSpec[], context: ChainContext, hashes: readonly string[], stale: readonly boolean[], now: Date, budgetMs: number) {
+async function recompute(db: Db, groupId: string, rows: readonly StepRow[], specs: readonly StepSpec[], context: ChainContext, hashes: readonly string[], stale: readonly boolean[], now: Date, budgetMs: number, onProgress?: ComputeOptions["onProgress"]) {
   const { from, state } = resumePoint(stale, hashes);
   // Point arrays only for the measurements the steps to compute read (none for a refit).
   const needed = referencedMeasurements(specs.slice(from));
   if (needed.length) context = { ...context, measurements: { ...context.measurements, ...(await loadMeasurements(db, groupId, needed)) } };
   const skip = await knownStops(db, specs, hashes, from, budgetMs);
-  const { outputs: fresh, stopped } = await computeChainBounded(specs, context, from, state, { budgetMs, skip });
+  const started = performance.now();
+  const onStart = onProgress && ((i: number) => onProgress({ stepId: rows[i]!.id, position: i, runningMs: performance.now() - started }));
+  const { outputs: fresh, stopped } = await computeChainBounded(specs, context, from, state, { budgetMs, skip, onStart });
   fresh.forEach((o, k) => rememberState(hashes[from + k]!, o.state));
   // Each new output as its JSON text reads back: the same value whether computed or stored.
   const outputs = fresh.map((o) => fromText(JSON.stringify(strip(o))));
@@ -181,7 +183,28 @@ export interface ComputeResult {
   steps: StepView[];
   context: ChainContext;
   computed: boolean;
+  /** True when the answer came before the computation ended (waitMs): stale steps have no output yet. */
+  computing?: boolean;
   millis: number;
+}
+
+export interface ComputeOptions {
+  /** Time budget of each task in the pool (default HEATBOOK_COMPUTE_BUDGET_MS). */
+  budgetMs?: number;
+  /** Answer after this long even if the computation goes on (then `computing` is set); default: wait for it. */
+  waitMs?: number;
+  /** Called when a computation answered as `computing` has ended (its outputs are written). */
+  whenDone?: () => void;
+  /** Told as the worker starts each step (shared computations tell only the first caller). */
+  onProgress?: (p: { stepId: string; position: number; runningMs: number }) => void;
+}
+
+/** How long a page request waits for its notebook's computation before it answers "computing" (HEATBOOK_COMPUTE_WAIT_MS). */
+export function defaultWaitMs(): number {
+  const raw = process.env.HEATBOOK_COMPUTE_WAIT_MS;
+  const n = raw === undefined || raw === "" ? 15_000 : Number(raw);
+  if (!Number.isInteger(n) || n < 0) throw new Error(`invalid HEATBOOK_COMPUTE_WAIT_MS: ${JSON.stringify(raw)} (milliseconds, a whole number)`);
+  return n;
 }
 
 /**
@@ -192,7 +215,7 @@ export interface ComputeResult {
 export async function computeRevisionSteps(
   db: Db, groupId: string, sampleId: string, revisionId: string, mode: "edit" | "frozen",
   preloaded?: { steps: StepRow[]; sample: ChainSample; measurements: Record<string, ChainMeasurement> },
-  opts: { budgetMs?: number } = {},
+  opts: ComputeOptions = {},
 ): Promise<ComputeResult> {
   const t0 = performance.now();
   const rows: StepRow[] = preloaded?.steps ?? (await db.step.findMany({ where: { revisionId }, orderBy: { position: "asc" }, select: STEP_META }));
@@ -217,10 +240,19 @@ export async function computeRevisionSteps(
     const key = `${revisionId} ${hashes.join(" ")} ${opts.budgetMs ?? ""}`;
     let shared = inflight.get(key);
     if (!shared) {
-      shared = recompute(db, groupId, rows, specs, context, hashes, stale, now, opts.budgetMs ?? defaultBudgetMs()).finally(() => inflight.delete(key));
+      shared = recompute(db, groupId, rows, specs, context, hashes, stale, now, opts.budgetMs ?? defaultBudgetMs(), opts.onProgress).finally(() => inflight.delete(key));
       inflight.set(key, shared);
     }
-    const done = await shared;
+    const done = opts.waitMs === undefined ? await shared : await Promise.race([shared, new Promise<null>((ok) => setTimeout(() => ok(null), opts.waitMs).unref())]);
+    if (done === null) {
+      // Still computing: answer with what is stored (the stale steps say so) and tell the caller when it is done.
+      shared.then(() => opts.whenDone?.(), () => opts.whenDone?.());
+      const steps = rows.map((r, i): StepView => ({
+        id: r.id, position: r.position, kind: r.kind, title: r.title, config: r.config, version: r.version, output: stale[i] ? null : (outputs[i] ?? null),
+        inputHash: hashes[i]!, fresh: !stale[i], engineVersion: r.engineVersion, computedAt: r.computedAt?.toISOString() ?? null, updatedAt: r.updatedAt.toISOString(),
+      }));
+      return { steps, context, computed: false, computing: true, millis: performance.now() - t0 };
+    }
     context = done.context;
     outputs = [...outputs.slice(0, done.from), ...done.outputs];
   }
