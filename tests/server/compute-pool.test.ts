@@ -11,7 +11,7 @@ import { makeGroup, type GroupFixture } from "./fixtures";
 import { createSample } from "../../lib/server/samples";
 import { importMeasurement } from "../../lib/server/measurements";
 import { createAnalysis, openNotebook, computeRevisionSteps } from "../../lib/server/notebook";
-import { computePool, ComputePool, budgetFailureText } from "../../lib/server/compute";
+import { computePool, ComputePool, budgetFailureText, isBudgetFailure, memoryFailureText } from "../../lib/server/compute";
 import { EMPTY_STATE } from "../../lib/engine/notebook";
 
 process.env.HEATBOOK_TEST_HOOKS = "1";
@@ -75,7 +75,7 @@ describe("compute pool", { timeout: 90_000 }, () => {
     const fit = stored.find((s) => s.kind === "fit")!;
     expect(fit.output).toMatchObject({ ok: false, error: "stopped after 1.5 s: time budget" });
     const stop = await t.db.computeStop.findUnique({ where: { inputHash: fit.inputHash! } });
-    expect(stop).toMatchObject({ kind: "fit", budgetMs: 1500 });
+    expect(stop).toMatchObject({ kind: "fit", budgetMs: 1500, error: "stopped after 1.5 s: time budget" });
   });
 
   it("openNotebook after a budget stop runs the stopped step neither on the next open nor when its stored output is lost", async () => {
@@ -146,9 +146,30 @@ describe("compute pool", { timeout: 90_000 }, () => {
     }
   });
 
+  it("ComputePool.run stops a step that outgrows the worker's heap limit and replaces the worker", async () => {
+    process.env.HEATBOOK_COMPUTE_MEMORY_MB = "64";
+    const pool = new ComputePool(1);
+    delete process.env.HEATBOOK_COMPUTE_MEMORY_MB;
+    const sample = { id: "s", label: "s", formula: "Cu", molarMassGPerMol: 63.546, atomsPerFormulaUnit: 1, massMg: null, densityGPerCm3: null, valences: {} };
+    try {
+      const r = await pool.run({ steps: [{ id: "n1", kind: "note", config: { text: "a" } }, { id: "n2", kind: "note", config: { text: "b", __testAllocMb: 2000 } }], context: { sample, measurements: {} }, from: 0, state: EMPTY_STATE }, { budgetMs: 60_000 });
+      expect(r.stopped).toMatchObject({ index: 1, reason: "memory", memoryMb: 64 });
+      expect(r.outputs).toHaveLength(1);
+      // The pool still computes afterwards (a new worker).
+      const next = await pool.run({ steps: [{ id: "n3", kind: "note", config: { text: "c" } }], context: { sample, measurements: {} }, from: 0, state: EMPTY_STATE }, { budgetMs: 60_000 });
+      expect(next.stopped).toBeNull();
+    } finally {
+      await pool.close();
+    }
+  });
+
   it("budgetFailureText writes the budget in seconds without floating-point artefacts", () => {
     expect(budgetFailureText(5000)).toBe("stopped after 5 s: time budget");
     expect(budgetFailureText(2500)).toBe("stopped after 2.5 s: time budget");
     expect(budgetFailureText(300)).toBe("stopped after 0.3 s: time budget");
+    expect(memoryFailureText(1024)).toBe("stopped at 1024 MiB: memory limit");
+    expect(isBudgetFailure({ ok: false, error: budgetFailureText(2500) })).toBe(true);
+    expect(isBudgetFailure({ ok: false, error: memoryFailureText(64) })).toBe(true);
+    expect(isBudgetFailure({ ok: false, error: "stopped after the data step" })).toBe(false);
   });
 });

@@ -19,8 +19,13 @@ export function budgetFailure(kind: StepSpec["kind"], budgetMs: number): StoredS
   return { kind, ok: false, error: budgetFailureText(budgetMs), warnings: [], result: null };
 }
 
+/** "stopped at 1024 MiB: memory limit" (the worker's heap limit). */
+export function memoryFailureText(memoryMb: number): string {
+  return `stopped at ${memoryMb} MiB: memory limit`;
+}
+
 export function isBudgetFailure(o: { ok: boolean; error: string | null } | null | undefined): boolean {
-  return !!o && !o.ok && typeof o.error === "string" && o.error.startsWith("stopped after ") && o.error.endsWith(`: ${BUDGET_MARK}`);
+  return !!o && !o.ok && typeof o.error === "string" && /^stopped (after [\d.]+ s: time budget|at \d+ MiB: memory limit)$/.test(o.error);
 }
 
 export interface BoundedChainOptions {
@@ -51,7 +56,8 @@ export async function computeChainBounded(steps: readonly StepSpec[], context: C
     if (!r.stopped) break;
     const i = r.stopped.index;
     if (i >= steps.length) break; // stopped between the last step and its end message: all done
-    outputs.push({ ...budgetFailure(steps[i]!.kind, budgetMs), state: above });
+    const failure = r.stopped.reason === "memory" ? { ...budgetFailure(steps[i]!.kind, budgetMs), error: memoryFailureText(r.stopped.memoryMb) } : budgetFailure(steps[i]!.kind, budgetMs);
+    outputs.push({ ...failure, state: above });
     stopped.push(i);
     at = i + 1;
   }

@@ -16,10 +16,18 @@ const engine = await import(pathToFileURL(await ensureEngineBundle(workerData.ro
 const testHooks = workerData.testHooks === true;
 const pause = new Int32Array(new SharedArrayBuffer(4));
 
-/** Test hook (only with HEATBOOK_TEST_HOOKS=1): a step whose raw config has __testSlowMs blocks this thread that long. */
-function testSlowness(spec) {
-  const ms = testHooks && spec.config && typeof spec.config === "object" ? Number(spec.config.__testSlowMs) : 0;
+/**
+ * Test hooks (only with HEATBOOK_TEST_HOOKS=1), from a step's raw config: __testSlowMs blocks this
+ * thread that long; __testAllocMb keeps that many MiB of live objects (to reach the heap limit).
+ */
+function testHooksFor(spec) {
+  if (!testHooks || !spec.config || typeof spec.config !== "object") return;
+  const ms = Number(spec.config.__testSlowMs);
   if (ms > 0) Atomics.wait(pause, 0, 0, ms);
+  const mb = Number(spec.config.__testAllocMb);
+  const kept = [];
+  for (let i = 0; mb > 0 && i < mb; i++) kept.push(Array.from({ length: 131072 }, (_, k) => ({ k })));
+  return kept.length;
 }
 
 parentPort.on("message", (msg) => {
@@ -34,7 +42,7 @@ parentPort.on("message", (msg) => {
         continue;
       }
       parentPort.postMessage({ task, type: "start", index: i });
-      testSlowness(steps[i]);
+      testHooksFor(steps[i]);
       const output = engine.computeStep(steps[i], state, context);
       parentPort.postMessage({ task, type: "step", index: i, output });
       state = output.state;

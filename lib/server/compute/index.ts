@@ -6,5 +6,5 @@
  *   knownStops / recordStops                       budget stops kept by input hash
  */
 export { computePool, ComputePool, defaultBudgetMs, defaultThreads, type ChainTask, type ChainTaskResult } from "./pool";
-export { computeChainBounded, budgetFailureText, isBudgetFailure, type BoundedChainResult } from "./chain";
+export { computeChainBounded, budgetFailureText, memoryFailureText, isBudgetFailure, type BoundedChainResult } from "./chain";
 export { knownStops, recordStops } from "./stops";

@@ -8,6 +8,7 @@
  * Settings (read when the pool starts):
  *   HEATBOOK_COMPUTE_THREADS    worker threads (default: available cores − 1, at least 2, so one runaway task does not hold up every other recompute)
  *   HEATBOOK_COMPUTE_BUDGET_MS  default time budget of a task (default 5000)
+ *   HEATBOOK_COMPUTE_MEMORY_MB  heap limit of each worker (default 1024); a task over it is stopped too
  *   HEATBOOK_ROOT               folder holding lib/ (default: the working directory)
  *   HEATBOOK_TEST_HOOKS=1       honours the tests' `__testSlowMs` in a raw step config
  *
@@ -36,8 +37,8 @@ export interface ChainTask {
 export interface ChainTaskResult {
   /** Outputs of steps from, from+1, … in order (all of them unless stopped). */
   outputs: StepOutput[];
-  /** Set when the budget ran out: the step that was running, and the budget. */
-  stopped: { index: number; budgetMs: number } | null;
+  /** Set when the budget (time, or the worker's memory) ran out: the step that was running, and why. */
+  stopped: { index: number; budgetMs: number; reason: "time" | "memory"; memoryMb: number } | null;
 }
 
 export interface RunOptions {
@@ -70,6 +71,7 @@ const positiveInt = (name: string, fallback: number): number => {
 
 export const defaultThreads = (): number => positiveInt("HEATBOOK_COMPUTE_THREADS", Math.max(2, availableParallelism() - 1));
 export const defaultBudgetMs = (): number => positiveInt("HEATBOOK_COMPUTE_BUDGET_MS", 5000);
+export const workerMemoryMb = (): number => positiveInt("HEATBOOK_COMPUTE_MEMORY_MB", 1024);
 
 export class ComputePool {
   private readonly slots: Slot[] = [];
@@ -77,6 +79,7 @@ export class ComputePool {
   private nextId = 1;
   private readonly entry: string;
   private readonly root: string;
+  private readonly memoryMb = workerMemoryMb();
   /** Times a worker was terminated at its budget (for tests and the health of the pool). */
   stops = 0;
 
@@ -106,7 +109,7 @@ export class ComputePool {
   }
 
   private spawn(): Slot {
-    const worker = new Worker(this.entry, { workerData: { root: this.root, testHooks: process.env.HEATBOOK_TEST_HOOKS === "1" } });
+    const worker = new Worker(this.entry, { workerData: { root: this.root, testHooks: process.env.HEATBOOK_TEST_HOOKS === "1" }, resourceLimits: { maxOldGenerationSizeMb: this.memoryMb } });
     const slot: Slot = { worker, ready: false, job: null };
     worker.unref();
     worker.on("message", (m: WorkerMessage) => this.onMessage(slot, m));
@@ -168,7 +171,7 @@ export class ComputePool {
     this.stops++;
     this.remove(slot);
     void slot.worker.terminate();
-    job.resolve({ outputs: job.outputs, stopped: { index: job.current, budgetMs: job.budgetMs } });
+    job.resolve({ outputs: job.outputs, stopped: { index: job.current, budgetMs: job.budgetMs, reason: "time", memoryMb: this.memoryMb } });
     this.dispatch();
   }
 
@@ -178,7 +181,11 @@ export class ComputePool {
     this.remove(slot);
     if (job) {
       clearTimeout(job.timer);
-      job.reject(new Error(`the compute worker failed: ${err.message}`));
+      // A step that outgrew the worker's heap is stopped like one over its time budget.
+      if ((err as { code?: string }).code === "ERR_WORKER_OUT_OF_MEMORY") {
+        this.stops++;
+        job.resolve({ outputs: job.outputs, stopped: { index: job.current, budgetMs: job.budgetMs, reason: "memory", memoryMb: this.memoryMb } });
+      } else job.reject(new Error(`the compute worker failed: ${err.message}`));
     }
     // A worker that cannot even start (its engine does not load) fails what waits, instead of respawning forever.
     if (!wasReady) for (const p of this.queue.splice(0)) p.reject(new Error(`the compute worker could not start: ${err.message}`));

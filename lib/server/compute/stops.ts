@@ -13,19 +13,19 @@ import type { StoredStepOutput } from "./pool";
 export async function knownStops(db: Db, specs: readonly StepSpec[], hashes: readonly string[], from: number, budgetMs: number): Promise<Record<number, StoredStepOutput>> {
   const wanted = hashes.slice(from);
   if (wanted.length === 0) return {};
-  const rows = await sqlRows<{ inputHash: string; budgetMs: number }>(db, `SELECT "inputHash", "budgetMs" FROM "ComputeStop" WHERE "inputHash" = ANY($1::text[]) AND "budgetMs" >= $2`, [wanted, budgetMs]);
+  const rows = await sqlRows<{ inputHash: string; budgetMs: number; error: string }>(db, `SELECT "inputHash", "budgetMs", "error" FROM "ComputeStop" WHERE "inputHash" = ANY($1::text[]) AND "budgetMs" >= $2`, [wanted, budgetMs]);
   const out: Record<number, StoredStepOutput> = {};
   for (const r of rows) {
     const i = hashes.indexOf(r.inputHash, from);
-    if (i >= 0) out[i] = budgetFailure(specs[i]!.kind, r.budgetMs);
+    if (i >= 0) out[i] = { ...budgetFailure(specs[i]!.kind, r.budgetMs), error: r.error };
   }
   return out;
 }
 
 /** Remember the steps stopped at `budgetMs` (the larger budget wins if one was recorded). */
-export async function recordStops(db: Db, stops: { inputHash: string; kind: string }[], budgetMs: number): Promise<void> {
+export async function recordStops(db: Db, stops: { inputHash: string; kind: string; error: string }[], budgetMs: number): Promise<void> {
   if (stops.length === 0) return;
-  await sqlRows(db, `INSERT INTO "ComputeStop" ("inputHash", "kind", "budgetMs") SELECT * FROM unnest($1::text[], $2::text[], $3::int[])
-    ON CONFLICT ("inputHash") DO UPDATE SET "budgetMs" = GREATEST("ComputeStop"."budgetMs", EXCLUDED."budgetMs"), "stoppedAt" = CURRENT_TIMESTAMP`,
-    [stops.map((s) => s.inputHash), stops.map((s) => s.kind), stops.map(() => budgetMs)]);
+  await sqlRows(db, `INSERT INTO "ComputeStop" ("inputHash", "kind", "budgetMs", "error") SELECT * FROM unnest($1::text[], $2::text[], $3::int[], $4::text[])
+    ON CONFLICT ("inputHash") DO UPDATE SET "budgetMs" = GREATEST("ComputeStop"."budgetMs", EXCLUDED."budgetMs"), "error" = EXCLUDED."error", "stoppedAt" = CURRENT_TIMESTAMP`,
+    [stops.map((s) => s.inputHash), stops.map((s) => s.kind), stops.map(() => budgetMs), stops.map((s) => s.error)]);
 }

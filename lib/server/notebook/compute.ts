@@ -172,7 +172,7 @@ async function recompute(db: Db, groupId: string, rows: readonly StepRow[], spec
   fresh.forEach((o, k) => rememberState(hashes[from + k]!, o.state));
   // Each new output as its JSON text reads back: the same value whether computed or stored.
   const outputs = fresh.map((o) => fromText(JSON.stringify(strip(o))));
-  await recordStops(db, stopped.map((i) => ({ inputHash: hashes[i]!, kind: specs[i]!.kind })), budgetMs);
+  await recordStops(db, stopped.map((i) => ({ inputHash: hashes[i]!, kind: specs[i]!.kind, error: fresh[i - from]!.error ?? "" })), budgetMs);
   // Every stale step is at or below `from` (resumePoint stops at the first stale one).
   await writeOutputs(db, rows.flatMap((r, i) => (stale[i] ? [{ id: r.id, version: r.version, output: outputs[i - from]!, inputHash: hashes[i]! }] : [])), now);
   rows.forEach((r, i) => { if (i >= from) rememberOutput(outputKey(r.id, hashes[i]!), outputs[i - from]!); });
