@@ -12,8 +12,8 @@ export const POST = route(async (req, { params }: Ctx) => {
   const { slug, id, threadId } = await params;
   const { db, member } = await inGroup(req, slug);
   authoriseAny(member, ["comment.write"]); // before the body: a role that may not write hears 403
-  await replyToThread(db, member, id, threadId, await jsonBody(req));
-  return NextResponse.json({ ok: true }, { status: 201 });
+  const { unmatchedMentions } = await replyToThread(db, member, id, threadId, await jsonBody(req));
+  return NextResponse.json({ ok: true, unmatchedMentions }, { status: 201 });
 });
 
 /** Resolve or reopen: {state: "resolved" | "open"}. */
