@@ -109,7 +109,9 @@ export class ComputePool {
   }
 
   private spawn(): Slot {
-    const worker = new Worker(this.entry, { workerData: { root: this.root, testHooks: process.env.HEATBOOK_TEST_HOOKS === "1" }, resourceLimits: { maxOldGenerationSizeMb: this.memoryMb } });
+    const worker = new Worker(this.entry, { workerData: { root: this.root, testHooks: process.env.HEATBOOK_TEST_HOOKS === "1" }, resourceLimits: { maxOldGenerationSizeMb: this.memoryMb },
+      // The entry is plain JavaScript: none of the parent's loader flags (e.g. a job process's --import tsx, which costs seconds per start).
+      execArgv: [] });
     const slot: Slot = { worker, ready: false, job: null };
     worker.unref();
     worker.on("message", (m: WorkerMessage) => this.onMessage(slot, m));
