@@ -19,7 +19,6 @@ import { closeJobPool, failAttempt, finishRun, jobPool, runById, setProgress, st
 import { runRefitSeries } from "./refitSeries";
 import { runWindowScan, type WindowScanParams } from "./windowScan";
 import type { JobContext } from "./context";
-import { computePool } from "../compute/pool";
 
 export interface WorkerOptions {
   url: string;
@@ -54,8 +53,6 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
   const db = createDb(opts.url, 4);
   const pool = jobPool(opts.url);
   const boss: PgBoss = await startBoss(opts.url, { supervise: true, maintenanceIntervalSeconds: opts.maintenanceIntervalSeconds });
-  // Refits compute in this process's worker-thread pool: start its threads now, not in the first job.
-  computePool().warm();
   const handle = (kind: JobKind) => async ([job]: PgBoss.JobWithMetadata<JobData>[]) => {
     const data = job!.data;
     const run = await runById(pool, data.jobId);

@@ -16,7 +16,7 @@
  */
 import { sqlRows, type Db } from "../db/client";
 import { ENGINE_VERSION } from "../../engine/version";
-import { EMPTY_STATE, type ChainState, type StepOutput, type StepSpec, type ChainContext, type ChainMeasurement, type ChainSample } from "../../engine/notebook";
+import { computeChainFrom, EMPTY_STATE, type ChainState, type StepOutput, type StepSpec, type ChainContext, type ChainMeasurement, type ChainSample } from "../../engine/notebook";
 import { inputHashes, loadMeasurements, loadSample, referencedMeasurements } from "./context";
 import type { StepRow } from "./read";
 import { computeChainBounded, defaultBudgetMs, knownStops, recordStops } from "../compute";
@@ -160,19 +160,21 @@ async function writeOutputs(db: Db, rows: { id: string; version: number; output:
 const inflight = new Map<string, Promise<{ from: number; outputs: StoredOutput[]; context: ChainContext }>>();
 
 /** Compute the stale part of a chain in the pool and write the outputs that changed. */
-async function recompute(db: Db, groupId: string, rows: readonly StepRow[], specs: readonly StepSpec[], context: ChainContext, hashes: readonly string[], stale: readonly boolean[], now: Date, budgetMs: number, onProgress?: ComputeOptions["onProgress"]) {
+async function recompute(db: Db, groupId: string, rows: readonly StepRow[], specs: readonly StepSpec[], context: ChainContext, hashes: readonly string[], stale: readonly boolean[], now: Date, budgetMs: number | null, onProgress?: ComputeOptions["onProgress"]) {
   const { from, state } = resumePoint(stale, hashes);
   // Point arrays only for the measurements the steps to compute read (none for a refit).
   const needed = referencedMeasurements(specs.slice(from));
   if (needed.length) context = { ...context, measurements: { ...context.measurements, ...(await loadMeasurements(db, groupId, needed)) } };
-  const skip = await knownStops(db, specs, hashes, from, budgetMs);
   const started = performance.now();
   const onStart = onProgress && ((i: number) => onProgress({ stepId: rows[i]!.id, position: i, runningMs: performance.now() - started }));
-  const { outputs: fresh, stopped } = await computeChainBounded(specs, context, from, state, { budgetMs, skip, onStart });
+  // budgetMs null: on this thread (job processes), else in the pool within the budget.
+  const { outputs: fresh, stopped } = budgetMs === null
+    ? { outputs: computeChainFrom(specs, context, from, state), stopped: [] as number[] }
+    : await computeChainBounded(specs, context, from, state, { budgetMs, skip: await knownStops(db, specs, hashes, from, budgetMs), onStart });
   fresh.forEach((o, k) => rememberState(hashes[from + k]!, o.state));
   // Each new output as its JSON text reads back: the same value whether computed or stored.
   const outputs = fresh.map((o) => fromText(JSON.stringify(strip(o))));
-  await recordStops(db, stopped.map((i) => ({ inputHash: hashes[i]!, kind: specs[i]!.kind, error: fresh[i - from]!.error ?? "" })), budgetMs);
+  if (budgetMs !== null) await recordStops(db, stopped.map((i) => ({ inputHash: hashes[i]!, kind: specs[i]!.kind, error: fresh[i - from]!.error ?? "" })), budgetMs);
   // Every stale step is at or below `from` (resumePoint stops at the first stale one).
   await writeOutputs(db, rows.flatMap((r, i) => (stale[i] ? [{ id: r.id, version: r.version, output: outputs[i - from]!, inputHash: hashes[i]! }] : [])), now);
   rows.forEach((r, i) => { if (i >= from) rememberOutput(outputKey(r.id, hashes[i]!), outputs[i - from]!); });
@@ -195,6 +197,11 @@ export interface ComputeOptions {
   waitMs?: number;
   /** Called when a computation answered as `computing` has ended (its outputs are written). */
   whenDone?: () => void;
+  /**
+   * Compute on this thread, without the pool or a budget: for background-job processes, which
+   * serve no requests and have their own time limit (the job's expiry).
+   */
+  inThread?: boolean;
   /** Told as the worker starts each step (shared computations tell only the first caller). */
   onProgress?: (p: { stepId: string; position: number; runningMs: number }) => void;
 }
@@ -240,7 +247,7 @@ export async function computeRevisionSteps(
     const key = `${revisionId} ${hashes.join(" ")} ${opts.budgetMs ?? ""}`;
     let shared = inflight.get(key);
     if (!shared) {
-      shared = recompute(db, groupId, rows, specs, context, hashes, stale, now, opts.budgetMs ?? defaultBudgetMs(), opts.onProgress).finally(() => inflight.delete(key));
+      shared = recompute(db, groupId, rows, specs, context, hashes, stale, now, opts.inThread ? null : (opts.budgetMs ?? defaultBudgetMs()), opts.onProgress).finally(() => inflight.delete(key));
       inflight.set(key, shared);
     }
     const done = opts.waitMs === undefined ? await shared : await Promise.race([shared, new Promise<null>((ok) => setTimeout(() => ok(null), opts.waitMs).unref())]);
