@@ -13,6 +13,8 @@ export default defineConfig({
     // tests/ops need built servers of their own: `npm run test:ops` (vitest.ops.config.ts).
     exclude: ["**/node_modules/**", "tests/ops/**", "tests/**/*.ops.test.ts"],
     globalSetup: ["tests/helpers/globalSetup.ts"],
+    // Notebook opens wait for their computation (a test that wants "computing" passes waitMs).
+    env: { HEATBOOK_COMPUTE_WAIT_MS: "120000" },
     testTimeout: 30_000,
     hookTimeout: 60_000,
     pool: "forks",

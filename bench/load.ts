@@ -15,6 +15,9 @@
  * CPU time per request and the machine's idle and steal shares over the run (from /proc,
  * Linux only), so a slow run can be told apart: a saturated server, or a busy or stolen
  * machine. A closing table states each of the issue's targets as met or not met.
+ * Then the heavy-work scenario (bench/heavyLoad.ts): 32 notebook readers alone and beside one
+ * client recomputing a heavy fit step in a loop, p99 side by side (target: within 2×).
+ * `--only heavy` runs just that scenario.
  * Needs a build (`npx next build`) in HEATBOOK_BENCH_APP_DIR (default this checkout); starts
  * its own embedded PostgreSQL. HEATBOOK_BENCH_SERVER_LOG=FILE keeps the server's output
  * (its log and GC traces) in FILE.
@@ -27,6 +30,7 @@ import { opsDatabase, opsFixture, startApp, signIn, storeMeasurement } from "../
 import { fullChain, writeSteps } from "../tests/server/reviewFixtures";
 import { gcEvents, summariseGc, type GcSummary } from "./gcTrace";
 import { notebookQueries, queryLoop, sampleListQueries, type FloorIds, type LoopResult } from "./loadFloor";
+import { heavyAnalysis, heavyScenario, printHeavy } from "./heavyLoad";
 
 function option(name: string, fallback: number): number {
   const i = process.argv.indexOf(`--${name}`);
@@ -36,6 +40,7 @@ function option(name: string, fallback: number): number {
 }
 
 const SECONDS = option("seconds", 5);
+const ONLY_HEAVY = process.argv.includes("--only") && process.argv[process.argv.indexOf("--only") + 1] === "heavy";
 const ROUNDS = option("rounds", 3);
 const LEVELS = [8, 32, 128];
 const HEALTH = "health check (GET /api/health: no session, no database)";
@@ -129,6 +134,22 @@ async function main(): Promise<void> {
     { method: "GET", setupRequest: (req, ctx) => ({ ...req, path: `/api/groups/${f.slug}/analyses/${analyses[ctx.k as number]!.id}` }), onResponse: (_s, _b, ctx) => { free.push(ctx.k as number); ctx.held = false; } },
   ];
 
+  const heavy = await heavyAnalysis(d.db, writeSteps as never, f.analyst.group.id, f.sampleId, f.analyst.userId, measurementId);
+  const runHeavy = async () => {
+    // Warm-up: the readers' route and the pool's workers (their first start loads the engine).
+    await autocannon({ url: `${api}/analyses/${read.id}`, connections: 32, headers, duration: Math.max(5, SECONDS) });
+    await fetch(`${api}/analyses/${heavy.id}`, { headers });
+    return heavyScenario({ base: app.base, slug: f.slug, cookie, readId: read.id, heavy, rounds: ROUNDS, seconds: SECONDS });
+  };
+  if (ONLY_HEAVY) {
+    const h = await runHeavy();
+    await app.kill("SIGTERM");
+    await d.close();
+    console.log(`Heatbook load benchmark, heavy-work scenario only — ${new Date().toISOString().slice(0, 16)}Z, Node ${process.version}, ${cpus().length} × ${cpus()[0]?.model ?? "CPU"}, load average at the end ${loadavg().map((l) => l.toFixed(1)).join(" / ")}, next start (1 process) + embedded PostgreSQL 18 on loopback`);
+    printHeavy(h, SECONDS);
+    return;
+  }
+
   const pid = app.child.pid!;
   type Run = (n: number, seconds?: number) => Promise<Omit<Row, "scenario" | "connections">>;
   const scenarios: [string, Run, ((c: import("pg").Pool) => Promise<void>) | null][] = [
@@ -186,6 +207,7 @@ async function main(): Promise<void> {
     }
     gcSince(1); // the server was idle while the floor ran: not part of the next round
   }
+  const heavyRounds = await runHeavy();
   await app.kill("SIGTERM");
   if (process.env.HEATBOOK_BENCH_SERVER_LOG) writeFileSync(process.env.HEATBOOK_BENCH_SERVER_LOG, app.output.join(""));
   await d.close();
@@ -230,6 +252,7 @@ async function main(): Promise<void> {
   const healthShares = floor.filter((fl) => fl.label === "sample list").map((fl) => ({ round: fl.round, pct: (100 * appRow(HEALTH, fl.round, fl.connections)!.rps) / fl.rps }));
   console.log(`| for scale, not a target: the empty health-check route as a share of the sample-list floor | at ${LEVELS.join(" / ")} connections, ${byRound(healthShares)} | where this is near or under 50 %, the sample-list target is beyond one Next.js process on this machine |`);
   console.log(`| no memory growth across rounds | RSS after each round: ${rssRounds.map((v) => `${fmt(v, 0)}`).join(", ")} MiB; live heap after each round's last full GC: ${liveRounds.map((v) => (v === null ? "–" : fmt(v, 0))).join(", ")} MiB, trend ${Number.isFinite(slope) ? `${slope >= 0 ? "+" : ""}${fmt(slope, 1)} MiB per round` : "–"} | ${Number.isFinite(slope) ? verdict(slope < 0.05 * live[0]!) : "needs 3 or more rounds (--rounds), each with a full GC"} |`);
+  printHeavy(heavyRounds, SECONDS);
 }
 
 main().then(() => process.exit(0), (err) => {

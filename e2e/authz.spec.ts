@@ -1,6 +1,7 @@
 /**
  * Authorization walk: every data route, called as a member of another group (gets 404 and no
- * data) and as a viewer (reads work, every write is refused with 403). The list of routes is
+ * data) and as a viewer (reads work, every write is refused with 403) — also with broken bodies
+ * and no query, so access is checked before any validation. The list of routes is
  * checked against the route files on disk, so a new route without an entry here fails the test.
  */
 import { test, expect, request as newRequest, type APIRequestContext } from "@playwright/test";
@@ -172,6 +173,24 @@ test.describe("authorization walk over every data route", () => {
     expect(sample.label).toMatch(/^NM-02/);
     expect(sample.archived).toBe(false);
     await viewer.dispose();
+  });
+
+  test("access is checked before input: with broken bodies and no query, another group's member gets 404, a viewer 403 on writes, a stranger 401", async ({ baseURL }) => {
+    const outsider = await newRequest.newContext({ baseURL });
+    await apiSignIn(outsider, DEMO.outsider);
+    const viewer = await newRequest.newContext({ baseURL });
+    await apiSignIn(viewer, DEMO.viewer);
+    const anon = await newRequest.newContext({ baseURL });
+    // Invalid JSON with a NUL and 100 levels of nesting; query parameters dropped (e.g. review/diff's a and b).
+    const broken = (ctx: APIRequestContext, c: RouteCase) => ctx.fetch(c.path.split("?")[0]!, {
+      method: c.method, headers: { "content-type": "application/json" }, ...(c.method === "GET" ? {} : { data: `{"label":"\u0000",${"[".repeat(100)}` }),
+    });
+    for (const c of cases()) {
+      expect((await broken(outsider, c)).status(), `outsider ${c.method} ${c.path}`).toBe(404);
+      expect((await broken(anon, c)).status(), `signed out ${c.method} ${c.path}`).toBe(401);
+      if (c.method !== "GET" && (c.viewer ?? 403) === 403) expect((await broken(viewer, c)).status(), `viewer ${c.method} ${c.path}`).toBe(403);
+    }
+    await Promise.all([outsider.dispose(), viewer.dispose(), anon.dispose()]);
   });
 
   test("signed-out requests get 401 from every route", async ({ baseURL }) => {

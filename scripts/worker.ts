@@ -1,24 +1,35 @@
 /**
  * `npm run worker`: one job worker. Start as many as you like (on any machine that reaches the
- * database); they drain the same queue. Needs DATABASE_URL (the runtime role) and the audit key
- * (HEATBOOK_AUDIT_KEY or HEATBOOK_AUDIT_KEY_FILE). SIGINT/SIGTERM stop it after the
+ * database); they drain the same queue. Uses DATABASE_URL (the runtime role), else the embedded
+ * database of `npm start` in --data-dir (default .data; its port and the runtime role's generated
+ * login are stored there), and the audit key (HEATBOOK_AUDIT_KEY or HEATBOOK_AUDIT_KEY_FILE, else
+ * the data folder's audit-key with the embedded database). SIGINT/SIGTERM stop it after the
  * job in hand (graceful, up to 30 s).
  *
  * Options: --name NAME (recorded in each attempt), --pause-ms N (wait between units of work),
- *          --maintenance-seconds N (how often this worker looks for jobs of dead workers; 30).
+ *          --maintenance-seconds N (how often this worker looks for jobs of dead workers; 30),
+ *          --data-dir DIR (the app's data folder, when DATABASE_URL is not set; .data).
  */
+import { join } from "node:path";
 import { startWorker } from "../lib/server/jobs";
+import { existsSync } from "node:fs";
 import { auditKeyFromEnv } from "../lib/server/auditKey";
+import { embeddedDatabaseUrl } from "../lib/server/db/embedded";
 
 function option(name: string): string | undefined {
   const i = process.argv.indexOf(`--${name}`);
   return i >= 0 ? process.argv[i + 1] : undefined;
 }
 
-const url = process.env.DATABASE_URL;
+// Without DATABASE_URL: the embedded database that `npm start` runs from the same data folder (its stored port).
+const dataDir = option("data-dir") ?? ".data";
+const url = process.env.DATABASE_URL ?? embeddedDatabaseUrl(join(dataDir, "pg"));
 if (!url) {
-  console.error("worker: DATABASE_URL is not set (the runtime role's URL, which `npm start` prints)");
+  console.error(`worker: DATABASE_URL is not set and ${join(dataDir, "pg")} holds no embedded database (start the app once with \`npm start\`, or point DATABASE_URL at the runtime role's URL that it prints)`);
   process.exit(2);
+}
+if (!process.env.DATABASE_URL && !process.env.HEATBOOK_AUDIT_KEY && !process.env.HEATBOOK_AUDIT_KEY_FILE && existsSync(join(dataDir, "audit-key"))) {
+  process.env.HEATBOOK_AUDIT_KEY_FILE = join(dataDir, "audit-key");
 }
 try {
   auditKeyFromEnv(); // jobs write audit events: without the key they would fail one by one

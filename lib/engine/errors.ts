@@ -78,3 +78,13 @@ export class ConflictError extends Error {
     this.current = current;
   }
 }
+
+/** A request body over its size limit (counted on the bytes as they arrived). */
+export class PayloadTooLargeError extends Error {
+  readonly field: string | undefined;
+  constructor(message: string, field?: string) {
+    super(message);
+    this.name = "PayloadTooLargeError";
+    this.field = field;
+  }
+}

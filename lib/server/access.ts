@@ -42,6 +42,15 @@ export function authorise(member: Member, action: Action): void {
   if (!can(member.role, action)) throw new ForbiddenError(`a ${member.role} may not do ${action}`);
 }
 
+/**
+ * Throws ForbiddenError unless the role allows at least one of the actions: a write route's first
+ * check after the membership, before it reads its body (so a role that may not write hears 403,
+ * never a validation message); the domain function checks the exact action again.
+ */
+export function authoriseAny(member: Member, actions: readonly Action[]): void {
+  if (!actions.some((a) => can(member.role, a))) throw new ForbiddenError(`a ${member.role} may not do ${actions.join(" or ")}`);
+}
+
 /** memberOf + authorise in one call, for handlers. */
 export async function requireRole(db: Db, userId: string, groupSlugOrId: string, action: Action): Promise<Member> {
   const member = await memberOf(db, userId, groupSlugOrId);

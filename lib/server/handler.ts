@@ -7,7 +7,8 @@ import { requireUser, sessionUserId } from "./session";
 import { groupWhere, type Member } from "./access";
 import type { Role } from "./permissions";
 import { uuidOrNone } from "./ids";
-import { ForbiddenError, InputError, NotFoundError, UnauthenticatedError } from "../engine/errors";
+import { ForbiddenError, InputError, NotFoundError, PayloadTooLargeError, UnauthenticatedError } from "../engine/errors";
+import { assertCleanText, parseJsonText, readBodyLimited } from "./body";
 import { MAX_UPLOAD_BYTES } from "./measurements";
 import type { UserInfo } from "./users";
 
@@ -89,27 +90,26 @@ export interface UploadedForm {
   fields: Record<string, unknown>;
 }
 
-/** Read a multipart form with a `file` part and a JSON `options` part. */
+/**
+ * Read a multipart form with a `file` part and a JSON `options` part. The body is counted as it
+ * arrives and refused (413) beyond the upload limit plus 64 KiB for the form's framing; the
+ * options JSON and the file name get the JSON body's checks (depth, no NUL or bidi controls).
+ */
 export async function readUpload(req: Request): Promise<UploadedForm> {
-  const declared = Number(req.headers.get("content-length") ?? 0);
-  if (declared > MAX_UPLOAD_BYTES + 64 * 1024) throw new InputError(`the upload is larger than ${MAX_UPLOAD_BYTES / 1024 / 1024} MiB`, { field: "file" });
+  const bytes = await readBodyLimited(req, MAX_UPLOAD_BYTES + 64 * 1024, "upload", "file", MAX_UPLOAD_BYTES);
   let form: FormData;
   try {
-    form = await req.formData();
+    form = await new Response(bytes as Uint8Array<ArrayBuffer>, { headers: { "content-type": req.headers.get("content-type") ?? "" } }).formData();
   } catch {
     throw new InputError("expected a multipart form with a file", { field: "file" });
   }
   const file = form.get("file");
   if (!file || typeof file === "string") throw new InputError("no file was uploaded", { field: "file" });
-  const bytes = new Uint8Array(await file.arrayBuffer());
+  if (file.size > MAX_UPLOAD_BYTES) throw new PayloadTooLargeError(`the upload is larger than ${MAX_UPLOAD_BYTES / 1024 / 1024} MiB`, "file");
+  const fileName = file.name || "upload.txt";
+  assertCleanText(fileName, "fileName");
   const raw = form.get("options");
   let fields: Record<string, unknown> = {};
-  if (typeof raw === "string" && raw) {
-    try {
-      fields = JSON.parse(raw) as Record<string, unknown>;
-    } catch {
-      throw new InputError("options are not valid JSON", { field: "options" });
-    }
-  }
-  return { fileName: file.name || "upload.txt", bytes, fields };
+  if (typeof raw === "string" && raw) fields = parseJsonText(raw, "options") as Record<string, unknown>;
+  return { fileName, bytes: new Uint8Array(await file.arrayBuffer()), fields };
 }

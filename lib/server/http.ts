@@ -4,7 +4,8 @@
  * Order inside a handler: parse → authorise → call the engine → persist → respond.
  */
 import { NextResponse } from "next/server";
-import { ConflictError, ForbiddenError, InputError, NotFoundError, UnauthenticatedError } from "../engine/errors";
+import { ConflictError, ForbiddenError, InputError, NotFoundError, PayloadTooLargeError, UnauthenticatedError } from "../engine/errors";
+import { readJsonBody } from "./body";
 import { lockViolation } from "./review/lockError";
 
 export interface ErrorBody {
@@ -20,6 +21,7 @@ export function errorResponse(raw: unknown): NextResponse<ErrorBody> {
   if (err instanceof UnauthenticatedError) return NextResponse.json({ error: err.message }, { status: 401 });
   if (err instanceof ForbiddenError) return NextResponse.json({ error: err.message }, { status: 403 });
   if (err instanceof NotFoundError) return NextResponse.json({ error: err.message }, { status: 404 });
+  if (err instanceof PayloadTooLargeError) return NextResponse.json({ error: err.message, ...(err.field ? { field: err.field } : {}) }, { status: 413 });
   if (err instanceof ConflictError) return NextResponse.json({ error: err.message, ...(err.current !== undefined ? { current: err.current } : {}) }, { status: 409 });
   if (isDatabaseDown(err)) return NextResponse.json({ error: "the database is not reachable right now; try again in a moment" }, { status: 503 });
   console.error("unexpected error in route handler", err);
@@ -50,11 +52,10 @@ export function route<C>(handler: Handler<C>): Handler<C> {
   };
 }
 
-/** Read a JSON body or throw InputError. */
+/**
+ * Read a JSON body: at most 1 MiB counted as it arrives (413 beyond), nesting at most 64 deep,
+ * no NUL or bidirectional control character in any string (422 naming the field); see body.ts.
+ */
 export async function jsonBody(req: Request): Promise<unknown> {
-  try {
-    return await req.json();
-  } catch {
-    throw new InputError("the request body is not valid JSON");
-  }
+  return readJsonBody(req);
 }

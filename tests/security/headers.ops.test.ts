@@ -2,7 +2,7 @@
  * Against real `next start` servers (run by `npm run test:ops`): every page of the app (each
  * app/**\/page.tsx with its parameters filled from a fixture), an API route and an unknown path
  * answer with the security headers, including a Content-Security-Policy that forbids framing,
- * foreign scripts, plugins and foreign form targets; the session cookie is HttpOnly,
+ * foreign scripts, inline scripts (pages: only by a nonce per response), plugins and foreign form targets; the session cookie is HttpOnly,
  * SameSite=Lax, Path=/ — and Secure (with the __Secure- prefix) when the public URL is https.
  */
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
@@ -42,7 +42,10 @@ function checkHeaders(h: Headers, where: string): string[] {
   for (const [name, value] of want) if (!(typeof value === "string" ? h.get(name) === value : value.test(h.get(name) ?? ""))) out.push(`${where}: ${name} = ${h.get(name)}`);
   for (const directive of ["default-src 'self'", "frame-ancestors 'none'", "base-uri 'self'", "form-action 'self'", "connect-src 'self'"]) if (!csp.includes(directive)) out.push(`${where}: CSP lacks ${directive}`);
   const script = /script-src ([^;]*)/.exec(csp)?.[1] ?? "";
-  if (!script || /\*|https?:|'unsafe-eval'/.test(script)) out.push(`${where}: script-src is ${script || "missing"}`);
+  if (!script || /\*|https?:|'unsafe-eval'|'unsafe-inline'/.test(script)) out.push(`${where}: script-src is ${script || "missing"}`);
+  if (h.get("content-security-policy")?.includes(",")) out.push(`${where}: more than one policy`);
+  // Pages (HTML) allow inline scripts only by this response's nonce.
+  if ((h.get("content-type") ?? "").startsWith("text/html") && !/^'self' 'nonce-[A-Za-z0-9+/]{22}==' 'strict-dynamic'$/.test(script.trim())) out.push(`${where}: page script-src is ${script}`);
   if (h.get("x-powered-by")) out.push(`${where}: x-powered-by present`);
   return out;
 }
@@ -78,6 +81,9 @@ describe("security headers on every page", () => {
       }
     }
     expect(problems).toEqual([]);
+    // A nonce is never used twice.
+    const nonces = await Promise.all([0, 1, 2].map(async () => /'nonce-([^']+)'/.exec((await fetch(`${app.base}/signin`)).headers.get("content-security-policy") ?? "")?.[1]));
+    expect(new Set(nonces).size).toBe(3);
     // Signed-in page loads succeed (no page answers 500).
     expect(statuses.filter((s) => / 5\d\d$/.test(s))).toEqual([]);
   });

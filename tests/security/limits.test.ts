@@ -2,8 +2,8 @@
  * Sign-in throttling and upload limits through the real code paths: authenticate() refuses
  * after 5 failed attempts for an e-mail within 15 minutes even with the right password (the
  * throttle counts in PostgreSQL, so it holds across app instances); the import routes refuse
- * a file over MAX_UPLOAD_BYTES (20 MiB) with 422 naming the field "file" — declared by
- * Content-Length or not — and store nothing.
+ * a file over MAX_UPLOAD_BYTES (20 MiB) with 413 naming the field "file" — declared by
+ * Content-Length or not — and store nothing (tests/security/requests.test.ts: bodies counted as they arrive).
  */
 import { describe, it, expect, beforeAll, afterAll, vi } from "vitest";
 import { freshDatabase, type TestDatabase } from "../helpers/db";
@@ -65,19 +65,19 @@ async function post(handler: typeof measurements.POST, body: BodyInit, headers: 
 }
 
 describe("upload size limit", () => {
-  it("POST measurements with a declared Content-Length over the limit answers 422 on field file", async () => {
+  it("POST measurements with a declared Content-Length over the limit answers 413 on field file", async () => {
     const r = await post(measurements.POST, "x", { "content-length": String(MAX_UPLOAD_BYTES + 1024 * 1024), "content-type": "multipart/form-data; boundary=x" });
-    expect(r.status).toBe(422);
+    expect(r.status).toBe(413);
     expect(r.body.field).toBe("file");
   });
 
-  it("POST measurements with a 21 MiB file and no declared length answers 422 and stores nothing", async () => {
+  it("POST measurements with a 21 MiB file and no declared length answers 413 and stores nothing", async () => {
     const before = await t.db.storedFile.count();
     const r = await post(measurements.POST, bigForm(MAX_UPLOAD_BYTES + 1024 * 1024));
-    expect(r.status).toBe(422);
+    expect(r.status).toBe(413);
     expect(r.body.error).toMatch(/larger than 20 MiB/);
     expect(await t.db.storedFile.count()).toBe(before);
     const p = await post(imports.POST as typeof measurements.POST, bigForm(MAX_UPLOAD_BYTES + 1));
-    expect(p.status).toBe(422);
+    expect(p.status).toBe(413);
   }, 60_000);
 });

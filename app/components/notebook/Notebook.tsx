@@ -13,6 +13,7 @@ import { AddStep } from "./AddStep";
 import { Threads, type Composer } from "./Threads";
 import { RevisionBar } from "./RevisionBar";
 import { ReviewBar } from "@/app/components/review/ReviewBar";
+import { KIND_LABEL } from "./display";
 import type { Anchor, MeasurementChoice, ModelInfo, NotebookContext, NotebookData, ThreadData } from "./types";
 
 interface Props {
@@ -41,6 +42,8 @@ export function Notebook(props: Props) {
   const [flash, setFlash] = useState<string | null>(null);
   const [live, setLive] = useState<"connecting" | "live" | "offline">("connecting");
   const [loadError, setLoadError] = useState<string | null>(null);
+  // The worker's progress on a long computation (live "progress" events), cleared by the next read.
+  const [progress, setProgress] = useState<{ position: number; runningMs: number } | null>(null);
   const analysisId = nb.analysis.id;
   const seq = useRef(0);
 
@@ -63,6 +66,7 @@ export function Notebook(props: Props) {
       } catch { /* keep the previous rendering */ }
     }
     setNb(next);
+    setProgress(null);
     if (t.ok) setThreads(t.data!.threads);
   }, [apiBase, analysisId, slug, props.revisionId]);
 
@@ -74,6 +78,12 @@ export function Notebook(props: Props) {
     const actors = new Set<string>();
     es.onopen = () => setLive("live");
     es.onerror = () => setLive("offline");
+    es.addEventListener("progress", (ev) => {
+      try {
+        const e = JSON.parse((ev as MessageEvent).data as string) as { progress?: { position: number; runningMs: number } };
+        if (e.progress) setProgress(e.progress);
+      } catch { /* ignore a malformed event */ }
+    });
     es.addEventListener("change", (ev) => {
       let e: { actorId?: string; actorName?: string } = {};
       try { e = JSON.parse((ev as MessageEvent).data as string); } catch { return; }
@@ -112,6 +122,11 @@ export function Notebook(props: Props) {
       {/* The review actions (app/components/review); remounted when the revision's state or version moves. */}
       <ReviewBar key={`${nb.revision.id}:${nb.revision.state}:${nb.revision.version}`} slug={slug} analysisId={analysisId} revision={{ id: nb.revision.id }} onChanged={() => void refresh()} />
       {flash && <div className="nb-flash" role="status" data-testid="live-notice">{flash}</div>}
+      {(nb.computing || progress) && (
+        <div className="nb-flash" role="status" data-testid="computing-notice">
+          Computing in the background{progress ? `: step ${progress.position + 1} (${KIND_LABEL[nb.steps[progress.position]?.kind ?? ""] ?? "step"}), ${Math.floor(progress.runningMs / 1000)} s so far` : ""}. The page updates when it ends.
+        </div>
+      )}
       {loadError && <p className="form-error" role="alert">The notebook could not be re-read: {loadError}</p>}
       <div className="nb-layout">
         <div className="nb-chain" aria-label="Steps of the analysis">

@@ -47,6 +47,8 @@ export interface NotebookData {
   editable: boolean;
   steps: StepView[];
   computeMillis: number;
+  /** The server answered before the computation ended; a live event follows when it does. */
+  computing?: boolean;
 }
 
 export interface Anchor {

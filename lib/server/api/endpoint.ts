@@ -15,6 +15,7 @@ import { ForbiddenError, UnauthenticatedError } from "../../engine/errors";
 import { authorise, type Member } from "../access";
 import type { Action } from "../permissions";
 import { errorResponse, jsonBody } from "../http";
+import { assertCleanText } from "../body";
 import { parseInput } from "../validate";
 import { authenticateToken, type TokenScope } from "../tokens";
 import { apiLimiter, type TakeResult } from "./rateLimit";
@@ -80,6 +81,13 @@ function failure(err: unknown): Response {
   return res;
 }
 
+/** The query parameters, each refused if it holds a NUL or a bidirectional control character. */
+function cleanQuery(req: Request): Record<string, string> {
+  const query = Object.fromEntries(new URL(req.url).searchParams);
+  for (const [k, v] of Object.entries(query)) assertCleanText(v, k);
+  return query;
+}
+
 /** Wrap a v1 handler: see the module comment for the order of checks. */
 export function v1<S extends EndpointSpec>(spec: S, handler: (ctx: V1Context<S>) => Promise<unknown>): V1Handler<S> {
   const fn = async (req: Request, ctx: RouteCtx): Promise<Response> => {
@@ -91,7 +99,7 @@ export function v1<S extends EndpointSpec>(spec: S, handler: (ctx: V1Context<S>)
       if (spec.access === "write" && principal.scope !== "read_write") throw new ForbiddenError("this API token is read-only: create a read_write token to change data");
       authorise(principal.member, spec.action);
       const params = ctx?.params ? await ctx.params : {};
-      const query = spec.query ? parseInput(spec.query, Object.fromEntries(new URL(req.url).searchParams)) : {};
+      const query = spec.query ? parseInput(spec.query, cleanQuery(req)) : {};
       const body = spec.body && spec.bodyKind !== "upload" ? parseInput(spec.body, await jsonBody(req)) : undefined;
       const out = await handler({ req, db, member: principal.member, tokenId: principal.tokenId, scope: principal.scope, params, query, body } as V1Context<S>);
       const res = out instanceof Response ? out : NextResponse.json(out, { status: spec.successStatus ?? 200 });

@@ -7,17 +7,13 @@ import type { Db } from "../db/client";
 import { InputError } from "../../engine/errors";
 import type { Member } from "../access";
 import { readUpload } from "../handler";
+import { readBodyLimited } from "../body";
 import { decodeText, importMeasurement, MAX_UPLOAD_BYTES, type MeasurementInfo } from "../measurements";
 import { resolveColumns } from "./columns";
 import type { rawUploadQuery } from "./schemas";
 
-async function rawBytes(req: Request): Promise<Uint8Array> {
-  const declared = Number(req.headers.get("content-length") ?? 0);
-  if (declared > MAX_UPLOAD_BYTES) throw new InputError(`the upload is larger than ${MAX_UPLOAD_BYTES / 1024 / 1024} MiB`, { field: "file" });
-  const bytes = new Uint8Array(await req.arrayBuffer());
-  if (bytes.byteLength > MAX_UPLOAD_BYTES) throw new InputError(`the upload is larger than ${MAX_UPLOAD_BYTES / 1024 / 1024} MiB`, { field: "file" });
-  return bytes;
-}
+/** The raw body, counted as it arrives (413 beyond the upload limit). */
+const rawBytes = (req: Request): Promise<Uint8Array> => readBodyLimited(req, MAX_UPLOAD_BYTES, "upload", "file");
 
 /** Store the uploaded measurement; see the module comment for the two forms. */
 export async function uploadMeasurement(req: Request, db: Db, member: Member, sampleId: string, query: z.infer<typeof rawUploadQuery>): Promise<MeasurementInfo> {

@@ -36,12 +36,20 @@ interface Parsed {
   end: { counts: Record<string, number>; sealed: SealedEntry[]; audit: { checkpoint?: AuditCheckpoint } };
 }
 
+/**
+ * Largest decompressed archive read (bytes): decompression stops there, so a small file that
+ * inflates without end (a "gzip bomb") is refused instead of filling memory. 500 MiB stays below the
+ * longest string JavaScript can hold (2²⁹ − 24 characters).
+ */
+export const MAX_ARCHIVE_BYTES = 500 * 1024 * 1024;
+
 /** Parse and check an archive; InputError naming the line on anything malformed. */
-export function readArchive(archive: Uint8Array): Parsed {
+export function readArchive(archive: Uint8Array, maxBytes = MAX_ARCHIVE_BYTES): Parsed {
   let text: string;
   try {
-    text = gunzipSync(archive).toString("utf8");
-  } catch {
+    text = gunzipSync(archive, { maxOutputLength: maxBytes }).toString("utf8");
+  } catch (err) {
+    if ((err as { code?: string }).code === "ERR_BUFFER_TOO_LARGE") throw new InputError(`the archive decompresses to more than ${Math.round(maxBytes / 1024 / 1024)} MiB: refused`, { field: "archive" });
     throw new InputError("not a gzip file: expected a Heatbook group backup", { field: "archive" });
   }
   const lines = text.split("\n").filter((l) => l.length > 0);

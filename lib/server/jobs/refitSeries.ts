@@ -64,7 +64,7 @@ export async function runRefitSeries(ctx: JobContext, params: { seriesId: string
     const revisions = await db.analysisRevision.findMany({ where: { analysisId: t.analysisId }, select: { id: true, number: true, state: true, snapshot: true, contentHash: true }, orderBy: { number: "asc" } });
     for (const rev of revisions) {
       if (rev.state === "open" || rev.state === "returned") {
-        const r = await computeRevisionSteps(db, groupId, t.sampleId, rev.id, "edit");
+        const r = await computeRevisionSteps(db, groupId, t.sampleId, rev.id, "edit", undefined, { inThread: true });
         if (r.computed) {
           out.revisionsRecomputed++;
           await notify(db, { groupId, analysisId: t.analysisId, revisionId: rev.id, kind: "step", actorId: ctx.actorId });

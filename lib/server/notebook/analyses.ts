@@ -11,7 +11,7 @@ import { recordAudit } from "../audit";
 import { authorise, type Member } from "../access";
 import { parseInput } from "../validate";
 import { uuidOrNone } from "../samples";
-import { computeRevisionSteps, outputJson, type StepView } from "./compute";
+import { computeRevisionSteps, defaultWaitMs, outputJson, type StepView } from "./compute";
 import { notify } from "./events";
 import { starterSteps } from "./starter";
 import { readNotebookRows, type NotebookRows, type RevisionRow } from "./read";
@@ -58,6 +58,8 @@ export interface NotebookView {
   editable: boolean;
   steps: StepView[];
   computeMillis: number;
+  /** The computation outlasted the request's wait: stale steps have no output yet; a "step" event follows. */
+  computing: boolean;
 }
 
 
@@ -188,7 +190,15 @@ export async function openNotebook(db: Db, member: Member, analysisId: string, r
   const editable = EDITABLE_STATES.includes(rev.state);
   // Viewers and reviewers see what is stored; computing (and writing) is for those who may edit.
   const mode = editable && (member.role === "owner" || member.role === "analyst") ? "edit" : "frozen";
-  const computed = await computeRevisionSteps(db, member.group.id, a.sampleId, rev.id, mode, { steps: rows.steps, sample: rows.sample, measurements: rows.measurements });
+  // A long computation answers "computing" after HEATBOOK_COMPUTE_WAIT_MS and goes on in the pool;
+  // the page hears its progress and its end on the live event stream.
+  const event = { groupId: member.group.id, analysisId: a.id, revisionId: rev.id, actorId: member.userId };
+  const quiet = () => undefined;
+  const computed = await computeRevisionSteps(db, member.group.id, a.sampleId, rev.id, mode, { steps: rows.steps, sample: rows.sample, measurements: rows.measurements }, {
+    waitMs: defaultWaitMs(),
+    whenDone: () => void notify(db, { ...event, kind: "step" }).catch(quiet),
+    onProgress: (p) => { if (p.runningMs > 1000) void notify(db, { ...event, stepId: p.stepId, kind: "computing", progress: { position: p.position, runningMs: Math.round(p.runningMs) } }).catch(quiet); },
+  });
   return {
     analysis: toSummary({ ...a, revisions }),
     revision: toRevision(rev),
@@ -196,6 +206,7 @@ export async function openNotebook(db: Db, member: Member, analysisId: string, r
     editable: editable && (member.role === "owner" || member.role === "analyst"),
     steps: computed.steps,
     computeMillis: computed.millis,
+    computing: computed.computing ?? false,
   };
 }
 

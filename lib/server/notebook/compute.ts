@@ -1,8 +1,11 @@
 /**
  * Computing a revision's steps on the server: hash each step's inputs; when every stored
- * output matches its hash, nothing is computed; otherwise the chain is computed (it is cheap:
- * milliseconds for thousands of points) and the outputs that changed are written back —
- * only for editable revisions (sealed ones are immutable and were fresh when sealed).
+ * output matches its hash, nothing is computed; otherwise the chain is computed in the worker
+ * pool (lib/server/compute: never on the request thread, each task within a time budget; a step
+ * stopped at the budget is stored as the failure "stopped after N s: time budget" and kept in
+ * ComputeStop by its input hash, so it is not run again) and the outputs that changed are
+ * written back — only for editable revisions (sealed ones are immutable and were fresh when
+ * sealed). Two requests that need the same computation share it.
  *
  * Stored outputs are read only when needed and kept per process by (step id, stored input
  * hash): a step's output and its input hash are always written together, and the hash names
@@ -16,6 +19,7 @@ import { ENGINE_VERSION } from "../../engine/version";
 import { computeChainFrom, EMPTY_STATE, type ChainState, type StepOutput, type StepSpec, type ChainContext, type ChainMeasurement, type ChainSample } from "../../engine/notebook";
 import { inputHashes, loadMeasurements, loadSample, referencedMeasurements } from "./context";
 import type { StepRow } from "./read";
+import { computeChainBounded, defaultBudgetMs, knownStops, recordStops } from "../compute";
 
 export type StoredOutput = Omit<StepOutput, "state">;
 
@@ -152,11 +156,62 @@ async function writeOutputs(db: Db, rows: { id: string; version: number; output:
   ]);
 }
 
+/** Computations under way in this process, by revision, input hashes and budget. */
+const inflight = new Map<string, Promise<{ from: number; outputs: StoredOutput[]; context: ChainContext }>>();
+
+/** Compute the stale part of a chain in the pool and write the outputs that changed. */
+async function recompute(db: Db, groupId: string, rows: readonly StepRow[], specs: readonly StepSpec[], context: ChainContext, hashes: readonly string[], stale: readonly boolean[], now: Date, budgetMs: number | null, onProgress?: ComputeOptions["onProgress"]) {
+  const { from, state } = resumePoint(stale, hashes);
+  // Point arrays only for the measurements the steps to compute read (none for a refit).
+  const needed = referencedMeasurements(specs.slice(from));
+  if (needed.length) context = { ...context, measurements: { ...context.measurements, ...(await loadMeasurements(db, groupId, needed)) } };
+  const started = performance.now();
+  const onStart = onProgress && ((i: number) => onProgress({ stepId: rows[i]!.id, position: i, runningMs: performance.now() - started }));
+  // budgetMs null: on this thread (job processes), else in the pool within the budget.
+  const { outputs: fresh, stopped } = budgetMs === null
+    ? { outputs: computeChainFrom(specs, context, from, state), stopped: [] as number[] }
+    : await computeChainBounded(specs, context, from, state, { budgetMs, skip: await knownStops(db, specs, hashes, from, budgetMs), onStart });
+  fresh.forEach((o, k) => rememberState(hashes[from + k]!, o.state));
+  // Each new output as its JSON text reads back: the same value whether computed or stored.
+  const outputs = fresh.map((o) => fromText(JSON.stringify(strip(o))));
+  if (budgetMs !== null) await recordStops(db, stopped.map((i) => ({ inputHash: hashes[i]!, kind: specs[i]!.kind, error: fresh[i - from]!.error ?? "" })), budgetMs);
+  // Every stale step is at or below `from` (resumePoint stops at the first stale one).
+  await writeOutputs(db, rows.flatMap((r, i) => (stale[i] ? [{ id: r.id, version: r.version, output: outputs[i - from]!, inputHash: hashes[i]! }] : [])), now);
+  rows.forEach((r, i) => { if (i >= from) rememberOutput(outputKey(r.id, hashes[i]!), outputs[i - from]!); });
+  return { from, outputs, context };
+}
+
 export interface ComputeResult {
   steps: StepView[];
   context: ChainContext;
   computed: boolean;
+  /** True when the answer came before the computation ended (waitMs): stale steps have no output yet. */
+  computing?: boolean;
   millis: number;
+}
+
+export interface ComputeOptions {
+  /** Time budget of each task in the pool (default HEATBOOK_COMPUTE_BUDGET_MS). */
+  budgetMs?: number;
+  /** Answer after this long even if the computation goes on (then `computing` is set); default: wait for it. */
+  waitMs?: number;
+  /** Called when a computation answered as `computing` has ended (its outputs are written). */
+  whenDone?: () => void;
+  /**
+   * Compute on this thread, without the pool or a budget: for background-job processes, which
+   * serve no requests and have their own time limit (the job's expiry).
+   */
+  inThread?: boolean;
+  /** Told as the worker starts each step (shared computations tell only the first caller). */
+  onProgress?: (p: { stepId: string; position: number; runningMs: number }) => void;
+}
+
+/** How long a page request waits for its notebook's computation before it answers "computing" (HEATBOOK_COMPUTE_WAIT_MS). */
+export function defaultWaitMs(): number {
+  const raw = process.env.HEATBOOK_COMPUTE_WAIT_MS;
+  const n = raw === undefined || raw === "" ? 15_000 : Number(raw);
+  if (!Number.isInteger(n) || n < 0) throw new Error(`invalid HEATBOOK_COMPUTE_WAIT_MS: ${JSON.stringify(raw)} (milliseconds, a whole number)`);
+  return n;
 }
 
 /**
@@ -167,6 +222,7 @@ export interface ComputeResult {
 export async function computeRevisionSteps(
   db: Db, groupId: string, sampleId: string, revisionId: string, mode: "edit" | "frozen",
   preloaded?: { steps: StepRow[]; sample: ChainSample; measurements: Record<string, ChainMeasurement> },
+  opts: ComputeOptions = {},
 ): Promise<ComputeResult> {
   const t0 = performance.now();
   const rows: StepRow[] = preloaded?.steps ?? (await db.step.findMany({ where: { revisionId }, orderBy: { position: "asc" }, select: STEP_META }));
@@ -188,16 +244,24 @@ export async function computeRevisionSteps(
   const computed = mode === "edit" && stale.some(Boolean);
   const now = new Date();
   if (computed) {
-    const { from, state } = resumePoint(stale, hashes);
-    // Point arrays only for the measurements the steps to compute read (none for a refit).
-    const needed = referencedMeasurements(specs.slice(from));
-    if (needed.length) context = { ...context, measurements: { ...context.measurements, ...(await loadMeasurements(db, groupId, needed)) } };
-    const fresh = computeChainFrom(specs, context, from, state);
-    fresh.forEach((o, k) => rememberState(hashes[from + k]!, o.state));
-    // Each new output as its JSON text reads back: the same value whether computed or stored.
-    outputs = [...outputs.slice(0, from), ...fresh.map((o) => fromText(JSON.stringify(strip(o))))];
-    await writeOutputs(db, rows.flatMap((r, i) => (stale[i] ? [{ id: r.id, version: r.version, output: outputs[i]!, inputHash: hashes[i]! }] : [])), now);
-    rows.forEach((r, i) => { if (i >= from) rememberOutput(outputKey(r.id, hashes[i]!), outputs[i]!); });
+    const key = `${revisionId} ${hashes.join(" ")} ${opts.budgetMs ?? ""}`;
+    let shared = inflight.get(key);
+    if (!shared) {
+      shared = recompute(db, groupId, rows, specs, context, hashes, stale, now, opts.inThread ? null : (opts.budgetMs ?? defaultBudgetMs()), opts.onProgress).finally(() => inflight.delete(key));
+      inflight.set(key, shared);
+    }
+    const done = opts.waitMs === undefined ? await shared : await Promise.race([shared, new Promise<null>((ok) => setTimeout(() => ok(null), opts.waitMs).unref())]);
+    if (done === null) {
+      // Still computing: answer with what is stored (the stale steps say so) and tell the caller when it is done.
+      shared.then(() => opts.whenDone?.(), () => opts.whenDone?.());
+      const steps = rows.map((r, i): StepView => ({
+        id: r.id, position: r.position, kind: r.kind, title: r.title, config: r.config, version: r.version, output: stale[i] ? null : (outputs[i] ?? null),
+        inputHash: hashes[i]!, fresh: !stale[i], engineVersion: r.engineVersion, computedAt: r.computedAt?.toISOString() ?? null, updatedAt: r.updatedAt.toISOString(),
+      }));
+      return { steps, context, computed: false, computing: true, millis: performance.now() - t0 };
+    }
+    context = done.context;
+    outputs = [...outputs.slice(0, done.from), ...done.outputs];
   }
   const steps = rows.map((r, i): StepView => {
     const recomputed = computed && stale[i];

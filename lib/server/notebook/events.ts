@@ -10,7 +10,9 @@ export interface NotebookEvent {
   analysisId: string;
   revisionId?: string;
   stepId?: string;
-  kind: "step" | "structure" | "comment" | "review" | "analysis";
+  kind: "step" | "structure" | "comment" | "review" | "analysis" | "computing";
+  /** kind "computing": the step the worker started and how long the computation has run. */
+  progress?: { position: number; runningMs: number };
   actorId: string;
   actorName?: string;
   at: string;

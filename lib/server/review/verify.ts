@@ -8,7 +8,8 @@
 import type { Db } from "../db/client";
 import { ConflictError, NotFoundError } from "../../engine/errors";
 import { ENGINE_VERSION } from "../../engine/version";
-import { computeChain, type ChainContext, type ChainMeasurement, type StepSpec } from "../../engine/notebook";
+import { computeChain, EMPTY_STATE, type ChainContext, type ChainMeasurement, type StepOutput, type StepSpec } from "../../engine/notebook";
+import { computeChainBounded, defaultBudgetMs, isBudgetFailure } from "../compute";
 import { inputHashes } from "../notebook/context";
 import { authorise, type Member } from "../access";
 import { contentHash, sha256Hex } from "../hash";
@@ -53,11 +54,28 @@ export function contextFromSnapshot(s: RevisionSnapshot): ChainContext {
   return { sample: s.inputs.sample, measurements };
 }
 
-/** Re-run the snapshot's chain and compare with its stored outputs, step by step. */
+/** Re-run the snapshot's chain and compare with its stored outputs, step by step (on this thread: CLI and jobs). */
 export function reproduceSnapshot(s: RevisionSnapshot, engineVersion = ENGINE_VERSION): StepVerification[] {
-  const specs: StepSpec[] = s.inputs.steps.map((st) => ({ id: st.id, kind: st.kind as StepSpec["kind"], config: st.config }));
+  const specs = snapshotSpecs(s);
   const ctx = contextFromSnapshot(s);
-  const outputs = computeChain(specs, ctx);
+  return compareOutputs(s, specs, ctx, computeChain(specs, ctx), engineVersion);
+}
+
+/**
+ * reproduceSnapshot with the chain computed in the worker pool (lib/server/compute), for request
+ * handlers: a verification never blocks other requests. A step over the budget (default 6× the
+ * notebook's) does not reproduce, and says why.
+ */
+export async function reproduceSnapshotOffThread(s: RevisionSnapshot, budgetMs = 6 * defaultBudgetMs()): Promise<StepVerification[]> {
+  const specs = snapshotSpecs(s);
+  const ctx = contextFromSnapshot(s);
+  const { outputs } = await computeChainBounded(specs, ctx, 0, EMPTY_STATE, { budgetMs });
+  return compareOutputs(s, specs, ctx, outputs, ENGINE_VERSION);
+}
+
+const snapshotSpecs = (s: RevisionSnapshot): StepSpec[] => s.inputs.steps.map((st) => ({ id: st.id, kind: st.kind as StepSpec["kind"], config: st.config }));
+
+function compareOutputs(s: RevisionSnapshot, specs: StepSpec[], ctx: ChainContext, outputs: StepOutput[], engineVersion: string): StepVerification[] {
   const hashes = inputHashes(specs, ctx);
   const rel = s.engineVersion === engineVersion ? 0 : CROSS_VERSION_TOLERANCE;
   return s.inputs.steps.map((st, i) => {
@@ -65,7 +83,9 @@ export function reproduceSnapshot(s: RevisionSnapshot, engineVersion = ENGINE_VE
     const c = compareJson(JSON.parse(JSON.stringify(fresh)), s.outputs.steps[i]?.output ?? null, rel);
     return {
       stepId: st.id, position: st.position, kind: st.kind, inputHashReproduced: hashes[i] === st.inputHash,
-      outcome: c.exact ? "identical" : c.equal ? "within-tolerance" : "differs", maxRelDiff: Number.isFinite(c.maxRelDiff) ? c.maxRelDiff : null, firstDifference: c.firstDifference,
+      outcome: c.exact ? "identical" : c.equal ? "within-tolerance" : "differs", maxRelDiff: Number.isFinite(c.maxRelDiff) ? c.maxRelDiff : null,
+      // A re-run stopped at its time budget says so instead of naming the first differing field.
+      firstDifference: !c.equal && isBudgetFailure(fresh) ? fresh.error : c.firstDifference,
     };
   });
 }
@@ -84,7 +104,7 @@ export async function verifyRevision(db: Db, member: Member, analysisId: string,
       return { measurementId: m.id, fileId: m.file.id, sha256: m.file.sha256, matches: !!f && sha256Hex(f.bytes) === m.file.sha256 };
     }),
   );
-  const steps = reproduceSnapshot(snapshot);
+  const steps = await reproduceSnapshotOffThread(snapshot);
   const hashMatches = recomputedHash === rev.contentHash;
   const differing = steps.filter((s) => s.outcome === "differs");
   const ok = hashMatches && files.every((f) => f.matches) && differing.length === 0;

@@ -1,6 +1,7 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { route, jsonBody } from "@/lib/server/http";
+import { authoriseAny } from "@/lib/server/access";
 import { inGroup } from "@/lib/server/handler";
 import { listMembers, updateGroupSettings } from "@/lib/server/groups";
 import { parseInput } from "@/lib/server/validate";
@@ -17,6 +18,7 @@ export const GET = route(async (req, { params }: Ctx) => {
 
 export const PATCH = route(async (req, { params }: Ctx) => {
   const { db, member } = await inGroup(req, (await params).slug);
+  authoriseAny(member, ["group.manage"]); // before the body: a role that may not write hears 403
   await updateGroupSettings(db, member, parseInput(settingsSchema, await jsonBody(req)));
   return NextResponse.json({ ok: true });
 });

@@ -1,5 +1,6 @@
 import { NextResponse } from "next/server";
 import { route, jsonBody } from "@/lib/server/http";
+import { authoriseAny } from "@/lib/server/access";
 import { inGroup } from "@/lib/server/handler";
 import { createAnalysis, listAnalyses } from "@/lib/server/notebook";
 
@@ -15,5 +16,6 @@ export const GET = route(async (req, { params }: Ctx) => {
 
 export const POST = route(async (req, { params }: Ctx) => {
   const { db, member } = await inGroup(req, (await params).slug);
+  authoriseAny(member, ["analysis.write"]); // before the body: a role that may not write hears 403
   return NextResponse.json({ analysis: await createAnalysis(db, member, await jsonBody(req)) }, { status: 201 });
 });

@@ -29,7 +29,8 @@ export const GET = route(async (req, { params }: Ctx) => {
       };
       const unsubscribe = await subscribe((e) => {
         if (e.groupId !== member.group.id || (analysisId && e.analysisId !== analysisId)) return;
-        send(`event: change\ndata: ${JSON.stringify(e)}\n\n`);
+        // Progress of a long computation is its own event, so pages do not re-read the notebook on it.
+        send(`event: ${e.kind === "computing" ? "progress" : "change"}\ndata: ${JSON.stringify(e)}\n\n`);
       });
       const ping = setInterval(() => send(": ping\n\n"), 20_000);
       cleanup = () => {

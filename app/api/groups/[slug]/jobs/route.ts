@@ -1,5 +1,6 @@
 import { NextResponse } from "next/server";
 import { route, jsonBody } from "@/lib/server/http";
+import { authoriseAny } from "@/lib/server/access";
 import { inGroup } from "@/lib/server/handler";
 import { enqueueJob, listJobs } from "@/lib/server/jobs";
 
@@ -15,5 +16,6 @@ export const GET = route(async (req, { params }: Ctx) => {
 /** Enqueue {kind: "refit-series", seriesId} or {kind: "window-scan", analysisId, stepId, gridSize?} (owner, analyst). */
 export const POST = route(async (req, { params }: Ctx) => {
   const { db, member } = await inGroup(req, (await params).slug);
+  authoriseAny(member, ["analysis.write"]); // before the body: a role that may not write hears 403
   return NextResponse.json({ job: await enqueueJob(db, member, await jsonBody(req)) }, { status: 202 });
 });

@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { route, jsonBody } from "@/lib/server/http";
 import { inGroup, inGroupWith } from "@/lib/server/handler";
-import { authorise } from "@/lib/server/access";
+import { authorise, authoriseAny } from "@/lib/server/access";
 import { createSample, listSamples, sampleListParams, sampleListSql } from "@/lib/server/samples";
 
 export const dynamic = "force-dynamic";
@@ -35,6 +35,7 @@ export const GET = route(async (req, { params }: Ctx) => {
 
 export const POST = route(async (req, { params }: Ctx) => {
   const { db, member } = await inGroup(req, (await params).slug);
+  authoriseAny(member, ["sample.write"]); // before the body: a role that may not write hears 403
   const sample = await createSample(db, member, await jsonBody(req));
   return NextResponse.json({ sample }, { status: 201 });
 });

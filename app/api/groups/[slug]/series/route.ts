@@ -1,5 +1,6 @@
 import { NextResponse } from "next/server";
 import { route, jsonBody } from "@/lib/server/http";
+import { authoriseAny } from "@/lib/server/access";
 import { inGroup } from "@/lib/server/handler";
 import { createSeries, listSeries } from "@/lib/server/series";
 
@@ -14,5 +15,6 @@ export const GET = route(async (req, { params }: Ctx) => {
 /** Create {name, compositionVariable?, description?, sampleIds?}. */
 export const POST = route(async (req, { params }: Ctx) => {
   const { db, member } = await inGroup(req, (await params).slug);
+  authoriseAny(member, ["series.write"]); // before the body: a role that may not write hears 403
   return NextResponse.json({ series: await createSeries(db, member, await jsonBody(req)) }, { status: 201 });
 });

@@ -1,6 +1,7 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { route, jsonBody } from "@/lib/server/http";
+import { authoriseAny } from "@/lib/server/access";
 import { inGroup, inGroupWith } from "@/lib/server/handler";
 import { notebookParams, notebookSql, parseNotebookRow } from "@/lib/server/notebook/read";
 import { duplicateAnalysis, notebookJson, openNotebook, renameAnalysis, setAnalysisArchived } from "@/lib/server/notebook";
@@ -22,6 +23,7 @@ export const GET = route(async (req, { params }: Ctx) => {
 export const PATCH = route(async (req, { params }: Ctx) => {
   const { slug, id } = await params;
   const { db, member } = await inGroup(req, slug);
+  authoriseAny(member, ["analysis.write"]); // before the body: a role that may not write hears 403
   await renameAnalysis(db, member, id, await jsonBody(req));
   return NextResponse.json({ ok: true });
 });
@@ -35,6 +37,7 @@ const actionSchema = z.discriminatedUnion("action", [
 export const POST = route(async (req, { params }: Ctx) => {
   const { slug, id } = await params;
   const { db, member } = await inGroup(req, slug);
+  authoriseAny(member, ["analysis.write"]); // before the body: a role that may not write hears 403
   const body = parseInput(actionSchema, await jsonBody(req));
   if (body.action === "archive") {
     await setAnalysisArchived(db, member, id, body.archived);

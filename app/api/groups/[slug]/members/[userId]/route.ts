@@ -1,5 +1,6 @@
 import { NextResponse } from "next/server";
 import { route, jsonBody } from "@/lib/server/http";
+import { authoriseAny } from "@/lib/server/access";
 import { inGroup } from "@/lib/server/handler";
 import { changeRole, removeMember } from "@/lib/server/groups";
 
@@ -10,6 +11,7 @@ type Ctx = { params: Promise<{ slug: string; userId: string }> };
 export const PATCH = route(async (req, { params }: Ctx) => {
   const { slug, userId } = await params;
   const { db, member } = await inGroup(req, slug);
+  authoriseAny(member, ["group.manage"]); // before the body: a role that may not write hears 403
   await changeRole(db, member, userId, await jsonBody(req));
   return NextResponse.json({ ok: true });
 });

@@ -1,6 +1,7 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { route, jsonBody } from "@/lib/server/http";
+import { authoriseAny } from "@/lib/server/access";
 import { inGroup } from "@/lib/server/handler";
 import { getSample, setSampleArchived, updateSample } from "@/lib/server/samples";
 import { listMeasurements } from "@/lib/server/measurements";
@@ -19,6 +20,7 @@ export const GET = route(async (req, { params }: Ctx) => {
 export const PATCH = route(async (req, { params }: Ctx) => {
   const { slug, id } = await params;
   const { db, member } = await inGroup(req, slug);
+  authoriseAny(member, ["sample.write"]); // before the body: a role that may not write hears 403
   return NextResponse.json({ sample: await updateSample(db, member, id, await jsonBody(req)) });
 });
 
@@ -28,6 +30,7 @@ const archiveSchema = z.object({ archived: z.boolean() });
 export const POST = route(async (req, { params }: Ctx) => {
   const { slug, id } = await params;
   const { db, member } = await inGroup(req, slug);
+  authoriseAny(member, ["sample.write"]); // before the body: a role that may not write hears 403
   const { archived } = parseInput(archiveSchema, await jsonBody(req));
   return NextResponse.json({ sample: await setSampleArchived(db, member, id, archived) });
 });

@@ -1,5 +1,6 @@
 import { NextResponse } from "next/server";
 import { route, jsonBody } from "@/lib/server/http";
+import { authoriseAny } from "@/lib/server/access";
 import { inGroup } from "@/lib/server/handler";
 import { seriesView, updateSeries } from "@/lib/server/series";
 import { viewOptions } from "./options";
@@ -18,5 +19,6 @@ export const GET = route(async (req, { params }: Ctx) => {
 export const PATCH = route(async (req, { params }: Ctx) => {
   const { slug, id } = await params;
   const { db, member } = await inGroup(req, slug);
+  authoriseAny(member, ["series.write"]); // before the body: a role that may not write hears 403
   return NextResponse.json({ series: await updateSeries(db, member, id, await jsonBody(req)) });
 });

@@ -1,6 +1,7 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { route, jsonBody } from "@/lib/server/http";
+import { authoriseAny } from "@/lib/server/access";
 import { inGroup } from "@/lib/server/handler";
 import { reviewStatus, reviewTransition } from "@/lib/server/review";
 import { parseInput } from "@/lib/server/validate";
@@ -21,6 +22,7 @@ const bodySchema = z.object({ revisionId: z.string().min(1, "name the revision")
 export const POST = route(async (req, { params }: Ctx) => {
   const { slug, id } = await params;
   const { db, member } = await inGroup(req, slug);
+  authoriseAny(member, ["analysis.submit", "analysis.review"]); // before the body: a role that may not write hears 403
   const body = await jsonBody(req);
   const { revisionId, ...rest } = parseInput(bodySchema, body);
   return NextResponse.json({ transition: await reviewTransition(db, member, id, revisionId, rest) });

@@ -1,5 +1,6 @@
 import { NextResponse } from "next/server";
 import { route, jsonBody } from "@/lib/server/http";
+import { authoriseAny } from "@/lib/server/access";
 import { inGroup } from "@/lib/server/handler";
 import { createThread, listThreads } from "@/lib/server/notebook";
 
@@ -16,5 +17,6 @@ export const GET = route(async (req, { params }: Ctx) => {
 export const POST = route(async (req, { params }: Ctx) => {
   const { slug, id } = await params;
   const { db, member } = await inGroup(req, slug);
+  authoriseAny(member, ["comment.write"]); // before the body: a role that may not write hears 403
   return NextResponse.json(await createThread(db, member, id, await jsonBody(req)), { status: 201 });
 });

@@ -1,5 +1,6 @@
 import { NextResponse } from "next/server";
 import { route } from "@/lib/server/http";
+import { authoriseAny } from "@/lib/server/access";
 import { inGroup, readUpload } from "@/lib/server/handler";
 import { getSample } from "@/lib/server/samples";
 import { previewImport } from "@/lib/server/measurements";
@@ -11,6 +12,7 @@ type Ctx = { params: Promise<{ slug: string; id: string }> };
 export const POST = route(async (req, { params }: Ctx) => {
   const { slug, id } = await params;
   const { db, member } = await inGroup(req, slug);
+  authoriseAny(member, ["measurement.write"]); // before the body: a role that may not write hears 403
   await getSample(db, member, id);
   const upload = await readUpload(req);
   return NextResponse.json({ preview: previewImport(member, upload.fileName, upload.bytes, upload.fields) });

@@ -1,5 +1,6 @@
 import { NextResponse } from "next/server";
 import { route, jsonBody } from "@/lib/server/http";
+import { authoriseAny } from "@/lib/server/access";
 import { inGroup } from "@/lib/server/handler";
 import { replyToThread, setThreadState } from "@/lib/server/notebook";
 
@@ -10,6 +11,7 @@ type Ctx = { params: Promise<{ slug: string; id: string; threadId: string }> };
 export const POST = route(async (req, { params }: Ctx) => {
   const { slug, id, threadId } = await params;
   const { db, member } = await inGroup(req, slug);
+  authoriseAny(member, ["comment.write"]); // before the body: a role that may not write hears 403
   const { unmatchedMentions } = await replyToThread(db, member, id, threadId, await jsonBody(req));
   return NextResponse.json({ ok: true, unmatchedMentions }, { status: 201 });
 });
@@ -18,6 +20,7 @@ export const POST = route(async (req, { params }: Ctx) => {
 export const PATCH = route(async (req, { params }: Ctx) => {
   const { slug, id, threadId } = await params;
   const { db, member } = await inGroup(req, slug);
+  authoriseAny(member, ["comment.write"]); // before the body: a role that may not write hears 403
   await setThreadState(db, member, id, threadId, await jsonBody(req));
   return NextResponse.json({ ok: true });
 });
