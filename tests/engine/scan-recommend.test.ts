@@ -165,6 +165,6 @@ describe("the pieces of the recommendation", () => {
     expect(formatStatSyst(3.00412, 0.0123, 0.0351)).toBe("3.004(12)(35)");
     expect(formatStatSyst(0.072104, 0.00012, 0.0003)).toBe("0.07210(12)(30)");
     expect(formatStatSyst(2.5, 0.012, 0)).toBe("2.500(12)(0)");
-    expect(formatStatSyst(1.2345e-5, 5.6e-8, 1e-7)).toBe("1.2345(56)(100)e-5");
+    expect(formatStatSyst(1.2345e-5, 5.6e-8, 1e-7)).toBe("1.2345(56)(100) × 10⁻⁵"); // never e-notation on a page
   });
 });
