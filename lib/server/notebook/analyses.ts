@@ -15,6 +15,7 @@ import { computeRevisionSteps, outputJson, type StepView } from "./compute";
 import { notify } from "./events";
 import { starterSteps } from "./starter";
 import { readNotebookRows, type NotebookRows, type RevisionRow } from "./read";
+import { isSealedState, sealedStepViews } from "../review/served";
 
 export const createAnalysisSchema = z.object({
   sampleId: z.string().uuid("choose a sample"),
@@ -58,6 +59,8 @@ export interface NotebookView {
   editable: boolean;
   steps: StepView[];
   computeMillis: number;
+  /** Sealed revisions: set when the stored snapshot does not match its content hash (nothing of it is shown). */
+  sealProblem: string | null;
 }
 
 
@@ -134,6 +137,7 @@ export async function createAnalysis(db: Db, member: Member, input: unknown): Pr
   return (await summaries(db, { id }))[0]!;
 }
 
+/** Renaming is allowed in every state (a sealed revision keeps the title it was sealed with, in its snapshot); audited. */
 export async function renameAnalysis(db: Db, member: Member, id: string, input: unknown): Promise<void> {
   authorise(member, "analysis.write");
   const { title } = parseInput(renameSchema, input);
@@ -145,6 +149,7 @@ export async function renameAnalysis(db: Db, member: Member, id: string, input: 
   });
 }
 
+/** Archiving hides the analysis from lists; its sealed revisions stay in their series and reports. Audited. */
 export async function setAnalysisArchived(db: Db, member: Member, id: string, archived: boolean): Promise<void> {
   authorise(member, "analysis.write");
   const a = await findAnalysis(db, member, id);
@@ -188,7 +193,10 @@ export async function openNotebook(db: Db, member: Member, analysisId: string, r
   const editable = EDITABLE_STATES.includes(rev.state);
   // Viewers and reviewers see what is stored; computing (and writing) is for those who may edit.
   const mode = editable && (member.role === "owner" || member.role === "analyst") ? "edit" : "frozen";
-  const computed = await computeRevisionSteps(db, member.group.id, a.sampleId, rev.id, mode, { steps: rows.steps, sample: rows.sample, measurements: rows.measurements });
+  // A sealed revision shows its snapshot (one truth), never the step rows beside it.
+  const t0 = performance.now();
+  const sealed = isSealedState(rev.state) ? await sealedStepViews(db, rev, rows.steps) : null;
+  const computed = sealed ? { steps: sealed.steps, millis: performance.now() - t0 } : await computeRevisionSteps(db, member.group.id, a.sampleId, rev.id, mode, { steps: rows.steps, sample: rows.sample, measurements: rows.measurements });
   return {
     analysis: toSummary({ ...a, revisions }),
     revision: toRevision(rev),
@@ -196,6 +204,7 @@ export async function openNotebook(db: Db, member: Member, analysisId: string, r
     editable: editable && (member.role === "owner" || member.role === "analyst"),
     steps: computed.steps,
     computeMillis: computed.millis,
+    sealProblem: sealed?.problem ?? null,
   };
 }
 
