@@ -38,3 +38,5 @@ export { lockViolation, isLockViolation } from "./lockError";
 export { listAuditEvents, type AuditEventView } from "./auditLog";
 export { buildReport, reportFromSnapshot, SAFETY_SENTENCE, type RevisionReport, type ReportValue } from "./report";
 export { renderReportPdf } from "./pdf";
+export { sealPreview, type SealPreview } from "./preview";
+export { intactSnapshot, sealedSteps, isSealedState } from "./served";

@@ -113,7 +113,11 @@ export async function checkSealedRevision(db: Db, rev: SealedRevisionRow, opts: 
     return { mismatches, steps: [], contextChanges: [], files: [] };
   }
   const s = rev.snapshot as RevisionSnapshot;
-  if (contentHash(s) !== rev.contentHash) push("content-hash", "the stored snapshot does not hash to the revision's content hash");
+  if (contentHash(s) !== rev.contentHash) push("content-hash", "the stored snapshot does not match its content hash");
+  if (!Array.isArray(s.inputs?.steps) || !Array.isArray(s.inputs?.measurements) || !Array.isArray(s.outputs?.steps) || !s.inputs?.sample) {
+    push("seal-record", `the stored snapshot is not a Heatbook seal this build reads (format ${JSON.stringify(s.format ?? null)})`);
+    return { mismatches, steps: [], contextChanges: [], files: [] };
+  }
   const seal = await db.auditEvent.findFirst({ where: { action: "revision.approve", objectId: rev.id }, orderBy: { id: "desc" }, select: { id: true, afterHash: true } });
   if (!seal) push("audit-seal", "no audit event records this seal");
   else if (seal.afterHash !== rev.contentHash) push("audit-seal", `the approval's audit event ${seal.id} records content hash ${seal.afterHash?.slice(0, 12) ?? "none"}…, the revision carries ${rev.contentHash.slice(0, 12)}…`);

@@ -34,6 +34,11 @@ function plotFit(doc: PDFDocument, fit: RevisionReport["fits"][number], x0: numb
   doc.fillColor("#000").fontSize(8).text(`C/T [J mol⁻¹ K⁻²]  ${ymin.toPrecision(3)} … ${ymax.toPrecision(3)}   vs   T² [K²]  ${xmin.toPrecision(3)} … ${xmax.toPrecision(3)}`, x0, y0 + h + 4, { width: w });
 }
 
+/** ISO time → "2026-12-04 14:52 UTC". */
+function stamp(iso: string | null): string {
+  return iso ? `${iso.slice(0, 16).replace("T", " ")} UTC` : "—";
+}
+
 /** Render the report to PDF bytes. */
 export async function renderReportPdf(report: RevisionReport): Promise<Uint8Array> {
   const font = pickFont();
@@ -50,6 +55,10 @@ export async function renderReportPdf(report: RevisionReport): Promise<Uint8Arra
   h("Sample");
   const s = report.sample;
   line(`${s.label}: ${s.formula}, M = ${s.molarMassGPerMol} g/mol, ${s.atomsPerFormulaUnit} atoms per formula unit${s.massMg !== null ? `, mass ${s.massMg} mg` : ""}${s.densityGPerCm3 !== null ? `, density ${s.densityGPerCm3} g/cm³` : ""}`);
+  const c = report.context;
+  if (c.pinned === "full") line(`composition as sealed: ${c.compositionValue === null ? "none recorded" : `${c.compositionVariable ?? "x"} = ${c.compositionValue}`}${c.series.length ? `; series ${c.series.map((x) => `${x.name} (variable ${x.compositionVariable})`).join(", ")}` : ""}`);
+  if (c.note) line(c.note);
+  if (c.changedSinceSealing.length) line(`sample record changed since sealing (the values above are as sealed): ${c.changedSinceSealing.join("; ")}`);
   h("Data provenance");
   for (const p of report.provenance) line(`${p.label} (${p.kind}, ${p.fieldT} T): ${p.fileName}, ${p.sizeBytes} bytes, ${p.pointCount} points, ${p.tMinK}–${p.tMaxK} K; SHA-256 ${p.sha256}`);
   h("Corrections");
@@ -70,8 +79,16 @@ export async function renderReportPdf(report: RevisionReport): Promise<Uint8Arra
   if (report.warnings.length) { h("Warnings"); for (const w of report.warnings) line(`• ${w}`); }
   if (report.notes.length) { h("Notes"); for (const n of report.notes) line(n); }
   h("Review");
-  line(`submitted by ${report.review.submittedBy ?? "—"} at ${report.review.submittedAt ?? "—"}; approved and sealed by ${report.review.sealedBy ?? "—"} at ${report.review.sealedAt}`);
-  for (const d of report.review.decisions) line(`${d.at}: ${d.decision} by ${d.reviewer ?? "—"}${d.comment ? ` — ${d.comment}` : ""}`);
+  line(`submitted by ${report.review.submittedBy ?? "—"} at ${stamp(report.review.submittedAt)}; approved and sealed by ${report.review.sealedBy ?? "—"} at ${stamp(report.review.sealedAt)}`);
+  const sig = report.signature;
+  if (sig) {
+    h("Signature");
+    line(`${sig.signerName} (${sig.signerEmail}), ${sig.signerRole} of the group, signed on ${stamp(sig.signedAt)}, identity checked by ${sig.method === "password" ? "password" : "a fresh institutional sign-in"}:`);
+    line(`“${sig.statement}”`);
+    line(`Note: ${sig.note}`);
+    if (sig.acknowledgedThreads.length) line(`Open discussion threads acknowledged: ${sig.acknowledgedThreads.map((x) => `${x.openedBy}: “${x.excerpt}”`).join("; ")}`);
+  } else line("Sealed before approvals were signed: no statement of meaning or note was recorded.");
+  for (const d of report.review.decisions) line(`${stamp(d.at)}: ${d.decision} by ${d.reviewer ?? "—"}${d.comment ? ` — ${d.comment}` : ""}`);
   doc.moveDown(1).fontSize(10).text(t(report.safetyNote));
   doc.end();
   await done;
