@@ -54,12 +54,14 @@ export interface MemberRow {
   name: string;
   role: Role;
   since: string;
+  /** false for accounts without a password (restored from a backup, or institutional sign-in only). */
+  hasPassword: boolean;
 }
 
 export async function listMembers(db: Db, member: Member): Promise<MemberRow[]> {
   authorise(member, "group.read");
   const rows = await db.membership.findMany({ where: { groupId: member.group.id }, include: { user: true }, orderBy: { createdAt: "asc" } });
-  return rows.map((m) => ({ userId: m.userId, email: m.user.email, name: m.user.name, role: m.role, since: m.createdAt.toISOString() }));
+  return rows.map((m) => ({ userId: m.userId, email: m.user.email, name: m.user.name, role: m.role, since: m.createdAt.toISOString(), hasPassword: m.user.passwordHash !== null }));
 }
 
 export interface InvitationRow {
