@@ -128,7 +128,7 @@ describe("a sealed fit step's stored output changed behind the triggers", () => 
     const { cli, out } = cliIo({ HEATBOOK_URL: "http://local", HEATBOOK_TOKEN: token });
     expect(await main(["pull", "series", seriesId, "--csv"], cli)).toBe(0);
     expect(out[0]).toBe(csv);
-    const gammaCol = csv.split("\r\n")[0]!.split(",").findIndex((h) => h.startsWith("gamma ["));
+    const gammaCol = csv.split("\r\n")[0]!.split(",").findIndex((h) => h.startsWith("gamma ("));
     expect(Number(csv.split("\r\n")[1]!.split(",")[gammaCol])).toBeCloseTo(sealedGamma * 1e3, 9);
   });
 

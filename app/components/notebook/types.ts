@@ -47,6 +47,8 @@ export interface NotebookData {
   editable: boolean;
   steps: StepView[];
   computeMillis: number;
+  /** Sealed revisions whose stored snapshot no longer matches its content hash: why nothing is shown. */
+  sealProblem?: string | null;
 }
 
 export interface Anchor {

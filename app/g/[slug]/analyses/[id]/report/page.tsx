@@ -55,7 +55,10 @@ export default async function ReportPage({ params, searchParams }: { params: Pro
           <dt>Molar mass</dt><dd>{fmtNumber(r.sample.molarMassGPerMol, 6)} g mol⁻¹ (per formula unit; {r.sample.atomsPerFormulaUnit} atom{r.sample.atomsPerFormulaUnit === 1 ? "" : "s"} per f.u.)</dd>
           <dt>Mass</dt><dd>{r.sample.massMg === null ? "—" : `${fmtNumber(r.sample.massMg, 6)} mg`}</dd>
           <dt>Density</dt><dd>{r.sample.densityGPerCm3 === null ? "—" : `${fmtNumber(r.sample.densityGPerCm3, 5)} g cm⁻³`}</dd>
+          {r.context.pinned === "full" && <><dt>Composition</dt><dd>{r.context.compositionValue === null ? "none recorded" : `${r.context.compositionVariable ?? "x"} = ${fmtNumber(r.context.compositionValue, 6)}`}{r.context.series.length ? ` · series ${r.context.series.map((x) => `${x.name} (variable ${x.compositionVariable})`).join(", ")}` : ""}</dd></>}
         </dl>
+        <p className="small muted">As sealed.{r.context.note ? ` ${r.context.note.charAt(0).toUpperCase()}${r.context.note.slice(1)}.` : ""}</p>
+        {r.context.changedSinceSealing.length > 0 && <p className="rp-changed" data-testid="report-context-changed">Sample record changed since sealing (the values above are as sealed): {r.context.changedSinceSealing.join("; ")}.</p>}
       </section>
 
       <section><h2>Data provenance</h2>
@@ -109,6 +112,16 @@ export default async function ReportPage({ params, searchParams }: { params: Pro
         <dl className="facts">
           <dt>Submitted</dt><dd>{r.review.submittedBy ?? "—"}, {when(r.review.submittedAt)}</dd>
           <dt>Reviewed and sealed</dt><dd data-testid="report-reviewer">{r.review.sealedBy ?? "—"}, {when(r.review.sealedAt)}</dd>
+          {r.signature ? (
+            <>
+              <dt>Signature</dt>
+              <dd data-testid="report-signature">{r.signature.signerName} ({r.signature.signerEmail}), {r.signature.signerRole} of the group, {when(r.signature.signedAt)}; identity checked by {r.signature.method === "password" ? "password" : "a fresh institutional sign-in"}.<br />“{r.signature.statement}”</dd>
+              <dt>Reviewer&apos;s note</dt><dd className="rp-note-text">{r.signature.note}</dd>
+              {r.signature.acknowledgedThreads.length > 0 && <><dt>Open threads acknowledged</dt><dd>{r.signature.acknowledgedThreads.map((x) => `${x.openedBy}: “${x.excerpt}”`).join("; ")}</dd></>}
+            </>
+          ) : (
+            <><dt>Signature</dt><dd className="muted">Sealed before approvals were signed: no statement of meaning or note was recorded.</dd></>
+          )}
           <dt>Content hash (SHA-256)</dt><dd className="mono" data-testid="report-hash">{groupedHash(r.contentHash)}</dd>
           <dt>Engine version</dt><dd>{r.engineVersion}</dd>
         </dl>
