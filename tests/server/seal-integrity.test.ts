@@ -18,6 +18,8 @@ import { getApiAnalysis, setApiLimiter, TokenBucketLimiter } from "../../lib/ser
 import { createToken } from "../../lib/server/tokens";
 import { exportGroup, restoreGroup } from "../../lib/server/backup";
 import { updateSample } from "../../lib/server/samples";
+import { renameAnalysis, setAnalysisArchived } from "../../lib/server/notebook";
+import { contextChanges, pinnedContext } from "../../lib/server/review";
 import { main } from "../../lib/cli/main";
 import type { CliIo } from "../../lib/cli/io";
 import { setFetch } from "../../lib/cli/commands/push";
@@ -196,6 +198,30 @@ describe("the sample record edited after sealing", () => {
   });
 });
 
+describe("renaming and archiving an analysis with a sealed revision", () => {
+  it("renameAnalysis and setAnalysisArchived are allowed and audited; the series still shows the sealed row, marked", async () => {
+    await renameAnalysis(t.db, f.members.analyst, r.analysisId, { title: "tamper target (renamed)" });
+    await setAnalysisArchived(t.db, f.members.analyst, r.analysisId, true);
+    const actions = (await t.db.auditEvent.findMany({ where: { objectId: r.analysisId }, orderBy: { id: "asc" } })).map((e) => e.action);
+    expect(actions).toEqual(expect.arrayContaining(["analysis.rename", "analysis.archive"]));
+    const row = (await seriesView(t.db, f.members.viewer, seriesId)).rows.find((x) => x.revision?.revisionId === r.revisionId)!;
+    expect(row.revision).toMatchObject({ analysisTitle: "tamper target (renamed)", analysisArchived: true, state: "sealed" });
+    expect(row.gamma!.value).toBeCloseTo(sealedGamma * 1e3, 9);
+    await setAnalysisArchived(t.db, f.members.analyst, r.analysisId, false);
+  });
+});
+
+describe("pinnedContext of a snapshot sealed before composition was pinned (format 1)", () => {
+  it("pinnedContext keeps the chain's fields, leaves composition unknown and says so; contextChanges compares only what was pinned", async () => {
+    const snap = (await t.db.analysisRevision.findUniqueOrThrow({ where: { id: r.revisionId } })).snapshot as unknown as RevisionSnapshot;
+    const { context: _c, signature: _s, ...v1 } = { ...snap, format: "heatbook-seal/1" as const };
+    const ctx = pinnedContext(v1);
+    expect(ctx).toMatchObject({ pinned: "chain", sample: { formula: "Cu", compositionValue: null }, note: expect.stringMatching(/^composition x not pinned: sealed before composition was part of the seal/) });
+    const changes = contextChanges(ctx, { formula: "Cu", molarMassGPerMol: snap.inputs.sample.molarMassGPerMol, atomsPerFormulaUnit: 1, massMg: snap.inputs.sample.massMg, densityGPerCm3: null, valences: {}, compositionVariable: "x", compositionValue: 0.3 });
+    expect(changes).toEqual([]);
+  });
+});
+
 describe("the sealed snapshot itself changed behind the triggers", () => {
   beforeAll(async () => {
     await asOwnerWithoutTriggers(`UPDATE "AnalysisRevision" SET snapshot = jsonb_set(snapshot, '{analysis,title}', '"renamed in the dark"') WHERE id = $1`, [r.revisionId]);
@@ -210,6 +236,6 @@ describe("the sealed snapshot itself changed behind the triggers", () => {
   });
 
   it("seriesView refuses naming the revision instead of serving its numbers", async () => {
-    await expect(seriesView(t.db, f.members.viewer, seriesId)).rejects.toMatchObject({ name: "ConflictError", message: expect.stringMatching(/“tamper target” .* content hash/) });
+    await expect(seriesView(t.db, f.members.viewer, seriesId)).rejects.toMatchObject({ name: "ConflictError", message: expect.stringMatching(/revision 1 of “tamper target \(renamed\)” .* content hash/) });
   });
 });
