@@ -1,6 +1,6 @@
 /**
  * `npm run bench`: every benchmark, printed as markdown tables with the machine they ran on.
- * `npm run bench -- engine` (or import, notebook) runs one part.
+ * `npm run bench -- engine` (or import, notebook, browser) runs one part; browser needs a build.
  */
 import { cpus, totalmem } from "node:os";
 
@@ -8,6 +8,7 @@ const parts: Record<string, () => Promise<string>> = {
   engine: async () => (await import("./engine")).runEngineBench(),
   import: async () => (await import("./import")).runImportBench(),
   notebook: async () => (await import("./notebook")).runNotebookBench(),
+  browser: async () => (await import("./browser")).runBrowserBench(),
 };
 
 const wanted = process.argv.slice(2).filter((a) => !a.startsWith("-"));

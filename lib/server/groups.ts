@@ -56,12 +56,14 @@ export interface MemberRow {
   since: string;
   /** false for accounts without a password (restored from a backup, or institutional sign-in only). */
   hasPassword: boolean;
+  /** For @mentions in discussions, unique within the group. */
+  handle: string;
 }
 
 export async function listMembers(db: Db, member: Member): Promise<MemberRow[]> {
   authorise(member, "group.read");
   const rows = await db.membership.findMany({ where: { groupId: member.group.id }, include: { user: true }, orderBy: { createdAt: "asc" } });
-  return rows.map((m) => ({ userId: m.userId, email: m.user.email, name: m.user.name, role: m.role, since: m.createdAt.toISOString(), hasPassword: m.user.passwordHash !== null }));
+  return rows.map((m) => ({ userId: m.userId, email: m.user.email, name: m.user.name, role: m.role, since: m.createdAt.toISOString(), hasPassword: m.user.passwordHash !== null, handle: m.handle }));
 }
 
 export interface InvitationRow {
