@@ -187,6 +187,10 @@ describe("the sample record edited after sealing", () => {
     expect(row.context).toMatchObject({ source: "sealed", changedSinceSealing: expect.arrayContaining([expect.stringMatching(/^formula Cu → Ag$/)]) });
     expect(row.warnings.join("\n")).toMatch(/sample record changed since sealing: .*formula Cu → Ag/);
     expect(seriesCsv(await seriesView(t.db, f.members.viewer, seriesId))).toMatch(/formula Cu → Ag/);
+    restoreFetch = setFetch(dispatch());
+    const { cli, out } = cliIo({ HEATBOOK_URL: "http://local", HEATBOOK_TOKEN: token });
+    expect(await main(["pull", "series", seriesId], cli)).toBe(0);
+    expect(out[0]).toMatch(/rev 1 sealed \[1\]\n\[1\] RV-1: sample record changed since sealing: .*formula Cu → Ag/);
   });
 
   it("getApiAnalysis lists the change beside the sealed context; verifyRevision names it in its summary", async () => {
