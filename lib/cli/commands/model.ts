@@ -9,7 +9,7 @@
 import type { CliIo } from "../io";
 import { formatFlagHelp, getAssignments, getBoolean, getList, parseArgs, type FlagSpec, reportFailure } from "../args";
 import { InputError } from "../../engine/errors";
-import { getModel, MODELS, type HeatCapacityModel } from "../../engine/models";
+import { evaluateHeatCapacity, getModel, MODELS, type HeatCapacityModel } from "../../engine/models";
 
 const FLAGS: Record<string, FlagSpec> = {
   set: { kind: "assignments", meta: "p=v,...", help: "parameter values in display units (and r=N)" },
@@ -55,7 +55,7 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
     const r = set.r ?? 1;
     if (!(r > 0)) throw new InputError(`invalid r: ${r} (must be > 0)`, { field: "set" });
     const params = siParameters(model, set);
-    const values = T.map((t) => model.evaluate(t, params, { r }));
+    const values = evaluateHeatCapacity(model, T, params, { r });
     if (getBoolean(args, "json")) io.out(JSON.stringify({ model: model.name, formula: model.formula, parameters: params, r, temperatureK: T, unit: "J/(mol*K)", values }));
     else {
       io.out(`${model.name}: ${model.formula}   (C in J/(mol K) per mole formula unit, r = ${r})`);
