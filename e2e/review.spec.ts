@@ -1,11 +1,14 @@
 /**
  * Review and seal on the demo data (invented): the analyst sends a copy of the drafting NM-05
  * analysis for review, the reviewer asks for changes with a comment, the analyst narrows the fit
- * window (JSON route, with the step's version) and sends it back, the reviewer approves; the page
- * shows the seal (hash, reviewer, time), Verify passes, the report renders and the PDF downloads.
+ * window (JSON route, with the step's version) and sends it back (each send confirmed in a
+ * dialog), the reviewer signs the approval: the confirmation shows what is sealed, a wrong password
+ * seals nothing, an open discussion thread blocks until acknowledged, and the note and meaning are
+ * required; the page shows the seal (hash, reviewer, time, signature), Verify passes, the report
+ * renders with the signature and the PDF downloads.
  */
 import { test, expect, type Browser, type Page } from "@playwright/test";
-import { DEMO, uiSignIn } from "./helpers";
+import { DEMO, DEMO_PASSWORD, uiSignIn } from "./helpers";
 
 const SLUG = "cryogenic-calorimetry-lab-demo";
 const GROUP = `/g/${SLUG}`;
@@ -39,6 +42,9 @@ test("analyst submits, reviewer asks for changes, analyst fixes and resubmits, r
   await analyst.goto(page);
   await expect(analyst.getByTestId("review-state")).toHaveText("Drafting");
   await analyst.getByTestId("review-submit").click();
+  await expect(analyst.getByTestId("submit-dialog")).toContainText("Its steps freeze while a reviewer looks at them");
+  await analyst.screenshot({ path: "test-results/submit-dialog.png" });
+  await analyst.getByTestId("submit-confirm").click();
   await expect(analyst.getByTestId("review-state")).toHaveText("With reviewer", { timeout: 30_000 });
   await expect(analyst.getByTestId("review-approve")).toHaveCount(0); // no self-approval in the demo group
 
@@ -64,15 +70,44 @@ test("analyst submits, reviewer asks for changes, analyst fixes and resubmits, r
   await expect(analyst.getByTestId("review-state")).toHaveText("Changes requested");
   await expect(analyst.getByTestId("decision-history")).toContainText("asked for changes");
   await analyst.getByTestId("review-resubmit").click();
+  await analyst.getByTestId("submit-confirm").click();
   await expect(analyst.getByTestId("review-state")).toHaveText("With reviewer", { timeout: 30_000 });
+  const thread = await analyst.request.post(`${API}/analyses/${id}/threads`, { data: { body: "Is the 4 K point inside the window on purpose?" } });
+  expect(thread.status(), await thread.text()).toBe(201);
 
   await reviewer.goto(page);
   await reviewer.getByTestId("review-approve").click();
+  const dialog = reviewer.getByTestId("sign-dialog");
+  await expect(dialog.getByTestId("sign-what")).toContainText("SHA-256");
+  await expect(dialog.getByTestId("sign-numbers")).toContainText("γ");
+  await expect(dialog.getByTestId("sign-threads")).toContainText("Is the 4 K point inside the window on purpose?");
+  const seal = dialog.getByTestId("sign-seal");
+  await expect(seal).toBeDisabled(); // no meaning, note, password, acknowledgement yet
+  await dialog.getByTestId("meaning-internal").check();
+  await expect(dialog.getByTestId("sign-statement")).toContainText("I have reviewed this analysis and approve its results");
+  await dialog.getByTestId("sign-note").fill("Window now stops at 4.5 K; residuals flat; 4 K point kept.");
+  await dialog.getByTestId("sign-password").fill("not-my-password");
+  await expect(seal).toBeDisabled(); // the open thread is not acknowledged
+  await dialog.getByTestId("ack-thread").check();
+  await reviewer.screenshot({ path: "test-results/sign-dialog.png", fullPage: true });
+  await seal.click();
+  await expect(dialog.getByTestId("sign-error")).toContainText("the password is wrong; nothing was sealed");
+  await expect(reviewer.getByTestId("review-state")).toHaveText("With reviewer");
+  // The server blocks an unacknowledged open thread too (the dialog only mirrors it).
+  const status = (await (await reviewer.request.get(`${API}/analyses/${id}/review`)).json()).review;
+  const direct = await reviewer.request.post(`${API}/analyses/${id}/review`, { data: { revisionId: status.revisions[0].id, action: "approve", version: status.revisions[0].version, meaning: "internal", comment: "ok", password: DEMO_PASSWORD } });
+  expect(direct.status()).toBe(422);
+  expect((await direct.json()).error).toMatch(/discussion thread is still open/);
+  await dialog.getByTestId("sign-password").fill(DEMO_PASSWORD);
+  await seal.click();
   await expect(reviewer.getByTestId("review-state")).toHaveText("Sealed", { timeout: 30_000 });
   const lock = reviewer.getByTestId("lock-panel");
   await expect(lock.getByTestId("content-hash")).toHaveText(/^[0-9a-f]{8}( [0-9a-f]{8}){7}$/);
   await expect(lock.getByTestId("sealed-by")).toHaveText(/Rosa/);
   await expect(lock.getByTestId("sealed-at")).toHaveText(/^\d{4}-\d\d-\d\d \d\d:\d\d UTC$/);
+  await expect(lock.getByTestId("seal-signature")).toContainText("approve its results as final for use within the group");
+  await expect(lock.getByTestId("seal-note")).toHaveText("Window now stops at 4.5 K; residuals flat; 4 K point kept.");
+  await reviewer.screenshot({ path: "test-results/sealed-panel.png", fullPage: true });
 
   await lock.getByTestId("verify").click();
   await expect(lock.getByTestId("verify-summary")).toContainText("Verified: content hash verified", { timeout: 30_000 });
@@ -83,6 +118,7 @@ test("analyst submits, reviewer asks for changes, analyst fixes and resubmits, r
   await expect(reviewer.getByTestId("report")).toBeVisible();
   await expect(reviewer.getByTestId("report-hash")).toHaveText(hash);
   await expect(reviewer.getByTestId("report-reviewer")).toContainText("Rosa");
+  await expect(reviewer.getByTestId("report-signature")).toContainText("reviewer of the group");
   await expect(reviewer.getByTestId("report-parameters").first()).toContainText("γ");
   await expect(reviewer.getByTestId("report-safety")).toContainText("expert review");
   await expect(reviewer.locator(".rp-figure svg")).toHaveCount(1);

@@ -54,6 +54,8 @@ export interface MemberRow {
   name: string;
   role: Role;
   since: string;
+  /** false for accounts without a password (restored from a backup, or institutional sign-in only). */
+  hasPassword: boolean;
   /** For @mentions in discussions, unique within the group. */
   handle: string;
 }
@@ -61,7 +63,7 @@ export interface MemberRow {
 export async function listMembers(db: Db, member: Member): Promise<MemberRow[]> {
   authorise(member, "group.read");
   const rows = await db.membership.findMany({ where: { groupId: member.group.id }, include: { user: true }, orderBy: { createdAt: "asc" } });
-  return rows.map((m) => ({ userId: m.userId, email: m.user.email, name: m.user.name, role: m.role, since: m.createdAt.toISOString(), handle: m.handle }));
+  return rows.map((m) => ({ userId: m.userId, email: m.user.email, name: m.user.name, role: m.role, since: m.createdAt.toISOString(), hasPassword: m.user.passwordHash !== null, handle: m.handle }));
 }
 
 export interface InvitationRow {

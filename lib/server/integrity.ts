@@ -9,6 +9,7 @@
 import type { Db } from "./db/client";
 import type { AuditKey } from "./auditKey";
 import { verifyAuditChains, type AuditReport, type CheckpointHead } from "./auditVerify";
+import { describeMismatch, verifySealedRevisions } from "./review/integrity";
 
 export interface IntegrityScope {
   db: Db;
@@ -47,8 +48,29 @@ export const auditChainsCheck: IntegrityCheck = {
   },
 };
 
+/**
+ * Sealed revisions against their snapshots (lib/server/review/integrity.ts): stored step rows,
+ * measurements, files, the seal's audit event and an engine re-run; names every mismatch. Sample
+ * records edited since sealing are named as notes, not failures (the sealed context is pinned).
+ */
+export const sealedRevisionsCheck: IntegrityCheck = {
+  name: "sealed revisions",
+  async run(scope) {
+    const groups = scope.groupIds ?? [undefined];
+    const all = await Promise.all(groups.map((groupId) => verifySealedRevisions(scope.db, { ...(groupId ? { groupId } : {}), engine: true })));
+    const checked = all.reduce((n, r) => n + r.checked, 0);
+    const mismatches = all.flatMap((r) => r.mismatches);
+    const notes = all.flatMap((r) => r.contextChanged);
+    const ok = mismatches.length === 0;
+    const summary = ok
+      ? `sealed revisions verified: ${checked} checked against their snapshots (stored steps, measurements, files, seal events, engine re-run)${notes.length ? `; ${notes.length} with the sample record changed since sealing (sealed numbers unchanged)` : ""}`
+      : `sealed revisions NOT verified: ${mismatches.length} ${mismatches.length === 1 ? "mismatch" : "mismatches"} in ${checked} sealed revisions; first: ${describeMismatch(mismatches[0]!)}`;
+    return { check: this.name, ok, summary, problems: mismatches.map((m) => ({ where: `analysis ${m.analysisId} revision ${m.number}`, message: m.what })), detail: { checked, mismatches, contextChanged: notes } };
+  },
+};
+
 /** Run in this order. Add further checks here (see the module comment). */
-export const INTEGRITY_CHECKS: IntegrityCheck[] = [auditChainsCheck];
+export const INTEGRITY_CHECKS: IntegrityCheck[] = [auditChainsCheck, sealedRevisionsCheck];
 
 /** Run every check; ok when all are. */
 export async function runIntegrityChecks(scope: IntegrityScope, checks: readonly IntegrityCheck[] = INTEGRITY_CHECKS): Promise<{ ok: boolean; findings: IntegrityFinding[] }> {

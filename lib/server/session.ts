@@ -20,7 +20,7 @@ function sessionCookieName(): string {
 }
 
 const TOKEN_CACHE_SIZE = 2000;
-const decoded = new Map<string, { uid: string | null; expMs: number }>();
+const decoded = new Map<string, { uid: string | null; expMs: number; via: string | null; authAtMs: number | null }>();
 
 /** The session token of the request: the cookie, or its chunks name.0, name.1, … joined in order. */
 async function sessionToken(): Promise<string | null> {
@@ -33,13 +33,13 @@ async function sessionToken(): Promise<string | null> {
   return chunks.sort((a, b) => Number(a.name.slice(name.length + 1)) - Number(b.name.slice(name.length + 1))).map((c) => c.value).join("");
 }
 
-/** The user id in the request's session, or null (no cookie, bad or expired token). */
-export async function sessionUserId(): Promise<string | null> {
+/** The request's decoded session: user id, how they signed in ("password", "institution") and when. */
+async function sessionClaims(): Promise<{ uid: string | null; via: string | null; authAtMs: number | null } | null> {
   const token = await sessionToken();
   if (!token) return null;
   const now = Date.now();
   const hit = decoded.get(token);
-  if (hit && hit.expMs > now) return hit.uid;
+  if (hit && hit.expMs > now) return hit;
   const secret = process.env.NEXTAUTH_SECRET ?? process.env.AUTH_SECRET;
   if (!secret) return null;
   let payload: Awaited<ReturnType<typeof decode>>;
@@ -50,10 +50,22 @@ export async function sessionUserId(): Promise<string | null> {
   }
   const uid = typeof payload?.uid === "string" ? payload.uid : null;
   const exp = typeof payload?.exp === "number" ? payload.exp * 1000 : now;
+  const claims = { uid, expMs: exp, via: typeof payload?.via === "string" ? payload.via : null, authAtMs: typeof payload?.authAt === "number" ? payload.authAt * 1000 : null };
   decoded.delete(token);
-  decoded.set(token, { uid, expMs: exp });
+  decoded.set(token, claims);
   while (decoded.size > TOKEN_CACHE_SIZE) decoded.delete(decoded.keys().next().value!);
-  return uid;
+  return claims;
+}
+
+/** The user id in the request's session, or null (no cookie, bad or expired token). */
+export async function sessionUserId(): Promise<string | null> {
+  return (await sessionClaims())?.uid ?? null;
+}
+
+/** When the session's institutional (OpenID Connect) sign-in happened; null for other sessions. */
+export async function institutionSignInAt(): Promise<Date | null> {
+  const c = await sessionClaims();
+  return c?.via === "institution" && c.authAtMs !== null ? new Date(c.authAtMs) : null;
 }
 
 export async function currentUser(): Promise<UserInfo | null> {

@@ -2,12 +2,11 @@ import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import { gunzipSync, gzipSync } from "node:zlib";
 import { freshDatabase, type TestDatabase } from "../helpers/db";
 import { makeGroup, type GroupFixture } from "./fixtures";
-import { makeAnalysis } from "./apiFixtures";
+import { makeAnalysis, sealAsIs } from "./apiFixtures";
 import { createSample } from "../../lib/server/samples";
 import { importMeasurement } from "../../lib/server/measurements";
 import { createSeries } from "../../lib/server/series";
 import { verifyAuditChain } from "../../lib/server/audit";
-import { contentHash } from "../../lib/server/hash";
 import { exportGroup, restoreGroup, readArchive, verifyGroupAuditChain } from "../../lib/server/backup";
 import { ConflictError, InputError } from "../../lib/engine/errors";
 import { auditKeyFromText } from "../../lib/server/auditKey";
@@ -31,9 +30,8 @@ beforeAll(async () => {
   // A second revision sealed after the first, which becomes replaced (what revising does).
   const rev2 = await src.db.analysisRevision.create({ data: { analysisId: first.analysisId, number: 2, basedOnId: first.revisionId } });
   await src.db.step.create({ data: { revisionId: rev2.id, position: 0, kind: "note", config: { text: "v2" }, output: { kind: "note", ok: true, error: null, warnings: [], result: {} } } });
-  await src.db.analysisRevision.update({ where: { id: rev2.id }, data: { state: "in_review", submittedAt: new Date() } });
-  const snapshot = { inputs: { measurements: [{ id: m.id, sha256: m.sha256 }] }, note: "v2" };
-  await src.db.analysisRevision.update({ where: { id: rev2.id }, data: { state: "sealed", sealedAt: new Date(), sealedById: A.members.reviewer.userId, snapshot, contentHash: contentHash(snapshot) } });
+  await src.db.step.create({ data: { revisionId: rev2.id, position: 1, kind: "data", config: { measurementIds: [m.id] }, output: { kind: "data", ok: true, error: null, warnings: [], result: {} } } });
+  await sealAsIs(src.db, A.members.reviewer, rev2.id);
   await src.db.analysisRevision.update({ where: { id: first.revisionId }, data: { state: "replaced" } });
   await src.db.reviewDecision.create({ data: { revisionId: rev2.id, reviewerId: A.members.reviewer.userId, decision: "approve", comment: "fine" } });
   await makeAnalysis(src.db, A.members.analyst, { sampleId: s.id, gamma: [7.7, 0.2], beta: [0.12, 0.01], state: "open", title: "draft" });

@@ -1,4 +1,5 @@
 /** Test fixtures for server integration tests: users and a group with one member per role. */
+import bcrypt from "bcryptjs";
 import type { Db } from "../../lib/server/db/client";
 import { createGroup } from "../../lib/server/groups";
 import { memberOf, type Member } from "../../lib/server/access";
@@ -6,10 +7,18 @@ import type { Role } from "../../lib/server/permissions";
 
 let counter = 0;
 
+/** Every fixture user's password (bcrypt cost 4: fast, for tests only). */
+export const TEST_PASSWORD = "fixture-password-1";
+let testHash: Promise<string> | null = null;
+const passwordHash = () => (testHash ??= bcrypt.hash(TEST_PASSWORD, 4));
+
+/** What approving needs besides the note: a meaning and the signer's password. */
+export const SIGN = { meaning: "internal", password: TEST_PASSWORD } as const;
+
 export async function makeUser(db: Db, name = "user"): Promise<{ id: string; email: string }> {
   counter++;
   const email = `${name}-${counter}-${Date.now()}@example.org`;
-  const u = await db.user.create({ data: { email, name } });
+  const u = await db.user.create({ data: { email, name, passwordHash: await passwordHash() } });
   return { id: u.id, email };
 }
 

@@ -8,7 +8,7 @@ import type { Db } from "../../lib/server/db/client";
 import { createSample } from "../../lib/server/samples";
 import { importMeasurement } from "../../lib/server/measurements";
 import { reviewTransition } from "../../lib/server/review";
-import { makeGroup, type GroupFixture } from "./fixtures";
+import { makeGroup, SIGN, type GroupFixture } from "./fixtures";
 import { fullChain, inventedCurve, writeSteps } from "./reviewFixtures";
 
 export interface SeriesFixture extends GroupFixture {
@@ -39,7 +39,7 @@ export async function makeSeriesFixture(db: Db, opts: { samples: number; points?
   if (opts.sealFirst) {
     const a = analyses[0]!;
     await reviewTransition(db, g.members.analyst, a.analysisId, a.revisionId, { action: "submit", version: 1 });
-    await reviewTransition(db, g.members.reviewer, a.analysisId, a.revisionId, { action: "approve", version: 2 });
+    await reviewTransition(db, g.members.reviewer, a.analysisId, a.revisionId, { action: "approve", version: 2, ...SIGN, comment: "fixture approval" });
     sealed = { analysisId: a.analysisId, revisionId: a.revisionId };
   }
   return { ...g, seriesId: series.id, analyses, sealed };

@@ -5,6 +5,7 @@
  */
 import { describe, it, expect, beforeAll, afterAll, vi } from "vitest";
 import { freshDatabase, type TestDatabase } from "../helpers/db";
+import { SIGN } from "./fixtures";
 import { fullChain, makeAnalysis, makeReviewFixture, writeSteps, type ReviewFixture } from "./reviewFixtures";
 import { buildReport, renderReportPdf, reviewTransition, SAFETY_SENTENCE } from "../../lib/server/review";
 import { expectClose } from "../helpers/expectClose";
@@ -24,7 +25,7 @@ beforeAll(async () => {
   r = await makeAnalysis(t.db, f, f.sampleId, f.measurementId, "report me");
   await writeSteps(t.db, f.groupId, f.sampleId, r.revisionId, fullChain(f.measurementId));
   await reviewTransition(t.db, f.members.analyst, r.analysisId, r.revisionId, { action: "submit", version: 1 });
-  await reviewTransition(t.db, f.members.reviewer, r.analysisId, r.revisionId, { action: "approve", version: 2 });
+  await reviewTransition(t.db, f.members.reviewer, r.analysisId, r.revisionId, { action: "approve", version: 2, ...SIGN, comment: "Checked the window scan and the residuals." });
 });
 afterAll(async () => { await t.drop(); });
 

@@ -5,6 +5,7 @@
  */
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import { freshDatabase, type TestDatabase } from "../helpers/db";
+import { SIGN } from "./fixtures";
 import { fullChain, makeAnalysis, makeReviewFixture, writeSteps, type ReviewFixture } from "./reviewFixtures";
 import { diffRevisions, reviewTransition, reviseSealed, reviewStatus, verifyRevision, awaitingMyReview, sentBackToMe, type ReviewAction } from "../../lib/server/review";
 import { updateStep } from "../../lib/server/notebook";
@@ -17,7 +18,7 @@ let second: { revisionId: string };
 
 async function act(role: Role, action: ReviewAction, r: { analysisId: string; revisionId: string }, comment?: string) {
   const v = (await t.db.analysisRevision.findUniqueOrThrow({ where: { id: r.revisionId } })).version;
-  return reviewTransition(t.db, f.members[role], r.analysisId, r.revisionId, { action, version: v, ...(comment ? { comment } : {}) });
+  return reviewTransition(t.db, f.members[role], r.analysisId, r.revisionId, { action, version: v, ...(comment ? { comment } : {}), ...(action === "approve" ? { ...SIGN, comment: comment ?? "checked the fit window and residuals" } : {}) });
 }
 
 beforeAll(async () => {

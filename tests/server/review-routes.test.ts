@@ -6,6 +6,7 @@
  */
 import { describe, it, expect, beforeAll, afterAll, vi } from "vitest";
 import { freshDatabase, type TestDatabase } from "../helpers/db";
+import { SIGN } from "./fixtures";
 import { fullChain, makeAnalysis, makeReviewFixture, writeSteps, type ReviewFixture } from "./reviewFixtures";
 import type { Role } from "../../lib/server/permissions";
 
@@ -40,7 +41,7 @@ async function call(as: Role | null, handler: Handler, params: Record<string, st
 
 async function act(as: Role, action: string, comment?: string) {
   const v = (await t.db.analysisRevision.findUniqueOrThrow({ where: { id: r.revisionId } })).version;
-  return call(as, review.POST, { id: r.analysisId }, { json: { revisionId: r.revisionId, action, version: v, ...(comment ? { comment } : {}) } });
+  return call(as, review.POST, { id: r.analysisId }, { json: { revisionId: r.revisionId, action, version: v, ...(comment ? { comment } : {}), ...(action === "approve" ? { ...SIGN, comment: comment ?? "checked the fit window and residuals" } : {}) } });
 }
 
 beforeAll(async () => {

@@ -6,6 +6,7 @@
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import pg from "pg";
 import { freshDatabase, type TestDatabase } from "../helpers/db";
+import { SIGN } from "./fixtures";
 import { fullChain, makeAnalysis, makeReviewFixture, writeSteps, type ReviewFixture } from "./reviewFixtures";
 import { reviewTransition, reproduceSnapshot, verifyRevision, type RevisionSnapshot, type ReviewAction } from "../../lib/server/review";
 import { contentHash, sha256Hex } from "../../lib/server/hash";
@@ -22,7 +23,7 @@ let analysisId: string;
 
 async function act(role: Role, action: ReviewAction, r: { analysisId: string; revisionId: string }, comment?: string) {
   const v = (await t.db.analysisRevision.findUniqueOrThrow({ where: { id: r.revisionId } })).version;
-  return reviewTransition(t.db, f.members[role], r.analysisId, r.revisionId, { action, version: v, ...(comment ? { comment } : {}) });
+  return reviewTransition(t.db, f.members[role], r.analysisId, r.revisionId, { action, version: v, ...(comment ? { comment } : {}), ...(action === "approve" ? { ...SIGN, comment: comment ?? "checked the fit window and residuals" } : {}) });
 }
 
 async function fullAnalysis(title: string) {

@@ -5,6 +5,7 @@
  */
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import { freshDatabase, type TestDatabase } from "../helpers/db";
+import { SIGN } from "./fixtures";
 import { makeAnalysis, makeReviewFixture, writeSteps, type ReviewFixture } from "./reviewFixtures";
 import { reviewTransition, type ReviewAction, type RevisionState } from "../../lib/server/review";
 import { updateGroupSettings } from "../../lib/server/groups";
@@ -22,7 +23,7 @@ async function version(revisionId: string): Promise<number> {
 }
 
 async function act(role: Role, action: ReviewAction, r: { analysisId: string; revisionId: string }, comment?: string) {
-  return reviewTransition(t.db, f.members[role], r.analysisId, r.revisionId, { action, version: await version(r.revisionId), ...(comment !== undefined ? { comment } : {}) });
+  return reviewTransition(t.db, f.members[role], r.analysisId, r.revisionId, { action, version: await version(r.revisionId), ...(comment !== undefined ? { comment } : {}), ...(action === "approve" ? { ...SIGN, comment: comment || "checked the fit window and residuals" } : {}) });
 }
 
 /** A fresh revision brought to `state` the ordinary way (analyst submits, reviewer decides). */
@@ -90,7 +91,7 @@ describe("reviewTransition, wrong state and stale version", () => {
     const r = await revisionIn("open");
     const v = await version(r.revisionId);
     await reviewTransition(t.db, f.members.analyst, r.analysisId, r.revisionId, { action: "submit", version: v });
-    await expect(reviewTransition(t.db, f.members.reviewer, r.analysisId, r.revisionId, { action: "approve", version: v })).rejects.toMatchObject({ name: "ConflictError", message: expect.stringMatching(/changed meanwhile/) });
+    await expect(reviewTransition(t.db, f.members.reviewer, r.analysisId, r.revisionId, { action: "approve", version: v, ...SIGN, comment: "ok" })).rejects.toMatchObject({ name: "ConflictError", message: expect.stringMatching(/changed meanwhile/) });
     expect((await t.db.analysisRevision.findUniqueOrThrow({ where: { id: r.revisionId } })).state).toBe("in_review");
   });
 
@@ -109,7 +110,7 @@ describe("reviewTransition, wrong state and stale version", () => {
   it("reviewTransition on another group's revision is not found", async () => {
     const r = await revisionIn("in_review");
     const other = await makeReviewFixture(t.db);
-    await expect(reviewTransition(t.db, other.members.owner, r.analysisId, r.revisionId, { action: "approve", version: 2 })).rejects.toMatchObject({ name: "NotFoundError" });
+    await expect(reviewTransition(t.db, other.members.owner, r.analysisId, r.revisionId, { action: "approve", version: 2, ...SIGN, comment: "ok" })).rejects.toMatchObject({ name: "NotFoundError" });
   });
 
   it("reviewTransition submit of a chain with a failing step is refused naming the step", async () => {
@@ -128,7 +129,7 @@ describe("reviewTransition, the submitter as reviewer", () => {
     await updateGroupSettings(t.db, f.members.owner, { allowSelfApproval: true });
     try {
       const owner = await memberOf(t.db, f.members.owner.userId, f.slug);
-      const res = await reviewTransition(t.db, owner, r.analysisId, r.revisionId, { action: "approve", version: await version(r.revisionId) });
+      const res = await reviewTransition(t.db, owner, r.analysisId, r.revisionId, { action: "approve", version: await version(r.revisionId), ...SIGN, comment: "ok" });
       expect(res.state).toBe("sealed");
     } finally {
       await updateGroupSettings(t.db, f.members.owner, { allowSelfApproval: false });

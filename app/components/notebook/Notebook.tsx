@@ -121,6 +121,7 @@ export function Notebook(props: Props) {
       <RevisionBar nb={nb} live={live} />
       {/* The review actions (app/components/review); remounted when the revision's state or version moves. */}
       <ReviewBar key={`${nb.revision.id}:${nb.revision.state}:${nb.revision.version}`} slug={slug} analysisId={analysisId} revision={{ id: nb.revision.id }} onChanged={() => void refresh()} />
+      {nb.sealProblem && <p className="form-error" role="alert" data-testid="seal-problem">{nb.sealProblem}</p>}
       {flash && <div className="nb-flash" role="status" data-testid="live-notice">{flash}</div>}
       {(nb.computing || progress) && (
         <div className="nb-flash" role="status" data-testid="computing-notice">

@@ -49,6 +49,8 @@ export interface NotebookData {
   computeMillis: number;
   /** The server answered before the computation ended; a live event follows when it does. */
   computing?: boolean;
+  /** Sealed revisions whose stored snapshot no longer matches its content hash: why nothing is shown. */
+  sealProblem?: string | null;
 }
 
 export interface Anchor {

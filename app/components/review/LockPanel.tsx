@@ -7,14 +7,16 @@
 import Link from "next/link";
 import { useState } from "react";
 import { callJson } from "@/app/_lib/api";
-import type { VerifyReport } from "@/lib/server/review";
+import type { SealSignature, VerifyReport } from "@/lib/server/review";
 import { groupedHash, when } from "./labels";
 
 interface Props {
   apiBase: string;
   pageBase: string;
-  revision: { id: string; number: number; state: string; seal: { contentHash: string; sealedBy: { name: string } | null; sealedAt: string } };
+  revision: { id: string; number: number; state: string; seal: { contentHash: string; sealedBy: { name: string } | null; sealedAt: string; signature: SealSignature | null; contextNote: string | null } };
 }
+
+const ROLE_TEXT: Record<string, string> = { owner: "group owner", reviewer: "reviewer", analyst: "analyst", viewer: "viewer" };
 
 const OUTCOME: Record<string, string> = { identical: "reproduced exactly", "within-tolerance": "reproduced within tolerance", differs: "does not reproduce" };
 
@@ -61,6 +63,26 @@ export function LockPanel({ apiBase, pageBase, revision }: Props) {
         <dd data-testid="sealed-by">{seal.sealedBy?.name ?? "—"}</dd>
         <dt>Sealed at</dt>
         <dd data-testid="sealed-at">{when(seal.sealedAt)}</dd>
+        {seal.signature ? (
+          <>
+            <dt>Signature</dt>
+            <dd data-testid="seal-signature">
+              {seal.signature.signerName} ({ROLE_TEXT[seal.signature.signerRole] ?? seal.signature.signerRole}), {when(seal.signature.signedAt)}, identity checked by {seal.signature.method === "password" ? "password" : "a fresh institutional sign-in"}:
+              <blockquote className="rv-statement">“{seal.signature.statement}”</blockquote>
+            </dd>
+            <dt>Note</dt>
+            <dd data-testid="seal-note" className="rv-note">{seal.signature.note}</dd>
+            {seal.signature.acknowledgedThreads.length > 0 && (
+              <>
+                <dt>Open threads acknowledged</dt>
+                <dd><ul className="rv-checks small">{seal.signature.acknowledgedThreads.map((t) => <li key={t.id}>{t.openedBy}: “{t.excerpt}”</li>)}</ul></dd>
+              </>
+            )}
+          </>
+        ) : (
+          <><dt>Signature</dt><dd className="small muted">Sealed before approvals were signed: no statement of meaning or note was recorded.</dd></>
+        )}
+        {seal.contextNote && <><dt>Sample context</dt><dd className="small">{seal.contextNote}</dd></>}
       </dl>
       <div className="actions">
         <button type="button" className="quiet small" onClick={verify} disabled={busy} data-testid="verify">{busy ? "Verifying…" : "Verify"}</button>
@@ -73,14 +95,23 @@ export function LockPanel({ apiBase, pageBase, revision }: Props) {
   );
 }
 
+const fmt = (v: unknown) => (v === null || v === undefined ? "—" : typeof v === "object" ? JSON.stringify(v) : String(v));
+
 function VerifyResult({ report }: { report: VerifyReport }) {
   return (
     <div className="rv-verify" data-testid="verify-report">
       <p className={report.ok ? "notice-ok" : "form-error"} data-testid="verify-summary">
         {report.ok ? "Verified: " : "Not verified: "}{report.summary}
       </p>
+      {report.mismatches.length > 0 && (
+        <ul className="rv-checks small" data-testid="verify-mismatches">
+          {report.mismatches.map((m, i) => <li key={i}>✕ {m.what}</li>)}
+        </ul>
+      )}
+      {report.contextChanges.length > 0 && <p className="small notice-info" data-testid="verify-context">Sample record changed since sealing: {report.contextChanges.map((c) => `${c.label} ${fmt(c.sealed)} → ${fmt(c.now)}`).join("; ")}. The sealed numbers and the sealed context are unchanged.</p>}
       <ul className="rv-checks small">
         <li>{report.hashMatches ? "✓" : "✕"} stored snapshot hashes to its content hash</li>
+        <li>{report.mismatches.some((m) => m.check !== "content-hash" && m.check !== "engine" && m.check !== "file") ? "✕" : "✓"} stored steps, measurements and the seal's audit event agree with the snapshot</li>
         {report.files.map((f) => (
           <li key={f.fileId}>{f.matches ? "✓" : "✕"} original file of measurement <span className="mono">{f.measurementId.slice(0, 8)}</span> still has SHA-256 <span className="mono">{f.sha256.slice(0, 12)}…</span></li>
         ))}

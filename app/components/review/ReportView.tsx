@@ -5,6 +5,7 @@
  */
 import type { ReactNode } from "react";
 import type { RevisionReport } from "@/lib/server/review/report";
+import { formatNumber } from "@/lib/display";
 import { reportSentences, formatBytes, type TextPiece } from "@/lib/server/review/reportText";
 import { formatTime } from "@/lib/display/numbers";
 import { Sym } from "../Sym";
@@ -33,7 +34,11 @@ export function ReportView({ r, figures, toolbar, renderNote }: { r: RevisionRep
       </header>
       <p className="rp-safety" data-testid="report-safety">{r.safetyNote}</p>
 
-      <section><h2>Sample</h2><p>{s.sample}</p></section>
+      <section><h2>Sample</h2><p>{s.sample}</p>
+        {r.context?.pinned === "full" && r.context.compositionValue !== null && <p>Composition {r.context.compositionVariable ?? "x"} = {formatNumber(r.context.compositionValue, 6)}{r.context.series.length ? `, series ${r.context.series.map((x) => x.name).join(", ")}` : ""}.</p>}
+        <p className="small muted">As sealed.{r.context?.note ? ` ${r.context.note.charAt(0).toUpperCase()}${r.context.note.slice(1)}.` : ""}</p>
+        {r.context && r.context.changedSinceSealing.length > 0 && <p className="rp-changed" data-testid="report-context-changed">Sample record changed since sealing (the values above are as sealed): {r.context.changedSinceSealing.join("; ")}.</p>}
+      </section>
 
       <section><h2>Data provenance</h2>
         <table className="rp-table" data-testid="report-provenance">
@@ -86,6 +91,16 @@ export function ReportView({ r, figures, toolbar, renderNote }: { r: RevisionRep
       <section className="rp-seal"><h2>Review and seal</h2>
         <ul className="rp-list" data-testid="report-reviewer">{s.review.map((line, i) => <li key={i}>{line}</li>)}</ul>
         <dl className="facts">
+          {r.signature ? (
+            <>
+              <dt>Signature</dt>
+              <dd data-testid="report-signature">{r.signature.signerName} ({r.signature.signerEmail}), {r.signature.signerRole} of the group, {formatTime(r.signature.signedAt)}; identity checked by {r.signature.method === "password" ? "password" : "a fresh institutional sign-in"}.<br />“{r.signature.statement}”</dd>
+              <dt>Reviewer&apos;s note</dt><dd className="rp-note-text">{r.signature.note}</dd>
+              {r.signature.acknowledgedThreads.length > 0 && <><dt>Open threads acknowledged</dt><dd>{r.signature.acknowledgedThreads.map((x) => `${x.openedBy}: “${x.excerpt}”`).join("; ")}</dd></>}
+            </>
+          ) : (
+            <><dt>Signature</dt><dd className="muted">Sealed before approvals were signed: no statement of meaning or note was recorded.</dd></>
+          )}
           <dt>Content hash (SHA-256)</dt><dd className="mono" data-testid="report-hash">{r.contentHash.replace(/(.{8})(?=.)/g, "$1 ")}</dd>
           <dt>Engine version</dt><dd>{r.engineVersion}</dd>
           <dt>Sealed</dt><dd>{formatTime(r.review.sealedAt)}</dd>

@@ -13,6 +13,7 @@ import { callJson } from "@/app/_lib/api";
 import type { ReviewAction, ReviewStatus } from "@/lib/server/review";
 import { ACTION_LABEL, DECISION_LABEL, STATE_LABEL, STATE_MEANING, when } from "./labels";
 import { LockPanel } from "./LockPanel";
+import { SignDialog, SubmitConfirm } from "./SignDialog";
 import "./review.css";
 
 export interface ReviewBarProps {
@@ -35,6 +36,8 @@ export function ReviewBar(props: ReviewBarProps) {
   const [busy, setBusy] = useState(false);
   const [asking, setAsking] = useState(false);
   const [comment, setComment] = useState("");
+  const [signing, setSigning] = useState(false);
+  const [confirming, setConfirming] = useState<"submit" | "resubmit" | null>(null);
   const wanted = props.revision?.id ?? props.revisionId ?? null;
 
   const load = useCallback(async () => {
@@ -59,9 +62,10 @@ export function ReviewBar(props: ReviewBarProps) {
     if (action === "return" && !comment.trim()) { setError("say what needs changing: the comment is required"); return; }
     setBusy(true);
     setError(null);
-    const r = await callJson(`${apiBase}/review`, "POST", { revisionId: rev.id, action, version: rev.version, ...(action === "return" || action === "approve" ? { comment: comment.trim() || undefined } : {}) });
-    if (!r.ok) { setBusy(false); setError(r.status === 409 ? `${r.error} — reload the page to see the current state.` : r.error); return; }
+    const r = await callJson(`${apiBase}/review`, "POST", { revisionId: rev.id, action, version: rev.version, ...(action === "return" ? { comment: comment.trim() || undefined } : {}) });
+    if (!r.ok) { setBusy(false); setConfirming(null); setError(r.status === 409 ? `${r.error} — reload the page to see the current state.` : r.error); return; }
     setAsking(false);
+    setConfirming(null);
     setComment("");
     await after();
   }
@@ -88,7 +92,10 @@ export function ReviewBar(props: ReviewBarProps) {
       {canAct && (
         <div className="actions rv-actions">
           {rev.actions.filter((a) => a !== "return").map((a) => (
-            <button key={a} type="button" className={a === "approve" ? "" : "quiet"} disabled={busy} onClick={() => act(a)} data-testid={`review-${a}`}>{ACTION_LABEL[a]}</button>
+            <button key={a} type="button" className={a === "approve" ? "" : "quiet"} disabled={busy}
+              onClick={() => (a === "approve" ? (setError(null), setSigning(true)) : a === "submit" || a === "resubmit" ? setConfirming(a) : act(a))} data-testid={`review-${a}`}>
+              {ACTION_LABEL[a]}{a === "approve" || a === "submit" || a === "resubmit" ? "…" : ""}
+            </button>
           ))}
           {rev.actions.includes("return") && !asking && <button type="button" className="quiet" disabled={busy} onClick={() => setAsking(true)} data-testid="review-return">{ACTION_LABEL.return}…</button>}
           {status.canRevise && rev.state === "sealed" && <button type="button" className="quiet" disabled={busy} onClick={revise} data-testid="review-revise">Start a new revision</button>}
@@ -105,6 +112,8 @@ export function ReviewBar(props: ReviewBarProps) {
         </form>
       )}
       {error && <p className="form-error" role="alert" data-testid="review-error">{error}</p>}
+      {signing && <SignDialog apiBase={apiBase} revision={{ id: rev.id, number: rev.number, version: rev.version }} onCancel={() => setSigning(false)} onDone={() => { setSigning(false); void after(); }} />}
+      {confirming && <SubmitConfirm number={rev.number} action={confirming} busy={busy} onConfirm={() => act(confirming)} onCancel={() => setConfirming(null)} />}
       {rev.seal && <LockPanel apiBase={apiBase} pageBase={pageBase} revision={{ id: rev.id, number: rev.number, state: rev.state, seal: rev.seal }} />}
       {history.length > 0 && (
         <details className="rv-history" data-testid="decision-history" open={rev.state === "returned"}>

@@ -33,7 +33,17 @@ function sortValue(r: SeriesRow, k: Key): number | string | null {
 }
 
 function cell(r: SeriesRow, k: Key, slug: string) {
-  if (k === "sample") return <>{r.sample.label}{r.sample.archived && <span className="tag">archived</span>}</>;
+  if (k === "sample")
+    return (
+      <>
+        {r.sample.label}{r.sample.archived && <span className="tag">archived</span>}
+        {r.revision?.analysisArchived && <span className="tag" title="the analysis is archived; its sealed revision stays in the series">analysis archived</span>}
+        {r.context.changedSinceSealing.length > 0 && (
+          <div className="small sx-changed" data-testid="context-changed" title="formula, x and e/a in this row are as sealed">sample record changed since sealing: {r.context.changedSinceSealing.join("; ")}</div>
+        )}
+        {r.context.note && <div className="small muted" data-testid="context-not-pinned">{r.context.note.split(":")[0]}</div>}
+      </>
+    );
   if (k === "x") return r.x === null ? "—" : String(r.x);
   if (k === "ea") return r.electronsPerAtom === null ? "—" : r.electronsPerAtom.toFixed(3);
   if (k === "gammaFree") return r.gammaFree === null ? "—" : formatNumber(r.gammaFree, 4);

@@ -24,14 +24,24 @@ const FLAGS: Record<string, FlagSpec> = {
 const USAGE = `usage: heatbook pull series ID [--csv] [--drafts] [--axis x|ea]\n       heatbook pull analysis ID --json [--revision N]\n(uses HEATBOOK_URL, HEATBOOK_TOKEN)\n\n${formatFlagHelp(FLAGS)}`;
 
 type V = { value: number; stdError: number | null } | null;
-interface Row { sample: { label: string }; axisValue: number | null; gamma: V; thetaD: V; draft: boolean; revision: { revisionNumber: number; state: string } | null }
+interface Row {
+  sample: { label: string }; axisValue: number | null; gamma: V; thetaD: V; draft: boolean; revision: { revisionNumber: number; state: string } | null;
+  context?: { source: string; changedSinceSealing: string[]; note: string | null };
+}
 
 const show = (v: V) => (v ? formatUncertainty(v.value, v.stdError) : "—");
 
+/** The plain table; sealed rows show the sealed context, and a footnote names what changed in the sample record since. */
 function seriesTable(view: { series: { name: string }; axisLabel: string; rows: Row[] }): string {
-  const head = `${view.series.name}: γ [mJ mol^-1 K^-2 per f.u.], Θ_D [K] against ${view.axisLabel}`;
-  const lines = view.rows.map((r) => [r.sample.label.padEnd(20), String(r.axisValue ?? "—").padEnd(8), show(r.gamma).padEnd(18), show(r.thetaD).padEnd(14), r.revision ? `${r.draft ? "DRAFT " : ""}rev ${r.revision.revisionNumber} ${r.revision.state}` : "no analysis"].join(" "));
-  return [head, ...lines].join("\n");
+  const head = `${view.series.name}: γ [mJ mol^-1 K^-2 per f.u.], Θ_D [K] against ${view.axisLabel} (sealed rows: values and sample context as sealed)`;
+  const notes: string[] = [];
+  const lines = view.rows.map((r) => {
+    const changed = r.context?.changedSinceSealing ?? [];
+    const mark = changed.length || r.context?.note ? ` [${notes.length + 1}]` : "";
+    if (mark) notes.push(`[${notes.length + 1}] ${r.sample.label}: ${[changed.length ? `sample record changed since sealing: ${changed.join("; ")}` : null, r.context?.note ?? null].filter(Boolean).join("; ")}`);
+    return [r.sample.label.padEnd(20), String(r.axisValue ?? "—").padEnd(8), show(r.gamma).padEnd(18), show(r.thetaD).padEnd(14), (r.revision ? `${r.draft ? "DRAFT " : ""}rev ${r.revision.revisionNumber} ${r.revision.state}` : "no analysis") + mark].join(" ");
+  });
+  return [head, ...lines, ...notes].join("\n");
 }
 
 function emit(io: CliIo, text: string, out: string | undefined): void {

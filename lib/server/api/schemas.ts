@@ -70,7 +70,16 @@ export const analysisDetailOut = z.object({
   analysis: analysisOut,
   revisions: z.array(revisionSummary.extend({
     basedOnId: z.string().nullable(), submittedAt: z.string().nullable(), sealedAt: z.string().nullable(), sealedById: z.string().nullable(), createdAt: z.string(),
-    steps: z.array(z.object({ id: z.string(), position: z.number().int(), kind: z.string(), title: z.string(), config: z.unknown(), output: z.unknown().describe("stored output {kind, ok, error, warnings, result}"), inputHash: z.string().nullable(), engineVersion: z.string().nullable(), computedAt: z.string().nullable() })),
+    steps: z.array(z.object({ id: z.string(), position: z.number().int(), kind: z.string(), title: z.string(), config: z.unknown(), output: z.unknown().describe("stored output {kind, ok, error, warnings, result}; sealed revisions: from the sealed snapshot"), inputHash: z.string().nullable(), engineVersion: z.string().nullable(), computedAt: z.string().nullable() })),
+    sealedContext: z.object({
+      pinned: z.enum(["full", "chain"]).describe("full: every sample field below as sealed; chain: sealed before composition was pinned (composition fields null)"),
+      sample: z.record(z.string(), z.unknown()), note: z.string().nullable(),
+      changedSinceSealing: z.array(z.object({ field: z.string(), label: z.string(), sealed: z.unknown(), now: z.unknown() })).describe("sample record fields that differ now from the sealed context"),
+    }).nullable().optional().describe("sealed revisions only"),
+    signature: z.object({
+      signerId: z.string(), signerName: z.string(), signerEmail: z.string(), signerRole: z.string(), meaning: z.string(), statement: z.string(), note: z.string(), signedAt: z.string(),
+      method: z.enum(["password", "institution-sign-in"]), acknowledgedThreads: z.array(z.object({ id: z.string(), openedBy: z.string(), excerpt: z.string() })),
+    }).nullable().optional().describe("sealed revisions: the reviewer's signature (null when sealed before signatures)"),
   })),
 });
 
@@ -82,7 +91,12 @@ export const seriesRowOut = z.object({
   gamma: valued.describe("mJ mol^-1 K^-2 per mole formula unit"), beta: valued.describe("mJ mol^-1 K^-4"), thetaD: valued.describe("K"),
   dosEF: valued.describe("states eV^-1 per f.u."), massRatio: valued, tc: valued.describe("K"), gammaFree: z.number().nullable(),
   draft: z.boolean().describe("true: values from a revision that is NOT sealed"), valueSource: z.enum(["derive", "fit"]).nullable(),
-  revision: z.object({ analysisId: z.string(), analysisTitle: z.string(), revisionId: z.string(), revisionNumber: z.number().int(), state: z.string(), contentHash: z.string().nullable(), sealedAt: z.string().nullable() }).nullable(),
+  revision: z.object({ analysisId: z.string(), analysisTitle: z.string(), revisionId: z.string(), revisionNumber: z.number().int(), state: z.string(), contentHash: z.string().nullable(), sealedAt: z.string().nullable(), analysisArchived: z.boolean() }).nullable(),
+  context: z.object({
+    source: z.enum(["sealed", "sealed-chain-only", "sample-record"]).describe("where formula, x, e/a and the free-electron γ come from: the sealed context, the sealed chain fields (composition from the record), or the record (drafts, no analysis)"),
+    changedSinceSealing: z.array(z.string()).describe("\"sample record changed since sealing\" per field: label, sealed → now"),
+    note: z.string().nullable(),
+  }),
   warnings: z.array(z.string()),
 });
 

@@ -60,6 +60,11 @@ export const authOptions: NextAuthOptions = {
   pages: { signIn: "/signin" },
   callbacks: {
     async jwt({ token, user, account }) {
+      // How and when this session signed in: approving asks institutional accounts without a password for a fresh sign-in.
+      if (account) {
+        token.via = account.provider;
+        token.authAt = Math.floor(Date.now() / 1000);
+      }
       if (user && account?.provider === "institution") {
         if (!user.email) throw new Error("the institution did not share an e-mail address");
         const local = await findOrCreateExternalUser(getDb(), user.email, user.name ?? "");

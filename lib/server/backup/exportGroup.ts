@@ -4,7 +4,8 @@
  */
 import { gzipSync } from "node:zlib";
 import type { Db } from "../db/client";
-import { NotFoundError } from "../../engine/errors";
+import { ConflictError, NotFoundError } from "../../engine/errors";
+import { verifySealedRevisions as verifySnapshotsAgainstRows, describeMismatch } from "../review/integrity";
 import { ENGINE_VERSION } from "../../engine/version";
 import { BACKUP_FORMAT, BACKUP_VERSION, TABLES, encodeRow, type BackupHeader, type Row } from "./format";
 import { sealedEntries, verifyGroupAuditChain } from "./verify";
@@ -48,6 +49,9 @@ export async function exportGroup(db: Db, slugOrId: string, key: AuditKey = audi
   const isUuid = /^[0-9a-f-]{36}$/i.test(slugOrId);
   const group = await db.group.findFirst({ where: isUuid ? { id: slugOrId } : { slug: slugOrId } });
   if (!group) throw new NotFoundError(`group ${JSON.stringify(slugOrId)}`);
+  // A group whose stored rows no longer agree with its sealed snapshots is not backed up as if sound.
+  const seals = await verifySnapshotsAgainstRows(db, { groupId: group.id, engine: false });
+  if (!seals.ok) throw new ConflictError(`group ${group.slug} not exported: ${seals.mismatches.length} mismatch(es) with sealed snapshots; first: ${describeMismatch(seals.mismatches[0]!)}`);
   const header: BackupHeader = { format: BACKUP_FORMAT, version: BACKUP_VERSION, createdAt: new Date().toISOString(), engineVersion: ENGINE_VERSION, group: { id: group.id, slug: group.slug, name: group.name } };
   const lines = [JSON.stringify(header)];
   const userIds = await userIdsOf(db, group.id);

@@ -12,6 +12,7 @@ import { verifyGroupChain, type ChainProblem } from "../auditVerify";
 import { takeCheckpoint, checkpointHeads, type AuditCheckpoint } from "../auditCheckpoint";
 import { auditKey as processKey, type AuditKey } from "../auditKey";
 import type { SealedEntry } from "./format";
+import { verifySealedRevisions as verifySnapshotsAgainstRows, describeMismatch } from "../review/integrity";
 
 export interface GroupChainReport {
   ok: boolean;
@@ -50,11 +51,18 @@ export async function sealedEntries(db: Db, groupId: string): Promise<SealedEntr
   return revs.map((r) => ({ revisionId: r.id, state: r.state, contentHash: r.contentHash, snapshotHash: r.snapshot === null ? null : contentHash(r.snapshot) }));
 }
 
-/** Check each sealed revision recomputes, and (if given) matches the archive's entries exactly. */
+/**
+ * Check each sealed revision recomputes, and (if given) matches the archive's entries exactly;
+ * and (lib/server/review/integrity.ts) that the stored step rows, measurements, files and the
+ * seal's audit event agree with each snapshot and the engine reproduces it, naming each mismatch.
+ */
 export async function verifySealedRevisions(db: Db, groupId: string, expected?: SealedEntry[]): Promise<SealReport> {
   const now = await sealedEntries(db, groupId);
   const problems: string[] = [];
   for (const e of now) if (e.snapshotHash !== e.contentHash) problems.push(`revision ${e.revisionId}: snapshot does not hash to its content hash`);
+  // The engine re-run is Verify's and `heatbook audit verify`'s; restore checks what was carried.
+  const deep = await verifySnapshotsAgainstRows(db, { groupId, engine: false });
+  for (const m of deep.mismatches) if (m.check !== "content-hash") problems.push(describeMismatch(m));
   if (expected) {
     const byId = new Map(now.map((e) => [e.revisionId, e]));
     for (const e of expected) {

@@ -8,6 +8,7 @@ import type { Member } from "../access";
 import { createAnalysis, openNotebook, updateStep, addStep } from "../notebook";
 import { memberOf } from "../access";
 import { reviewTransition, reviseSealed } from "../review";
+import { DEMO_PASSWORD } from "./seed";
 import { createSeries } from "../series";
 
 async function configure(db: Db, member: Member, analysisId: string, edits: Record<string, Record<string, unknown>>): Promise<void> {
@@ -28,7 +29,7 @@ async function review(db: Db, analyst: Member, reviewer: Member, analysisId: str
   const nb = await openNotebook(db, analyst, analysisId);
   const sub = await reviewTransition(db, analyst, analysisId, nb.revision.id, { action: "submit", version: nb.revision.version });
   if (stop) return;
-  await reviewTransition(db, reviewer, analysisId, nb.revision.id, { action: "approve", version: sub.version, comment: "Window scan plateau and residuals look fine. (demo)" });
+  await reviewTransition(db, reviewer, analysisId, nb.revision.id, { action: "approve", version: sub.version, meaning: "internal", password: DEMO_PASSWORD, comment: "Window scan plateau and residuals look fine. (demo)" });
 }
 
 /**

@@ -15,6 +15,7 @@ import { computeRevisionSteps, defaultWaitMs, outputJson, type StepView } from "
 import { notify } from "./events";
 import { starterSteps } from "./starter";
 import { readNotebookRows, type NotebookRows, type RevisionRow } from "./read";
+import { isSealedState, sealedStepViews } from "../review/served";
 
 export const createAnalysisSchema = z.object({
   sampleId: z.string().uuid("choose a sample"),
@@ -60,6 +61,8 @@ export interface NotebookView {
   computeMillis: number;
   /** The computation outlasted the request's wait: stale steps have no output yet; a "step" event follows. */
   computing: boolean;
+  /** Sealed revisions: set when the stored snapshot does not match its content hash (nothing of it is shown). */
+  sealProblem: string | null;
 }
 
 
@@ -136,6 +139,7 @@ export async function createAnalysis(db: Db, member: Member, input: unknown): Pr
   return (await summaries(db, { id }))[0]!;
 }
 
+/** Renaming is allowed in every state (a sealed revision keeps the title it was sealed with, in its snapshot); audited. */
 export async function renameAnalysis(db: Db, member: Member, id: string, input: unknown): Promise<void> {
   authorise(member, "analysis.write");
   const { title } = parseInput(renameSchema, input);
@@ -147,6 +151,7 @@ export async function renameAnalysis(db: Db, member: Member, id: string, input: 
   });
 }
 
+/** Archiving hides the analysis from lists; its sealed revisions stay in their series and reports. Audited. */
 export async function setAnalysisArchived(db: Db, member: Member, id: string, archived: boolean): Promise<void> {
   authorise(member, "analysis.write");
   const a = await findAnalysis(db, member, id);
@@ -190,15 +195,20 @@ export async function openNotebook(db: Db, member: Member, analysisId: string, r
   const editable = EDITABLE_STATES.includes(rev.state);
   // Viewers and reviewers see what is stored; computing (and writing) is for those who may edit.
   const mode = editable && (member.role === "owner" || member.role === "analyst") ? "edit" : "frozen";
-  // A long computation answers "computing" after HEATBOOK_COMPUTE_WAIT_MS and goes on in the pool;
-  // the page hears its progress and its end on the live event stream.
+  // A sealed revision shows its snapshot (one truth), never the step rows beside it.
+  // Otherwise a long computation answers "computing" after HEATBOOK_COMPUTE_WAIT_MS and goes on in
+  // the pool; the page hears its progress and its end on the live event stream.
+  const t0 = performance.now();
+  const sealed = isSealedState(rev.state) ? await sealedStepViews(db, rev, rows.steps) : null;
   const event = { groupId: member.group.id, analysisId: a.id, revisionId: rev.id, actorId: member.userId };
   const quiet = () => undefined;
-  const computed = await computeRevisionSteps(db, member.group.id, a.sampleId, rev.id, mode, { steps: rows.steps, sample: rows.sample, measurements: rows.measurements }, {
-    waitMs: defaultWaitMs(),
-    whenDone: () => void notify(db, { ...event, kind: "step" }).catch(quiet),
-    onProgress: (p) => { if (p.runningMs > 1000) void notify(db, { ...event, stepId: p.stepId, kind: "computing", progress: { position: p.position, runningMs: Math.round(p.runningMs) } }).catch(quiet); },
-  });
+  const computed = sealed
+    ? { steps: sealed.steps, millis: performance.now() - t0, computing: false }
+    : await computeRevisionSteps(db, member.group.id, a.sampleId, rev.id, mode, { steps: rows.steps, sample: rows.sample, measurements: rows.measurements }, {
+      waitMs: defaultWaitMs(),
+      whenDone: () => void notify(db, { ...event, kind: "step" }).catch(quiet),
+      onProgress: (p) => { if (p.runningMs > 1000) void notify(db, { ...event, stepId: p.stepId, kind: "computing", progress: { position: p.position, runningMs: Math.round(p.runningMs) } }).catch(quiet); },
+    });
   return {
     analysis: toSummary({ ...a, revisions }),
     revision: toRevision(rev),
@@ -207,6 +217,7 @@ export async function openNotebook(db: Db, member: Member, analysisId: string, r
     steps: computed.steps,
     computeMillis: computed.millis,
     computing: computed.computing ?? false,
+    sealProblem: sealed?.problem ?? null,
   };
 }
 

@@ -12,6 +12,7 @@ import { uuidOrNone } from "../samples";
 import { parseStepConfig } from "../../engine/notebook";
 import { chainResults, type ResultValue } from "./results";
 import type { RevisionSnapshot } from "./snapshot";
+import { intactSnapshot } from "./served";
 
 export interface FieldChange { path: string; from: unknown; to: unknown }
 
@@ -104,7 +105,7 @@ function moveResults(a: ResultValue[], b: ResultValue[]): ResultMove[] {
 async function loadChain(db: Db, member: Member, id: string) {
   const rev = await db.analysisRevision.findFirst({ where: { id: uuidOrNone(id), analysis: { groupId: member.group.id } }, include: { steps: { orderBy: { position: "asc" } } } });
   if (!rev) throw new NotFoundError("revision");
-  const snap = rev.snapshot as unknown as RevisionSnapshot | null;
+  const snap: RevisionSnapshot | null = rev.snapshot ? intactSnapshot(rev) : null;
   const steps: ChainStep[] = snap
     ? snap.inputs.steps.map((s, i) => ({ position: s.position, kind: s.kind, config: s.config, output: snap.outputs.steps[i]?.output ?? null }))
     : rev.steps.map((s) => ({ position: s.position, kind: s.kind, config: s.config, output: s.output }));

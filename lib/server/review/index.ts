@@ -14,13 +14,19 @@
  *   lockViolation(err)                            a database lock refusal as ConflictError
  *   listAuditEvents(db, member, opts)             the group's audit trail (owners)
  *   buildReport / renderReportPdf                 the report object of a sealed revision, and its PDF
+ *   verifySealedRevisions(db, { groupId? })       every sealed revision against its snapshot (named mismatches)
+ *   sealedRevisionView / sealedValues             what pages, the API and series serve of a sealed revision
+ *   checkSignerIdentity / SIGNATURE_MEANINGS      approval as a signature
  */
 export { checkTransition, availableActions, TRANSITIONS, REVIEW_ACTIONS, SUPERSEDE } from "./states";
 export type { RevisionState, ReviewAction, TransitionRule, TransitionRequest, TransitionVerdict } from "./states";
 export { reviewTransition, transitionSchema, type TransitionResult } from "./transitions";
 export { reviseSealed, supersedeSealed, remapIds, type NewRevision } from "./supersede";
 export { buildSnapshot, readinessProblems, SNAPSHOT_FORMAT } from "./snapshot";
-export type { RevisionSnapshot, SnapshotMeasurement, SnapshotStep } from "./snapshot";
+export type { RevisionSnapshot, SnapshotMeasurement, SnapshotStep, SealedContext } from "./snapshot";
+export { verifySealedRevisions, checkSealedRevision, describeMismatch, type SealMismatch, type SealedVerification, type MismatchCheck } from "./integrity";
+export { pinnedContext, contextChanges, describeContextChanges, CONTEXT_LABEL, NOT_PINNED_NOTE, type PinnedContext, type ContextChange } from "./context";
+export { SIGNATURE_MEANINGS, MEANING_LABEL, MEANING_KEYS, FRESH_SIGN_IN_MINUTES, checkSignerIdentity, openThreads, type SealSignature, type SignatureMeaning, type SignerSession } from "./signature";
 export { verifyRevision, reproduceSnapshot, contextFromSnapshot, CROSS_VERSION_TOLERANCE, type VerifyReport, type StepVerification } from "./verify";
 export { compareJson, type Comparison } from "./compare";
 export { diffRevisions, configChanges, type RevisionDiff, type StepDiff, type ResultMove, type FieldChange } from "./diff";
@@ -33,3 +39,5 @@ export { lockViolation, isLockViolation } from "./lockError";
 export { listAuditEvents, type AuditEventView } from "./auditLog";
 export { buildReport, reportFromSnapshot, SAFETY_SENTENCE, type RevisionReport, type ReportValue } from "./report";
 export { renderReportPdf } from "./pdf";
+export { sealPreview, type SealPreview } from "./preview";
+export { intactSnapshot, sealedSteps, isSealedState } from "./served";

@@ -15,6 +15,7 @@ import { formatTime } from "../../display";
 
 const FIGURE_FONT = 8;
 
+
 /** Render the report to PDF bytes. */
 export async function renderReportPdf(report: RevisionReport): Promise<Uint8Array> {
   const doc = new PDFDocument({
@@ -37,6 +38,10 @@ export async function renderReportPdf(report: RevisionReport): Promise<Uint8Arra
 
   heading("Sample");
   para(txt(s.sample));
+  const c = report.context;
+  if (c?.pinned === "full" && c.compositionValue !== null) para(txt(`Composition as sealed: ${c.compositionVariable ?? "x"} = ${c.compositionValue}${c.series.length ? `; series ${c.series.map((x) => x.name).join(", ")}` : ""}.`));
+  if (c?.note) para(txt(`${c.note.charAt(0).toUpperCase()}${c.note.slice(1)}.`));
+  if (c && c.changedSinceSealing.length) para(txt(`Sample record changed since sealing (the values above are as sealed): ${c.changedSinceSealing.join("; ")}.`));
 
   heading("Data provenance");
   for (const p of report.provenance)
@@ -73,6 +78,13 @@ export async function renderReportPdf(report: RevisionReport): Promise<Uint8Arra
 
   heading("Review and seal");
   for (const line of s.review) para(txt(line));
+  const sig = report.signature;
+  if (sig) {
+    para(txt(`Signature: ${sig.signerName} (${sig.signerEmail}), ${sig.signerRole} of the group, ${formatTime(sig.signedAt)}; identity checked by ${sig.method === "password" ? "password" : "a fresh institutional sign-in"}.`));
+    para(txt(`“${sig.statement}”`));
+    para(txt(`Reviewer's note: ${sig.note}`));
+    if (sig.acknowledgedThreads.length) para(txt(`Open discussion threads acknowledged: ${sig.acknowledgedThreads.map((x) => `${x.openedBy}: “${x.excerpt}”`).join("; ")}`));
+  } else para(txt("Sealed before approvals were signed: no statement of meaning or note was recorded."));
   para(txt(`Content hash (SHA-256 of the sealed snapshot): ${report.contentHash}`));
   para(txt(`Engine version ${report.engineVersion}. Report written ${formatTime(new Date())}.`));
   return pdfBytes(doc);

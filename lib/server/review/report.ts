@@ -2,7 +2,9 @@
  * The report of a sealed revision, as one plain JSON-safe object built from its snapshot alone
  * (so it shows exactly what was sealed): sample, data provenance with file checksums,
  * corrections, fit windows and models, parameter tables with uncertainties in compact form,
- * derived quantities, warnings, reviewer, time, content hash, and the expert-review sentence.
+ * derived quantities, warnings, reviewer, time, content hash, the reviewer's signature (meaning,
+ * note, role), the sealed composition and what changed in the sample record since sealing, and
+ * the expert-review sentence. A snapshot that no longer matches its content hash is refused.
  * The print page and the PDF both render this object; neither computes anything.
  */
 import type { Db } from "../db/client";
@@ -11,7 +13,10 @@ import { cleanText, formatCount, formatNumber, formatQuantity, formatUnit, model
 import { formatStatSyst } from "../../engine/scan/statSyst";
 import { authorise, type Member } from "../access";
 import { uuidOrNone } from "../samples";
+import { intactSnapshot } from "./served";
 import type { RevisionSnapshot } from "./snapshot";
+import type { SealSignature } from "./signature";
+import { changeText, contextChanges, pinnedContext, type LiveSample } from "./context";
 
 export const SAFETY_SENTENCE = "These results need expert review under local practice before use in any safety-relevant decision.";
 
@@ -46,6 +51,10 @@ export interface RevisionReport {
   contentHash: string;
   engineVersion: string;
   safetyNote: typeof SAFETY_SENTENCE;
+  /** The reviewer's signature (null: sealed before approvals were signed). */
+  signature: SealSignature | null;
+  /** Composition as sealed (null fields when not pinned) and what changed in the sample record since. */
+  context: { pinned: "full" | "chain"; compositionVariable: string | null; compositionValue: number | null; series: { name: string; compositionVariable: string }[]; note: string | null; changedSinceSealing: string[] };
 }
 
 type Out = { ok: boolean; warnings: string[]; result: Record<string, any> | null };
@@ -97,8 +106,9 @@ function derivedValue(q: { name: string; symbol: string; value: number; stdError
 }
 
 /** The report object from a sealed snapshot and the names of the people involved. Pure. */
-export function reportFromSnapshot(s: RevisionSnapshot, meta: { group: { name: string; slug: string }; state: "sealed" | "replaced"; contentHash: string; names: Record<string, string>; decisions: RevisionReport["review"]["decisions"] }): RevisionReport {
+export function reportFromSnapshot(s: RevisionSnapshot, meta: { group: { name: string; slug: string }; state: "sealed" | "replaced"; contentHash: string; names: Record<string, string>; decisions: RevisionReport["review"]["decisions"]; liveSample?: LiveSample | null }): RevisionReport {
   const name = (id: string | null) => (id ? (meta.names[id] ?? "former member") : null);
+  const ctx = pinnedContext(s);
   const report: RevisionReport = {
     title: s.analysis.title, group: meta.group, analysisId: s.analysis.id,
     revision: { id: s.revision.id, number: s.revision.number, state: meta.state, basedOnId: s.revision.basedOnId },
@@ -110,6 +120,11 @@ export function reportFromSnapshot(s: RevisionSnapshot, meta: { group: { name: s
     corrections: [], fits: [], derived: [], warnings: [], notes: [],
     review: { submittedBy: name(s.revision.submittedById), submittedAt: s.revision.submittedAt, sealedBy: name(s.seal.sealedById), sealedAt: s.seal.sealedAt, decisions: meta.decisions },
     contentHash: meta.contentHash, engineVersion: s.engineVersion, safetyNote: SAFETY_SENTENCE,
+    signature: s.signature ?? null,
+    context: {
+      pinned: ctx.pinned, compositionVariable: ctx.sample.compositionVariable, compositionValue: ctx.sample.compositionValue, series: (ctx.series ?? []).map((x) => ({ name: x.name, compositionVariable: x.compositionVariable })),
+      note: ctx.note, changedSinceSealing: meta.liveSample ? contextChanges(ctx, meta.liveSample).map(changeText) : [],
+    },
   };
   s.inputs.steps.forEach((st, i) => {
     const out = s.outputs.steps[i]?.output as unknown as Out | undefined;
@@ -137,15 +152,16 @@ export async function buildReport(db: Db, member: Member, analysisId: string, re
   authorise(member, "group.read");
   const rev = await db.analysisRevision.findFirst({
     where: { analysisId: uuidOrNone(analysisId), analysis: { groupId: member.group.id }, ...(revisionId ? { id: uuidOrNone(revisionId) } : { state: "sealed" }) },
-    include: { decisions: { orderBy: { at: "asc" } } },
+    include: { decisions: { orderBy: { at: "asc" } }, analysis: { select: { sample: true } } },
   });
   if (!rev) throw new NotFoundError(revisionId ? "revision" : "sealed revision");
   if ((rev.state !== "sealed" && rev.state !== "replaced") || !rev.snapshot || !rev.contentHash) throw new ConflictError(`revision ${rev.number} is not sealed: only a sealed revision has a report`);
-  const s = rev.snapshot as unknown as RevisionSnapshot;
+  const s = intactSnapshot(rev);
   const ids = [s.revision.submittedById, s.seal.sealedById, ...rev.decisions.map((d) => d.reviewerId)].filter((x): x is string => !!x);
   const names = Object.fromEntries((await db.user.findMany({ where: { id: { in: ids } }, select: { id: true, name: true } })).map((u) => [u.id, u.name]));
   return reportFromSnapshot(s, {
     group: { name: member.group.name, slug: member.group.slug }, state: rev.state, contentHash: rev.contentHash, names,
     decisions: rev.decisions.map((d) => ({ decision: d.decision, reviewer: names[d.reviewerId] ?? null, at: d.at.toISOString(), comment: d.comment })),
+    liveSample: rev.analysis.sample,
   });
 }

@@ -8,6 +8,9 @@ import { authorise, type Member } from "../access";
 import { can } from "../permissions";
 import { uuidOrNone } from "../samples";
 import { availableActions, type ReviewAction, type RevisionState } from "./states";
+import type { SealSignature } from "./signature";
+import type { RevisionSnapshot } from "./snapshot";
+import { pinnedContext } from "./context";
 
 export interface ReviewStatus {
   analysisId: string;
@@ -22,10 +25,17 @@ export interface ReviewStatus {
     basedOnId: string | null;
     submittedBy: { id: string; name: string } | null;
     submittedAt: string | null;
-    seal: { contentHash: string; sealedBy: { id: string; name: string } | null; sealedAt: string } | null;
+    seal: { contentHash: string; sealedBy: { id: string; name: string } | null; sealedAt: string; signature: SealSignature | null; contextNote: string | null } | null;
     decisions: { decision: string; comment: string; reviewer: { id: string; name: string } | null; at: string }[];
     actions: ReviewAction[];
   }[];
+}
+
+/** The signature and the context note as the snapshot holds them (shown beside the seal; Verify checks the snapshot). */
+function sealFacts(snapshot: unknown): { signature: SealSignature | null; contextNote: string | null } {
+  const s = snapshot as RevisionSnapshot | null;
+  if (!s?.inputs) return { signature: null, contextNote: null };
+  return { signature: s.signature ?? null, contextNote: pinnedContext(s).note };
 }
 
 export async function reviewStatus(db: Db, member: Member, analysisId: string): Promise<ReviewStatus> {
@@ -50,7 +60,7 @@ export async function reviewStatus(db: Db, member: Member, analysisId: string): 
     revisions: a.revisions.map((r) => ({
       id: r.id, number: r.number, state: r.state, version: r.version, basedOnId: r.basedOnId,
       submittedBy: user(r.submittedById), submittedAt: r.submittedAt?.toISOString() ?? null,
-      seal: r.contentHash && r.sealedAt ? { contentHash: r.contentHash, sealedBy: user(r.sealedById), sealedAt: r.sealedAt.toISOString() } : null,
+      seal: r.contentHash && r.sealedAt ? { contentHash: r.contentHash, sealedBy: user(r.sealedById), sealedAt: r.sealedAt.toISOString(), ...sealFacts(r.snapshot) } : null,
       decisions: r.decisions.map((d) => ({ decision: d.decision, comment: d.comment, reviewer: user(d.reviewerId), at: d.at.toISOString() })),
       actions: availableActions({ state: r.state, role: member.role, isSubmitter: r.submittedById === member.userId, allowSelfApproval: member.group.allowSelfApproval }),
     })),

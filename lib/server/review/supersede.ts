@@ -13,6 +13,7 @@ import { uuidOrNone } from "../samples";
 import { computeRevisionSteps } from "../notebook/compute";
 import type { Tx } from "./notices";
 import { lockViolation } from "./lockError";
+import { intactSnapshot, sealedSteps } from "./served";
 import { randomUUID } from "node:crypto";
 
 /** Mark every other sealed revision of the analysis replaced; returns their ids. */
@@ -48,19 +49,20 @@ export async function reviseSealed(db: Db, member: Member, analysisId: string): 
   const result = await db.$transaction(async (tx) => {
     // Serialise revisers of one analysis: the row lock makes the "no draft yet" check hold.
     await tx.$queryRaw`SELECT 1 FROM "Analysis" WHERE id = ${a.id}::uuid FOR UPDATE`;
-    const revisions = await tx.analysisRevision.findMany({ where: { analysisId: a.id }, orderBy: { number: "desc" }, select: { id: true, number: true, state: true } });
+    const revisions = await tx.analysisRevision.findMany({ where: { analysisId: a.id }, orderBy: { number: "desc" }, select: { id: true, number: true, state: true, contentHash: true, snapshot: true } });
     const draft = revisions.find((r) => r.state === "open" || r.state === "in_review" || r.state === "returned");
     if (draft) throw new ConflictError(`revision ${draft.number} of this analysis is ${draft.state === "in_review" ? "in review" : "still being edited"}: work on it instead of starting another`);
     const sealed = revisions.find((r) => r.state === "sealed");
     if (!sealed) throw new ConflictError("this analysis has no sealed revision to revise");
-    const steps = await tx.step.findMany({ where: { revisionId: sealed.id }, orderBy: { position: "asc" } });
+    // The sealed steps come from the snapshot (checked against its content hash), not the rows beside it.
+    const steps = sealedSteps(intactSnapshot(sealed, a.title));
     const ids = new Map(steps.map((s) => [s.id, randomUUID()]));
     const number = revisions[0]!.number + 1;
     const created = await tx.analysisRevision.create({
       data: {
         analysisId: a.id, number, basedOnId: sealed.id, createdById: member.userId,
         steps: {
-          create: steps.map((s) => ({ id: ids.get(s.id)!, position: s.position, kind: s.kind, title: s.title, config: remapIds(s.config, ids) as object, updatedById: member.userId })),
+          create: steps.map((s) => ({ id: ids.get(s.id)!, position: s.position, kind: s.kind, title: s.title, config: remapIds(s.config ?? {}, ids) as object, updatedById: member.userId })),
         },
       },
     });

@@ -5,6 +5,11 @@
  * writes the new state, a ReviewDecision (return, approve), notices, and an audit event with
  * before/after hashes. Approval also seals (snapshot + content hash) and replaces the
  * analysis's previously sealed revision.
+ *
+ * Approval is a signature (signature.ts): it needs a meaning, a note (the comment), the
+ * signer's password (or a fresh institutional sign-in) checked in the same request before any
+ * write, and every open discussion thread of the analysis resolved or acknowledged by id. The
+ * signature is sealed into the snapshot and recorded in the audit event.
  */
 import { z } from "zod";
 import type { Db } from "../db/client";
@@ -21,6 +26,7 @@ import { inputHashes, loadContext } from "../notebook/context";
 import type { StepSpec } from "../../engine/notebook";
 import { checkTransition, REVIEW_ACTIONS, type ReviewAction, type RevisionState, type TransitionRule } from "./states";
 import { buildSnapshot, readinessProblems } from "./snapshot";
+import { checkSignerIdentity, MEANING_KEYS, openThreads, requireAcknowledged, SIGNATURE_MEANINGS, type SealSignature, type SignerSession } from "./signature";
 import { sendNotices, type Tx } from "./notices";
 import { supersedeSealed } from "./supersede";
 import { lockViolation } from "./lockError";
@@ -30,6 +36,12 @@ export const transitionSchema = z.object({
   /** The revision version the caller saw; a newer one means someone else acted first. */
   version: z.number().int().positive(),
   comment: z.string().max(20_000).optional(),
+  /** approve: what the signature means (signature.ts SIGNATURE_MEANINGS). */
+  meaning: z.enum(MEANING_KEYS).optional(),
+  /** approve: the signer's password, checked before anything is written; never stored. */
+  password: z.string().max(200).optional(),
+  /** approve: the open threads the signer acknowledges. */
+  acknowledgedThreadIds: z.array(z.string().max(64)).max(500).default([]),
 });
 
 export interface TransitionResult {
@@ -91,7 +103,7 @@ async function checkSubmittable(tx: Tx, groupId: string, sampleId: string, rev: 
  * ConflictError (wrong state, stale version, stale or failed steps), InputError (bad payload,
  * missing comment).
  */
-export async function reviewTransition(db: Db, member: Member, analysisId: string, revisionId: string, input: unknown): Promise<TransitionResult> {
+export async function reviewTransition(db: Db, member: Member, analysisId: string, revisionId: string, input: unknown, session: SignerSession = {}): Promise<TransitionResult> {
   const req = parseInput(transitionSchema, input);
   const found = await db.analysisRevision.findFirst({ where: { id: uuidOrNone(revisionId), analysisId: uuidOrNone(analysisId), analysis: { groupId: member.group.id } }, include: { analysis: true } });
   if (!found) throw new NotFoundError("revision");
@@ -99,6 +111,12 @@ export async function reviewTransition(db: Db, member: Member, analysisId: strin
   // Early answer before any work; the self-approval setting is re-read under the row lock below.
   const pre = checkTransition({ action: req.action, state: found.state, role: member.role, isSubmitter: found.submittedById === member.userId, allowSelfApproval: true, comment: req.comment ?? null });
   if (!pre.ok) refuse(pre.kind, pre.reason);
+  let signer: Awaited<ReturnType<typeof checkSignerIdentity>> | null = null;
+  if (req.action === "approve") {
+    if (!req.meaning) throw new InputError(`choose what your approval means (${MEANING_KEYS.join(" or ")})`, { field: "meaning" });
+    if (!req.comment?.trim()) throw new InputError("write a note: approving needs one (what you checked, anything the reader should know)", { field: "comment" });
+    signer = await checkSignerIdentity(db, member, req.password, session);
+  }
   // Fresh outputs for the reviewer: recompute stale steps before the revision freezes.
   if (req.action === "submit" || req.action === "resubmit") await computeRevisionSteps(db, member.group.id, a.sampleId, found.id, "edit");
   return db.$transaction(async (tx) => {
@@ -111,7 +129,15 @@ export async function reviewTransition(db: Db, member: Member, analysisId: strin
     const beforeHash = await stateHash(tx, rev);
     const now = new Date();
     let sealed: { snapshot: object; contentHash: string } | null = null;
-    if (rule.action === "approve") sealed = await buildSnapshot(tx, { ...rev, analysis: a }, member.userId, now);
+    let signature: SealSignature | null = null;
+    if (rule.action === "approve") {
+      const acknowledged = requireAcknowledged(await openThreads(tx, a.id), req.acknowledgedThreadIds);
+      signature = {
+        signerId: member.userId, signerName: signer!.name, signerEmail: signer!.email, signerRole: member.role, meaning: req.meaning!, statement: SIGNATURE_MEANINGS[req.meaning!],
+        note: req.comment!.trim(), signedAt: now.toISOString(), method: signer!.method, acknowledgedThreads: acknowledged,
+      };
+      sealed = await buildSnapshot(tx, { ...rev, analysis: a }, member.userId, now, signature);
+    }
     else if (rule.to === "in_review") await checkSubmittable(tx, member.group.id, a.sampleId, rev);
     const data = {
       state: rule.to,
@@ -129,7 +155,8 @@ export async function reviewTransition(db: Db, member: Member, analysisId: strin
     const afterHash = sealed ? sealed.contentHash : await stateHash(tx, { ...rev, state: rule.to, version: rev.version + 1 });
     await recordAudit(tx, {
       groupId: member.group.id, actorId: member.userId, action: `revision.${rule.action}`, objectType: "analysisRevision", objectId: rev.id, beforeHash, afterHash,
-      detail: { analysisId: a.id, number: rev.number, from: rev.state, to: rule.to, ...(req.comment?.trim() ? { comment: req.comment.trim() } : {}), ...(decisionId ? { decisionId } : {}), ...(replaced.length ? { replaced } : {}) },
+      detail: { analysisId: a.id, number: rev.number, from: rev.state, to: rule.to, ...(req.comment?.trim() ? { comment: req.comment.trim() } : {}), ...(decisionId ? { decisionId } : {}), ...(replaced.length ? { replaced } : {}),
+        ...(signature ? { signature: { signerRole: signature.signerRole, meaning: signature.meaning, statement: signature.statement, note: signature.note, method: signature.method, signedAt: signature.signedAt, acknowledgedThreadIds: signature.acknowledgedThreads.map((t) => t.id) } } : {}) },
     });
     // Open notebook pages (any instance) refresh on this, like on a step change.
     await notify(tx, { groupId: member.group.id, analysisId: a.id, revisionId: rev.id, kind: "review", actorId: member.userId });

@@ -1,6 +1,8 @@
 /**
  * Verifying a sealed revision: (1) the stored snapshot still hashes to its content hash;
- * (2) each measurement's original file still has the checksum the snapshot recorded; (3) the
+ * (2) each measurement's original file still has the checksum the snapshot recorded; (2b) the
+ * stored step rows, measurements and the approval's audit event agree with the snapshot
+ * (integrity.ts names the first that does not); (3) the
  * notebook engine, re-run on the snapshot's inputs alone (computeChain, pure), reproduces every
  * step's output — exactly under the same engine version, or within a relative tolerance of
  * 1e-9 on every number when the engine version differs. Reported per step.
@@ -12,10 +14,12 @@ import { computeChain, EMPTY_STATE, type ChainContext, type ChainMeasurement, ty
 import { computeChainBounded, defaultBudgetMs, isBudgetFailure } from "../compute";
 import { inputHashes } from "../notebook/context";
 import { authorise, type Member } from "../access";
-import { contentHash, sha256Hex } from "../hash";
+import { contentHash } from "../hash";
 import { uuidOrNone } from "../samples";
 import { compareJson } from "./compare";
 import type { RevisionSnapshot } from "./snapshot";
+import { checkSealedRevision, type MismatchCheck } from "./integrity";
+import { describeContextChanges, pinnedContext, type ContextChange } from "./context";
 
 /** Relative tolerance across engine versions (every number of every output). */
 export const CROSS_VERSION_TOLERANCE = 1e-9;
@@ -44,6 +48,12 @@ export interface VerifyReport {
   tolerance: number;
   steps: StepVerification[];
   summary: string;
+  /** Everything stored that differs from the snapshot, in check order (integrity.ts); empty when ok. */
+  mismatches: { check: MismatchCheck; what: string }[];
+  /** Sample fields changed since sealing (not a failure: the sealed context is pinned). */
+  contextChanges: ContextChange[];
+  /** Set when the snapshot predates pinning composition (format 1). */
+  contextNote: string | null;
 }
 
 /** The chain's context rebuilt from the snapshot alone (no database). */
@@ -98,27 +108,22 @@ export async function verifyRevision(db: Db, member: Member, analysisId: string,
   if (!rev.snapshot || !rev.contentHash) throw new ConflictError(`revision ${rev.number} is not sealed: there is nothing to verify`);
   const snapshot = rev.snapshot as unknown as RevisionSnapshot;
   const recomputedHash = contentHash(snapshot);
-  const files = await Promise.all(
-    snapshot.inputs.measurements.map(async (m) => {
-      const f = await db.storedFile.findUnique({ where: { id: m.file.id }, select: { bytes: true } });
-      return { measurementId: m.id, fileId: m.file.id, sha256: m.file.sha256, matches: !!f && sha256Hex(f.bytes) === m.file.sha256 };
-    }),
-  );
-  const steps = await reproduceSnapshotOffThread(snapshot);
+  const check = await checkSealedRevision(db, { ...rev, groupId: member.group.id }, { offThread: true });
+  const steps = check.steps;
   const hashMatches = recomputedHash === rev.contentHash;
-  const differing = steps.filter((s) => s.outcome === "differs");
-  const ok = hashMatches && files.every((f) => f.matches) && differing.length === 0;
-  const summary = !hashMatches
-    ? "the stored snapshot does not match its content hash"
-    : !files.every((f) => f.matches)
-      ? "an original file no longer has the checksum recorded at sealing"
-      : differing.length
-        ? `${differing.length} of ${steps.length} steps do not reproduce (first: step ${differing[0]!.position + 1}, ${differing[0]!.kind}, at ${differing[0]!.firstDifference})`
-        : snapshot.engineVersion === ENGINE_VERSION
-          ? `content hash verified; all ${steps.length} steps reproduce exactly (engine ${ENGINE_VERSION})`
-          : `content hash verified; all ${steps.length} steps reproduce within ${CROSS_VERSION_TOLERANCE} relative (sealed with engine ${snapshot.engineVersion}, now ${ENGINE_VERSION})`;
+  const ok = check.mismatches.length === 0;
+  const first = check.mismatches[0];
+  const context = pinnedContext(snapshot);
+  const changed = describeContextChanges(check.contextChanges);
+  const verdict = first
+    ? `${check.mismatches.length} mismatch${check.mismatches.length === 1 ? "" : "es"} with the sealed snapshot; first: ${first.what}`
+    : snapshot.engineVersion === ENGINE_VERSION
+      ? `content hash verified; stored steps, measurements and files match the snapshot; all ${steps.length} steps reproduce exactly (engine ${ENGINE_VERSION})`
+      : `content hash verified; stored steps, measurements and files match the snapshot; all ${steps.length} steps reproduce within ${CROSS_VERSION_TOLERANCE} relative (sealed with engine ${snapshot.engineVersion}, now ${ENGINE_VERSION})`;
+  const summary = [verdict, changed ? `${changed} (the sealed numbers and the sealed context are unchanged)` : null, context.note].filter(Boolean).join(". ");
   return {
-    revisionId: rev.id, number: rev.number, ok, storedHash: rev.contentHash, recomputedHash, hashMatches, files,
+    revisionId: rev.id, number: rev.number, ok, storedHash: rev.contentHash, recomputedHash, hashMatches, files: check.files,
     sealedEngineVersion: snapshot.engineVersion, currentEngineVersion: ENGINE_VERSION, tolerance: snapshot.engineVersion === ENGINE_VERSION ? 0 : CROSS_VERSION_TOLERANCE, steps, summary,
+    mismatches: check.mismatches.map((m) => ({ check: m.check, what: m.what })), contextChanges: check.contextChanges, contextNote: context.note,
   };
 }

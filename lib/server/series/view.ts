@@ -2,10 +2,18 @@
  * seriesView: the table and trends of a composition series, for its page, the API and exports.
  *
  * Per member sample, the values come from the NEWEST SEALED revision among the sample's analyses
- * (reviewed results); with `includeDrafts`, the newest unsealed revision that is newer than that
- * seal is shown too, as a separate row with `draft: true`. Trends are fitted to sealed rows only
- * unless `trendFrom: "shown"`. Axes: "x" (the sample's compositionValue) or "ea" (valence
+ * (reviewed results; an archived or renamed analysis keeps its sealed revision in the series);
+ * with `includeDrafts`, the newest unsealed revision of a non-archived analysis that is newer than
+ * that seal is shown too, as a separate row with `draft: true`. Trends are fitted to sealed rows
+ * only unless `trendFrom: "shown"`. Axes: "x" (the sample's compositionValue) or "ea" (valence
  * electrons per atom from the formula and the sample's valences, engine chemistry).
+ *
+ * One truth for sealed numbers: a sealed row's values AND its context (formula, x, valences,
+ * molar mass, density, atoms per formula unit) come from the revision's sealed snapshot (checked
+ * against its content hash; a mismatch refuses the whole view with a ConflictError naming the
+ * revision), never from step rows or the sample record as edited since. Where the record now
+ * differs, the row says "sample record changed since sealing" and names the fields. Snapshots
+ * sealed before composition was pinned show x from the record, marked as not pinned.
  */
 import type { Db } from "../db/client";
 import type { Member } from "../access";
@@ -13,6 +21,8 @@ import { parseFormula, valenceElectronsPerAtom, electronsPerFormulaUnit } from "
 import { fitTrend, freeElectronGammaMJ, type TrendFit, type TrendPoint } from "../../engine/series";
 import { getSeries, type SeriesInfo } from "./records";
 import { valuesFromSteps, type RevisionValues, type Valued } from "./extract";
+import { intactSnapshot, sealedSteps } from "../review/served";
+import { changeText, contextChanges, describeContextChanges, pinnedContext, type LiveSample } from "../review/context";
 
 export type SeriesAxis = "x" | "ea";
 export type SeriesQuantity = "gamma" | "thetaD" | "dosEF" | "massRatio" | "tc";
@@ -35,6 +45,15 @@ export interface RowSource {
   state: "open" | "in_review" | "returned" | "sealed" | "replaced";
   contentHash: string | null;
   sealedAt: string | null;
+  analysisArchived: boolean;
+}
+
+export interface RowContext {
+  /** Where formula, x, e/a and the free-electron γ come from. */
+  source: "sealed" | "sealed-chain-only" | "sample-record";
+  /** "label sealed → now" per pinned field that differs in the sample record now. */
+  changedSinceSealing: string[];
+  note: string | null;
 }
 
 export interface SeriesRow extends Omit<RevisionValues, "source"> {
@@ -51,6 +70,7 @@ export interface SeriesRow extends Omit<RevisionValues, "source"> {
   valueSource: RevisionValues["source"];
   /** null when the sample has no (sealed) analysis yet. */
   revision: RowSource | null;
+  context: RowContext;
   warnings: string[];
 }
 
@@ -70,7 +90,7 @@ export interface SeriesView {
   trends: Record<SeriesQuantity, QuantityTrends>;
 }
 
-type RevRow = { id: string; number: number; state: RowSource["state"]; contentHash: string | null; sealedAt: Date | null; updatedAt: Date; analysis: { id: string; title: string; sampleId: string } };
+type RevRow = { id: string; number: number; state: RowSource["state"]; contentHash: string | null; sealedAt: Date | null; updatedAt: Date; analysis: { id: string; title: string; sampleId: string; archivedAt: Date | null } };
 
 function newest<T>(list: T[], key: (t: T) => number): T | null {
   return list.reduce<T | null>((best, t) => (best === null || key(t) > key(best) ? t : best), null);
@@ -80,7 +100,7 @@ function pickRevisions(revs: RevRow[], includeDrafts: boolean): { sealed: RevRow
   const sealed = newest(revs.filter((r) => r.state === "sealed"), (r) => r.sealedAt!.getTime());
   if (!includeDrafts) return { sealed, draft: null };
   const since = sealed?.sealedAt?.getTime() ?? -Infinity;
-  const draft = newest(revs.filter((r) => (r.state === "open" || r.state === "in_review" || r.state === "returned") && r.updatedAt.getTime() > since), (r) => r.updatedAt.getTime());
+  const draft = newest(revs.filter((r) => (r.state === "open" || r.state === "in_review" || r.state === "returned") && r.analysis.archivedAt === null && r.updatedAt.getTime() > since), (r) => r.updatedAt.getTime());
   return { sealed, draft };
 }
 
@@ -98,7 +118,19 @@ function axes(sample: { formula: string; valences: unknown; compositionValue: nu
 
 const toSource = (r: RevRow): RowSource => ({
   analysisId: r.analysis.id, analysisTitle: r.analysis.title, revisionId: r.id, revisionNumber: r.number, state: r.state, contentHash: r.contentHash, sealedAt: r.sealedAt?.toISOString() ?? null,
+  analysisArchived: r.analysis.archivedAt !== null,
 });
+
+type SampleRecord = LiveSample & { id: string; label: string; archivedAt: Date | null; valences: unknown };
+
+/** A sealed row's values and context from the snapshot (intact, or ConflictError). */
+async function sealedRowsData(db: Db, ids: string[]) {
+  const rows = ids.length ? await db.analysisRevision.findMany({ where: { id: { in: ids } }, select: { id: true, number: true, contentHash: true, snapshot: true, analysis: { select: { title: true } } } }) : [];
+  return new Map(rows.map((r) => {
+    const snap = intactSnapshot(r, r.analysis.title);
+    return [r.id, { steps: sealedSteps(snap), context: pinnedContext(snap) }];
+  }));
+}
 
 function trendPoints(rows: SeriesRow[], q: SeriesQuantity): TrendPoint[] {
   return rows.flatMap((r) => {
@@ -123,25 +155,43 @@ export async function seriesView(db: Db, member: Member, seriesId: string, optio
   const axis = options.axis ?? "x";
   const includeDrafts = options.includeDrafts ?? false;
   const trendFrom = options.trendFrom ?? "sealed";
-  const samples = await db.sample.findMany({ where: { id: { in: series.memberIds }, groupId: member.group.id } });
+  const samples: SampleRecord[] = await db.sample.findMany({ where: { id: { in: series.memberIds }, groupId: member.group.id } });
   const revs: RevRow[] = await db.analysisRevision.findMany({
-    where: { analysis: { sampleId: { in: series.memberIds }, groupId: member.group.id, archivedAt: null } },
-    select: { id: true, number: true, state: true, contentHash: true, sealedAt: true, updatedAt: true, analysis: { select: { id: true, title: true, sampleId: true } } },
+    where: { analysis: { sampleId: { in: series.memberIds }, groupId: member.group.id } },
+    select: { id: true, number: true, state: true, contentHash: true, sealedAt: true, updatedAt: true, analysis: { select: { id: true, title: true, sampleId: true, archivedAt: true } } },
   });
   const picks = new Map(samples.map((s) => [s.id, pickRevisions(revs.filter((r) => r.analysis.sampleId === s.id), includeDrafts)]));
-  const wanted = [...picks.values()].flatMap((p) => [p.sealed?.id, p.draft?.id]).filter((id): id is string => !!id);
-  const steps = await db.step.findMany({ where: { revisionId: { in: wanted } }, select: { revisionId: true, kind: true, position: true, output: true } });
+  const sealedIds = [...picks.values()].flatMap((p) => (p.sealed ? [p.sealed.id] : []));
+  const draftIds = [...picks.values()].flatMap((p) => (p.draft ? [p.draft.id] : []));
+  const [sealed, draftSteps] = await Promise.all([
+    sealedRowsData(db, sealedIds),
+    draftIds.length ? db.step.findMany({ where: { revisionId: { in: draftIds } }, select: { revisionId: true, kind: true, position: true, output: true } }) : Promise.resolve([]),
+  ]);
   const rows: SeriesRow[] = [];
   for (const s of samples) {
-    const warnings: string[] = [];
-    const { ea, gammaFree } = axes(s, warnings);
-    const base = { sample: { id: s.id, label: s.label, formula: s.formula, archived: s.archivedAt !== null }, x: s.compositionValue, electronsPerAtom: ea, axisValue: axis === "x" ? s.compositionValue : ea, gammaFree };
     const pick = picks.get(s.id)!;
     const emit = (rev: RevRow | null, draft: boolean) => {
-      const v = valuesFromSteps(rev ? steps.filter((st) => st.revisionId === rev.id) : [], s.atomsPerFormulaUnit);
+      const warnings: string[] = [];
+      const data = rev && !draft ? sealed.get(rev.id)! : null;
+      const ctx = data?.context ?? null;
+      // The context the row's numbers go with: sealed (pinned) for sealed rows, the record otherwise.
+      const used = ctx ? { ...ctx.sample, compositionValue: ctx.pinned === "full" ? ctx.sample.compositionValue : s.compositionValue } : { ...s, valences: (s.valences ?? {}) as Record<string, number> };
+      const { ea, gammaFree } = axes(used, warnings);
+      const changes = ctx ? contextChanges(ctx, s, { id: series.id, compositionVariable: series.compositionVariable }) : [];
+      const changed = describeContextChanges(changes);
+      if (changed) warnings.push(changed);
+      if (ctx?.note) warnings.push(ctx.note);
+      const steps = data ? data.steps : rev ? draftSteps.filter((st) => st.revisionId === rev.id) : [];
+      const v = valuesFromSteps(steps, used.atomsPerFormulaUnit);
       const { source, ...values } = v;
-      const w = [...warnings, ...(rev && !v.gamma ? ["the revision has no fit or derive output with γ"] : []), ...(!rev ? ["no sealed analysis revision yet"] : [])];
-      rows.push({ ...base, ...values, draft, valueSource: source, revision: rev ? toSource(rev) : null, warnings: w });
+      if (rev && !v.gamma) warnings.push("the revision has no fit or derive output with γ");
+      if (!rev) warnings.push("no sealed analysis revision yet");
+      rows.push({
+        sample: { id: s.id, label: s.label, formula: used.formula, archived: s.archivedAt !== null }, x: used.compositionValue, electronsPerAtom: ea,
+        axisValue: axis === "x" ? used.compositionValue : ea, gammaFree, ...values, draft, valueSource: source, revision: rev ? toSource(rev) : null,
+        context: { source: ctx ? (ctx.pinned === "full" ? "sealed" : "sealed-chain-only") : "sample-record", changedSinceSealing: changes.map(changeText), note: ctx?.note ?? null },
+        warnings,
+      });
     };
     if (pick.sealed || !pick.draft) emit(pick.sealed, false);
     if (pick.draft) emit(pick.draft, true);

@@ -6,6 +6,7 @@ import { groupPaths } from "@/app/_lib/paths";
 import { fmtDay, fmtDate } from "@/app/_lib/format";
 import { LeaveGroupButton, MemberRoleSelect, RemoveMemberButton } from "@/app/components/MemberControls";
 import { InviteForm, RevokeInvitationButton } from "@/app/components/Invitations";
+import { IssuePasswordLinkButton } from "@/app/components/PasswordLink";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Members" };
@@ -50,7 +51,12 @@ export default async function MembersPage({ params }: { params: Promise<{ slug: 
                   {manage ? <MemberRoleSelect apiBase={p.api} userId={m.userId} name={m.name || m.email} role={m.role} /> : <span className="role">{m.role}</span>}
                 </td>
                 <td>{fmtDay(m.since)}</td>
-                {manage && <td>{m.userId !== member.userId && <RemoveMemberButton apiBase={p.api} userId={m.userId} name={m.name || m.email} />}</td>}
+                {manage && (
+                  <td>
+                    {m.userId !== member.userId && <RemoveMemberButton apiBase={p.api} userId={m.userId} name={m.name || m.email} />}
+                    {!m.hasPassword && <><span className="small muted">no password (restored account, or institutional sign-in)</span><IssuePasswordLinkButton apiBase={p.api} userId={m.userId} name={m.name || m.email} /></>}
+                  </td>
+                )}
               </tr>
             ))}
           </tbody>
