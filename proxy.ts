@@ -20,5 +20,5 @@ export function proxy(req: NextRequest): NextResponse {
 }
 
 export const config = {
-  matcher: ["/groups", "/groups/:path*", "/g/:path*"],
+  matcher: ["/groups", "/groups/:path*", "/g/:path*", "/account"],
 };

@@ -7,12 +7,18 @@
  * token that a route handler or server component cannot even send back (in the App Router only
  * /api/auth/session refreshes the cookie). A decoded token is remembered by its exact text
  * until its own expiry: the text is unforgeable, so a hit is as good as a fresh decryption.
+ *
+ * The token names a server-side session (`sid`, lib/server/auth/sessions.ts); the session row is
+ * checked on EVERY request, so sign-out, "sign out everywhere" and the idle and absolute limits
+ * take effect at once. Routes of a group fold that check into their membership statement
+ * (inGroupWith); everything else calls sessionUserId, one statement.
  */
 import { cookies } from "next/headers";
 import { decode } from "next-auth/jwt";
 import { getDb } from "./db/client";
 import { UnauthenticatedError } from "../engine/errors";
 import type { UserInfo } from "./users";
+import { liveSessionUser } from "./auth/sessions";
 
 /** next-auth's cookie name: with the __Secure- prefix when the public URL is https. */
 function sessionCookieName(): string {
@@ -20,7 +26,13 @@ function sessionCookieName(): string {
 }
 
 const TOKEN_CACHE_SIZE = 2000;
-const decoded = new Map<string, { uid: string | null; expMs: number }>();
+const decoded = new Map<string, { claims: SessionClaims | null; expMs: number }>();
+
+/** What the cookie says: the user and the server-side session it belongs to. */
+export interface SessionClaims {
+  uid: string;
+  sid: string;
+}
 
 /** The session token of the request: the cookie, or its chunks name.0, name.1, … joined in order. */
 async function sessionToken(): Promise<string | null> {
@@ -33,13 +45,17 @@ async function sessionToken(): Promise<string | null> {
   return chunks.sort((a, b) => Number(a.name.slice(name.length + 1)) - Number(b.name.slice(name.length + 1))).map((c) => c.value).join("");
 }
 
-/** The user id in the request's session, or null (no cookie, bad or expired token). */
-export async function sessionUserId(): Promise<string | null> {
+/**
+ * The claims of the request's session cookie, or null (no cookie, bad or expired token, or a
+ * token from before server-side sessions). NOT a check of the session row: callers must check
+ * it (sessionUserId, or inGroupWith's statement).
+ */
+export async function sessionClaims(): Promise<SessionClaims | null> {
   const token = await sessionToken();
   if (!token) return null;
   const now = Date.now();
   const hit = decoded.get(token);
-  if (hit && hit.expMs > now) return hit.uid;
+  if (hit && hit.expMs > now) return hit.claims;
   const secret = process.env.NEXTAUTH_SECRET ?? process.env.AUTH_SECRET;
   if (!secret) return null;
   let payload: Awaited<ReturnType<typeof decode>>;
@@ -48,12 +64,20 @@ export async function sessionUserId(): Promise<string | null> {
   } catch {
     return null;
   }
-  const uid = typeof payload?.uid === "string" ? payload.uid : null;
+  const claims = typeof payload?.uid === "string" && typeof payload.sid === "string" ? { uid: payload.uid, sid: payload.sid } : null;
   const exp = typeof payload?.exp === "number" ? payload.exp * 1000 : now;
   decoded.delete(token);
-  decoded.set(token, { uid, expMs: exp });
+  decoded.set(token, { claims, expMs: exp });
   while (decoded.size > TOKEN_CACHE_SIZE) decoded.delete(decoded.keys().next().value!);
-  return uid;
+  return claims;
+}
+
+/** The user id of the request's live session, or null (no cookie, bad token, session ended or expired). */
+export async function sessionUserId(): Promise<string | null> {
+  const claims = await sessionClaims();
+  if (!claims) return null;
+  const uid = await liveSessionUser(getDb(), claims.sid);
+  return uid === claims.uid ? uid : null;
 }
 
 export async function currentUser(): Promise<UserInfo | null> {

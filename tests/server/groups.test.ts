@@ -16,10 +16,10 @@ describe("groups", () => {
     const invitee = await makeUser(t.db, "invitee");
     const { token } = await inviteMember(t.db, g.members.owner, { email: invitee.email, role: "reviewer" });
     expect((await previewInvitation(t.db, token)).usable).toBe(true);
-    await acceptInvitation(t.db, invitee.id, token);
+    await acceptInvitation(t.db, invitee, token);
     expect((await memberOf(t.db, invitee.id, g.slug)).role).toBe("reviewer");
     expect((await previewInvitation(t.db, token)).why).toBe("already accepted");
-    await expect(acceptInvitation(t.db, invitee.id, token)).rejects.toThrow(/no longer be used/);
+    await expect(acceptInvitation(t.db, invitee, token)).rejects.toThrow(/no longer be used/);
   });
 
   it("inviteMember by a non-owner is refused", async () => {
