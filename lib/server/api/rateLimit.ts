@@ -31,16 +31,16 @@ export interface RateLimiter {
   take(key: string): Promise<TakeResult>;
 }
 
-// $1 key, $2 capacity, $3 refill per second, $4 the time (NULL: the database's clock). `level`
-// is the bucket after refill, before taking.
+// $1 key, $2 capacity, $3 refill per second, $4 the time (NULL: the database's clock). On an
+// existing row, LEVEL is the bucket after refill up to EXCLUDED."at" (this request's time),
+// before taking; the VALUES row is a fresh, full bucket less this request.
+const LEVEL = `LEAST($2::float8, b."tokens" + GREATEST(0, EXTRACT(EPOCH FROM (EXCLUDED."at" - b."at")))::float8 * $3::float8)`;
 const TAKE_SQL = `
 INSERT INTO "ApiRateBucket" AS b ("key", "tokens", "at", "allowed") VALUES ($1, $2::float8 - 1, COALESCE($4::timestamptz, clock_timestamp()), true)
 ON CONFLICT ("key") DO UPDATE SET
-  "tokens" = CASE WHEN l.level >= 1 THEN l.level - 1 ELSE l.level END,
-  "at" = l.now,
-  "allowed" = l.level >= 1
-FROM (SELECT COALESCE($4::timestamptz, clock_timestamp()) AS now) n,
-  LATERAL (SELECT n.now, LEAST($2::float8, b."tokens" + GREATEST(0, EXTRACT(EPOCH FROM (n.now - b."at")))::float8 * $3::float8) AS level) l
+  "tokens" = CASE WHEN ${LEVEL} >= 1 THEN ${LEVEL} - 1 ELSE ${LEVEL} END,
+  "at" = GREATEST(b."at", EXCLUDED."at"),
+  "allowed" = ${LEVEL} >= 1
 RETURNING b."tokens" AS "tokens", b."allowed" AS "allowed"`;
 
 /** The shared limiter: one bucket row per key in ApiRateBucket. */
