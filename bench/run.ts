@@ -8,6 +8,7 @@ const parts: Record<string, () => Promise<string>> = {
   engine: async () => (await import("./engine")).runEngineBench(),
   import: async () => (await import("./import")).runImportBench(),
   notebook: async () => (await import("./notebook")).runNotebookBench(),
+  auth: async () => (await import("./authCost")).runAuthBench(),
 };
 
 const wanted = process.argv.slice(2).filter((a) => !a.startsWith("-"));
