@@ -35,6 +35,8 @@ test("sign out ends the session: the old cookie then gets 401 and the pages send
   const page = await newPage(browser);
   await uiSignIn(page, DEMO.viewer);
   const cookie = await sessionCookie(page);
+  const device = (await page.context().cookies(`${baseURL}/api/auth/signin`)).find((c) => c.name.startsWith("hb-device-"));
+  expect(device, "device cookie after a password sign-in").toMatchObject({ path: "/api/auth", httpOnly: true, sameSite: "Lax" });
   await page.getByTestId("user-menu").locator("summary").click();
   await page.getByRole("button", { name: "Sign out" }).click();
   await expect(page).toHaveURL(`${baseURL}/`);

@@ -18,7 +18,7 @@ import { decode } from "next-auth/jwt";
 import { getDb } from "./db/client";
 import { UnauthenticatedError } from "../engine/errors";
 import type { UserInfo } from "./users";
-import { liveSessionUser } from "./auth/sessions";
+import { liveSessionUser, liveSessionUserRow } from "./auth/sessions";
 
 /** next-auth's cookie name: with the __Secure- prefix when the public URL is https. */
 function sessionCookieName(): string {
@@ -80,11 +80,12 @@ export async function sessionUserId(): Promise<string | null> {
   return uid === claims.uid ? uid : null;
 }
 
+/** The signed-in user (live session and user row in one statement), or null. */
 export async function currentUser(): Promise<UserInfo | null> {
-  const id = await sessionUserId();
-  if (!id) return null;
-  const user = await getDb().user.findUnique({ where: { id }, select: { id: true, email: true, name: true } });
-  return user ?? null;
+  const claims = await sessionClaims();
+  if (!claims) return null;
+  const user = await liveSessionUserRow(getDb(), claims.sid);
+  return user && user.id === claims.uid ? user : null;
 }
 
 export async function requireUser(): Promise<UserInfo> {

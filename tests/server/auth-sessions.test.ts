@@ -53,6 +53,19 @@ describe("sign-out", () => {
     expect((await mySessions()).status).toBe(401);
   });
 
+  it("currentUser and next-auth's session callback see a live session, and nothing once it has ended", async () => {
+    const { currentUser } = await import("../../lib/server/session");
+    const token = await signedInAs(g.members.reviewer.userId);
+    const claims = (await decode({ token, secret: process.env.NEXTAUTH_SECRET! }))!;
+    const base = { user: { email: "x@example.org" }, expires: "2099-01-01T00:00:00.000Z" };
+    const callback = authOptions.callbacks!.session! as (p: unknown) => Promise<{ user?: unknown }>;
+    expect((await currentUser())?.id).toBe(g.members.reviewer.userId);
+    expect((await callback({ session: structuredClone(base), token: claims })).user).toBeDefined();
+    await authOptions.events!.signOut!({ token: claims, session: undefined as never });
+    expect(await currentUser()).toBeNull();
+    expect((await callback({ session: structuredClone(base), token: claims })).user).toBeUndefined();
+  });
+
   it("POST /api/account/sessions/end-all ends every session of the user and no one else's", async () => {
     const other = await sessionTokenFor(g.members.reviewer.userId);
     const first = await signedInAs(g.members.analyst.userId);

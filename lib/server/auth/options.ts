@@ -9,7 +9,7 @@ import CredentialsProvider from "next-auth/providers/credentials";
 import { getDb } from "../db/client";
 import { authenticate, findOrCreateExternalUser, normaliseEmail } from "../users";
 import { signInClient } from "./client";
-import { createSession, endSession, sessionPolicy } from "./sessions";
+import { createSession, endSession, liveSessionUser, sessionPolicy } from "./sessions";
 
 /** Headers of next-auth's internal request as a lookup by lower-case name. */
 function headerLookup(headers: Record<string, unknown> | undefined): { get(name: string): string | null } {
@@ -82,6 +82,9 @@ export const authOptions: NextAuthOptions = {
       return token;
     },
     async session({ session, token }) {
+      // /api/auth/session tells the browser it is signed out once its session row has ended.
+      const live = typeof token.sid === "string" && typeof token.uid === "string" && (await liveSessionUser(getDb(), token.sid)) === token.uid;
+      if (!live) return { expires: session.expires } as typeof session;
       if (session.user && typeof token.uid === "string") (session.user as { id?: string }).id = token.uid;
       return session;
     },

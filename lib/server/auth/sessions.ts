@@ -75,6 +75,15 @@ export async function liveSessionUser(db: Db, sessionId: string): Promise<string
   return row?.userId ?? null;
 }
 
+/** The user row of a live session (refreshing its last use), or null. One statement. */
+export async function liveSessionUserRow(db: Db, sessionId: string): Promise<{ id: string; email: string; name: string } | null> {
+  const live = liveSessionSql(1);
+  const [row] = await sqlRows<{ id: string; email: string; name: string }>(
+    db, `WITH ${live.sql} SELECT u."id"::text AS "id", u."email", u."name" FROM sess JOIN "User" u ON u."id" = sess."userId"`, live.values(sessionId),
+  );
+  return row ?? null;
+}
+
 /** End one session (sign-out). Idempotent. */
 export async function endSession(db: Db, sessionId: string, reason = "signed out"): Promise<void> {
   await db.session.updateMany({ where: { id: uuidOrNone(sessionId), endedAt: null }, data: { endedAt: sessionNow(), endReason: reason } });
