@@ -16,7 +16,7 @@ function headerLookup(headers: Record<string, unknown> | undefined): { get(name:
   return { get: (name) => (typeof headers?.[name] === "string" ? (headers[name] as string) : null) };
 }
 
-/** "about 3 minutes", "about 1 hour": the wait of a throttled sign-in, rounded up. */
+/** "3 min", "1 h": the wait of a throttled sign-in, rounded up to whole minutes. */
 export function waitText(ms: number): string {
   const minutes = Math.max(1, Math.ceil(ms / 60_000));
   return minutes >= 60 && minutes % 60 === 0 ? `${minutes / 60} h` : `${minutes} min`;
