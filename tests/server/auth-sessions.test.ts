@@ -58,7 +58,7 @@ describe("sign-out", () => {
     const token = await signedInAs(g.members.reviewer.userId);
     const claims = (await decode({ token, secret: process.env.NEXTAUTH_SECRET! }))!;
     const base = { user: { email: "x@example.org" }, expires: "2099-01-01T00:00:00.000Z" };
-    const callback = authOptions.callbacks!.session! as (p: unknown) => Promise<{ user?: unknown }>;
+    const callback = authOptions.callbacks!.session! as unknown as (p: unknown) => Promise<{ user?: unknown }>;
     expect((await currentUser())?.id).toBe(g.members.reviewer.userId);
     expect((await callback({ session: structuredClone(base), token: claims })).user).toBeDefined();
     await authOptions.events!.signOut!({ token: claims, session: undefined as never });
