@@ -1,6 +1,6 @@
 /**
  * `npm run bench`: every benchmark, printed as markdown tables with the machine they ran on.
- * `npm run bench -- engine` (or import, notebook) runs one part.
+ * `npm run bench -- engine` (or import, notebook, browser, cli) runs one part; browser needs a build.
  */
 import { cpus, totalmem } from "node:os";
 
@@ -8,6 +8,8 @@ const parts: Record<string, () => Promise<string>> = {
   engine: async () => (await import("./engine")).runEngineBench(),
   import: async () => (await import("./import")).runImportBench(),
   notebook: async () => (await import("./notebook")).runNotebookBench(),
+  browser: async () => (await import("./browser")).runBrowserBench(),
+  cli: async () => (await import("./cli")).runCliBench(),
   auth: async () => (await import("./authCost")).runAuthBench(),
 };
 

@@ -63,7 +63,7 @@ test("sign up, create a group, invite a colleague, create a sample, upload a CSV
   await page.getByRole("link", { name: "T-1 Nb0.75Mo0.25" }).first().click();
   await expect(page.getByText(/93\.6\d/).first()).toBeVisible(); // molar mass 0.75·92.906 + 0.25·95.95 = 93.667 g/mol (IUPAC 2021 weights)
 
-  await page.getByLabel("Data file").setInputFiles({ name: "t1.csv", mimeType: "text/csv", buffer: Buffer.from(CSV) });
+  await page.getByLabel("Data files").setInputFiles({ name: "t1.csv", mimeType: "text/csv", buffer: Buffer.from(CSV) });
   await page.getByRole("button", { name: "Read file" }).click();
   await expect(page.getByTestId("import-detected")).toContainText(/decimal comma/i);
   await page.getByLabel("Heat capacity unit").selectOption("mJ/K");

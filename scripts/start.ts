@@ -9,7 +9,7 @@
  *          existing build as it is; the test runner builds just before the browser tests),
  *          --no-worker (do not start the one background-job worker that `npm start` runs).
  */
-import { spawn, spawnSync, type ChildProcess } from "node:child_process";
+import { spawn, type ChildProcess } from "node:child_process";
 import { existsSync, mkdirSync, readFileSync, writeFileSync, statSync, readdirSync, rmSync } from "node:fs";
 import { join } from "node:path";
 import { randomBytes } from "node:crypto";
@@ -47,13 +47,41 @@ function newestMtime(dir: string): number {
   return newest;
 }
 
-function buildIfStale(): void {
+/** Seconds of a cold `next build` on a 2-core machine (measured for this app: about 2 minutes). */
+const TYPICAL_BUILD_S = 120;
+const PROGRESS_EVERY_MS = 10_000;
+
+/**
+ * Build when `.next/BUILD_ID` is missing or older than the sources. Says that it builds and roughly
+ * how long it takes (the last build's time on this machine, kept in DIR/last-build.json, else the
+ * typical figure), shows the build's own output, and prints a line every 10 s while it runs.
+ */
+async function buildIfStale(): Promise<void> {
   const marker = join(".next", "BUILD_ID");
   const sources = Math.max(newestMtime("app"), newestMtime("lib"), statSync("next.config.js").mtimeMs);
   if (existsSync(marker) && statSync(marker).mtimeMs > sources) return;
-  console.log("heatbook: building the app (first start, or sources changed) …");
-  const r = spawnSync(process.execPath, ["node_modules/next/dist/bin/next", "build"], { stdio: "inherit", env: process.env });
-  if (r.status !== 0) throw new Error("next build failed");
+  const record = join(dataDir, "last-build.json");
+  let lastS: number | null = null;
+  try {
+    lastS = (JSON.parse(readFileSync(record, "utf8")) as { seconds?: number }).seconds ?? null;
+  } catch {
+    lastS = null;
+  }
+  const expect = lastS !== null ? `the last build here took ${Math.round(lastS)} s` : `about ${Math.round(TYPICAL_BUILD_S / 60)} minutes on a 2-core machine`;
+  console.log(`heatbook: building the app (${existsSync(marker) ? "sources changed" : "first start"}): ${expect}; the build's own output follows`);
+  const t0 = Date.now();
+  const child = spawn(process.execPath, ["node_modules/next/dist/bin/next", "build"], { stdio: "inherit", env: process.env });
+  const ticker = setInterval(() => {
+    const s = Math.round((Date.now() - t0) / 1000);
+    const total = lastS ?? TYPICAL_BUILD_S;
+    console.log(`heatbook: still building … ${s} s${s < total ? ` of about ${Math.round(total)} s` : ""}`);
+  }, PROGRESS_EVERY_MS);
+  const code = await new Promise<number | null>((resolve) => child.once("exit", (c) => resolve(c)));
+  clearInterval(ticker);
+  if (code !== 0) throw new Error("next build failed (its output is above)");
+  const seconds = (Date.now() - t0) / 1000;
+  writeFileSync(record, JSON.stringify({ seconds, at: new Date().toISOString() }) + "\n");
+  console.log(`heatbook: built in ${Math.round(seconds)} s`);
 }
 
 async function main(): Promise<void> {
@@ -79,7 +107,7 @@ async function main(): Promise<void> {
   process.env.NEXTAUTH_URL ??= `http://localhost:${port}`;
   if (!dev && flag("no-build")) {
     if (!existsSync(join(".next", "BUILD_ID"))) throw new Error("--no-build, but there is no build: run `npx next build` first");
-  } else if (!dev) buildIfStale();
+  } else if (!dev) await buildIfStale();
   const args = [...SERVER_NODE_FLAGS, "node_modules/next/dist/bin/next", dev ? "dev" : "start", "-H", "127.0.0.1", "-p", String(port)];
   const child: ChildProcess = spawn(process.execPath, args, { stdio: "inherit", env: process.env });
   console.log(`heatbook: serving on http://localhost:${port}`);

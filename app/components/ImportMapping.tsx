@@ -15,6 +15,8 @@ export interface MappingState {
   label: string;
   fieldT: string;
   notes: string;
+  /** σ of each point as a percentage of C when no σ column is chosen; "" = unweighted (no σ stored). */
+  sigmaPercent: string;
 }
 
 const idx = (g: { index: number } | null) => (g ? String(g.index) : "");
@@ -33,6 +35,7 @@ export function initialMapping(p: Preview, heatCapacityUnits: string[]): Mapping
     label: p.fileName.replace(/\.[A-Za-z0-9]{1,5}$/, ""),
     fieldT: "0",
     notes: "",
+    sigmaPercent: "",
   };
 }
 
@@ -45,8 +48,11 @@ export function mappingPayload(m: MappingState): Record<string, unknown> | strin
   if (!m.cUnit) return "choose the heat-capacity unit";
   const fieldT = m.fieldT.trim() === "" ? 0 : Number(m.fieldT.trim().replace(",", "."));
   if (!Number.isFinite(fieldT)) return `field in tesla is not a number: "${m.fieldT}"`;
+  const sigmaPercent = m.sigma === "" && m.sigmaPercent.trim() !== "" ? Number(m.sigmaPercent.trim().replace(",", ".")) : undefined;
+  if (sigmaPercent !== undefined && !(sigmaPercent > 0 && sigmaPercent <= 100)) return `relative σ must be a percentage above 0 and at most 100: "${m.sigmaPercent}"`;
   return {
     kind: m.kind,
+    ...(sigmaPercent !== undefined ? { sigmaPercent } : {}),
     label: m.label,
     fieldT,
     notes: m.notes,
@@ -60,11 +66,13 @@ export function mappingPayload(m: MappingState): Record<string, unknown> | strin
   };
 }
 
-export function ImportMapping({ preview, state, onChange, heatCapacityUnits }: {
+export function ImportMapping({ preview, state, onChange, heatCapacityUnits, batch = false }: {
   preview: Preview;
   state: MappingState;
   onChange: (s: MappingState) => void;
   heatCapacityUnits: string[];
+  /** Several files share this mapping: labels are set per file in the file list, not here. */
+  batch?: boolean;
 }) {
   const set = (patch: Partial<MappingState>) => onChange({ ...state, ...patch });
   const columnSelect = (id: string, label: string, key: "temperature" | "heatCapacity" | "sigma" | "field", optional: boolean) => {
@@ -103,6 +111,12 @@ export function ImportMapping({ preview, state, onChange, heatCapacityUnits }: {
         <span className="hint">σ, if given, is read in the same unit.</span>
       </div>
       {columnSelect("map-sigma", "σ column (optional)", "sigma", true)}
+      <div className="field">
+        <label htmlFor="sigma-percent">σ when there is no σ column (% of C)</label>
+        <input id="sigma-percent" type="text" inputMode="decimal" placeholder="none: unweighted" value={state.sigmaPercent}
+          disabled={state.sigma !== ""} onChange={(e) => set({ sigmaPercent: e.target.value })} />
+        <span className="hint">{state.sigma !== "" ? "σ is read from its column." : "Empty: no σ is stored and fits are unweighted; e.g. 0.5 stores σ = 0.5 % of C."}</span>
+      </div>
       {columnSelect("map-field", "Field column (optional)", "field", true)}
       <div className="field">
         <label htmlFor="unit-field">Field column unit</label>
@@ -117,10 +131,12 @@ export function ImportMapping({ preview, state, onChange, heatCapacityUnits }: {
           <option value="addenda">addenda (empty platform + grease)</option>
         </select>
       </div>
-      <div className="field">
-        <label htmlFor="import-label">Measurement label</label>
-        <input id="import-label" type="text" value={state.label} onChange={(e) => set({ label: e.target.value })} />
-      </div>
+      {!batch && (
+        <div className="field">
+          <label htmlFor="import-label">Measurement label</label>
+          <input id="import-label" type="text" value={state.label} onChange={(e) => set({ label: e.target.value })} />
+        </div>
+      )}
       <div className="field">
         <label htmlFor="import-field-t">Applied field (T)</label>
         <input id="import-field-t" type="text" inputMode="decimal" value={state.fieldT} onChange={(e) => set({ fieldT: e.target.value })} />

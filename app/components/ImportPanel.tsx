@@ -1,17 +1,22 @@
 "use client";
 /**
- * Import a C(T) file into a sample in two steps. 1) "Read file": POST .../imports shows what the
- * server found (delimiter, decimal comma, first rows, issues with line and column, guessed column
- * roles); nothing is stored. 2) The user confirms roles, units, kind, label, field → "Store
- * measurement" POSTs the same file to .../measurements. A refused file (422) names line/column.
+ * Import C(T) files into a sample, one or several at once, in two steps. 1) "Read": each file is
+ * POSTed to .../imports and the server answers what it found (delimiter, decimal mark, first
+ * rows, every bad line of the mapped columns, repeated and non-increasing temperatures, the
+ * curve); nothing is stored. A file that reads two ways is not guessed: it must be re-read with
+ * the delimiter and decimal mark chosen. 2) The user confirms roles, units and kind (once for all
+ * files that share a layout) → "Store" POSTs each file to .../measurements, one transaction per
+ * file, and a summary lists what was stored and what was refused.
  */
 import Link from "next/link";
 import { useRouter } from "next/navigation";
-import { useState, type FormEvent } from "react";
+import { useEffect, useRef, useState, type FormEvent } from "react";
 import { callUpload } from "@/app/_lib/api";
 import { DELIMITER_NAMES } from "@/app/_lib/importChoices";
 import { ImportPreviewTable } from "./ImportPreviewTable";
 import { ImportMapping, initialMapping, mappingPayload, type MappingState } from "./ImportMapping";
+import { ImportChecks } from "./ImportChecks";
+import { ImportCurve } from "./ImportCurve";
 
 export interface Preview {
   fileName: string;
@@ -27,59 +32,156 @@ export interface Preview {
   issues: { line: number; column: number; field?: string; message: string }[];
   issueCount: number;
   preamble: string[];
+  ambiguity: { kind: string; line: number; message: string } | null;
+  checks: PreviewChecks | null;
+}
+
+export interface PreviewChecks {
+  mapping: { temperature: number; heatCapacity: number; sigma?: number };
+  invalid: { line: number; column: number; field?: string; message: string }[];
+  invalidCount: number;
+  temperatures: {
+    duplicates: { line: number; otherLine: number; value: number }[];
+    duplicateCount: number;
+    decreasing: { line: number; otherLine: number; value: number }[];
+    decreasingCount: number;
+  };
+  validCount: number;
+  curve: { temperature: number[]; heatCapacity: number[]; line: number[]; reduced: boolean; total: number };
+}
+
+interface Entry {
+  file: File;
+  label: string;
+  preview: Preview | null;
+  error: string | null;
+}
+
+interface Outcome {
+  fileName: string;
+  ok: boolean;
+  text: string;
+  id?: string;
+  label?: string;
+  warnings?: string[];
+}
+
+/** Files share a layout when they have the same columns (count, names, units) in the same order. */
+function layoutKey(p: Preview): string {
+  return JSON.stringify(p.columns.map((c) => [c.name, c.unitText]));
 }
 
 export function ImportPanel({ apiBase, measurementPath, heatCapacityUnits }: { apiBase: string; measurementPath: string; heatCapacityUnits: string[] }) {
   const router = useRouter();
-  const [file, setFile] = useState<File | null>(null);
+  const [entries, setEntries] = useState<Entry[]>([]);
   const [delimiter, setDelimiter] = useState("auto");
   const [decimalComma, setDecimalComma] = useState("auto");
-  const [preview, setPreview] = useState<Preview | null>(null);
   const [mapping, setMapping] = useState<MappingState | null>(null);
+  const [active, setActive] = useState(0);
   const [error, setError] = useState<string | null>(null);
-  const [stored, setStored] = useState<{ id: string; label: string; pointCount: number } | null>(null);
+  const [outcomes, setOutcomes] = useState<Outcome[]>([]);
   const [busy, setBusy] = useState<"preview" | "store" | null>(null);
+  const roleKey = useRef("");
 
   const parse = { delimiter, decimalComma: decimalComma === "auto" ? "auto" : decimalComma === "yes" };
+  const previews = entries.map((e) => e.preview).filter((p): p is Preview => p !== null);
+  const shared = previews.length === entries.length && new Set(previews.map(layoutKey)).size === 1;
+  const current = entries[active]?.preview ?? null;
+
+  async function previewOne(file: File, roles?: MappingState): Promise<Pick<Entry, "preview" | "error">> {
+    const body: Record<string, unknown> = { parse };
+    if (roles && roles.temperature !== "" && roles.heatCapacity !== "" && roles.temperature !== roles.heatCapacity) {
+      body.mapping = {
+        temperature: Number(roles.temperature), heatCapacity: Number(roles.heatCapacity),
+        ...(roles.sigma !== "" && roles.sigma !== roles.temperature && roles.sigma !== roles.heatCapacity ? { sigma: Number(roles.sigma) } : {}),
+      };
+    }
+    const res = await callUpload<{ preview: Preview }>(`${apiBase}/imports`, file, body);
+    return res.ok && res.data ? { preview: res.data.preview, error: null } : { preview: null, error: res.error };
+  }
 
   async function read(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
-    if (!file) return setError("choose a file first");
+    if (entries.length === 0) return setError("choose one or more files first");
     setBusy("preview");
     setError(null);
-    setStored(null);
-    const res = await callUpload<{ preview: Preview }>(`${apiBase}/imports`, file, { parse });
+    setOutcomes([]);
+    const next: Entry[] = [];
+    for (const entry of entries) next.push({ ...entry, ...(await previewOne(entry.file)) });
     setBusy(null);
-    if (!res.ok || !res.data) {
-      setPreview(null);
-      return setError(res.error);
-    }
-    setPreview(res.data.preview);
-    setMapping(initialMapping(res.data.preview, heatCapacityUnits));
+    setEntries(next);
+    const first = next.findIndex((x) => x.preview);
+    setActive(Math.max(0, first));
+    const p = first >= 0 ? next[first]!.preview! : null;
+    const m = p ? initialMapping(p, heatCapacityUnits) : null;
+    roleKey.current = m ? rolesKey(m) : "";
+    setMapping(m);
   }
 
+  // When the T, C or σ column changes, read the files again so the checks and the curve follow.
+  useEffect(() => {
+    if (!mapping || busy) return;
+    const key = rolesKey(mapping);
+    if (key === roleKey.current) return;
+    roleKey.current = key;
+    const timer = setTimeout(() => {
+      void (async () => {
+        const next: Entry[] = [];
+        for (const entry of entries) next.push(entry.preview ? { ...entry, ...(await previewOne(entry.file, mapping)) } : entry);
+        setEntries(next);
+      })();
+    }, 250);
+    return () => clearTimeout(timer);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [mapping]);
+
   async function store() {
-    if (!file || !mapping) return;
-    const payload = mappingPayload(mapping);
-    if (typeof payload === "string") return setError(payload);
+    if (!mapping) return;
+    const targets = shared ? entries : entries.filter((_, i) => i === active);
+    const blocked = targets.find((t) => !t.preview || t.preview.ambiguity);
+    if (blocked) return setError(`${blocked.file.name}: ${blocked.preview?.ambiguity ? "reads two ways — choose the delimiter and decimal mark, then read again" : blocked.error ?? "not read"}`);
     setBusy("store");
     setError(null);
-    const res = await callUpload<{ measurement: { id: string; label: string; pointCount: number } }>(`${apiBase}/measurements`, file, { ...payload, parse });
+    const done: Outcome[] = [];
+    for (const t of targets) {
+      const payload = mappingPayload({ ...mapping, label: targets.length > 1 ? t.label : mapping.label });
+      if (typeof payload === "string") {
+        setBusy(null);
+        return setError(payload);
+      }
+      const res = await callUpload<{ measurement: { id: string; label: string; pointCount: number; warnings?: string[] } }>(`${apiBase}/measurements`, t.file, { ...payload, parse });
+      if (res.ok && res.data) {
+        const m = res.data.measurement;
+        done.push({ fileName: t.file.name, ok: true, id: m.id, label: m.label, text: `${m.pointCount} points`, warnings: m.warnings ?? [] });
+      } else done.push({ fileName: t.file.name, ok: false, text: res.error ?? "refused" });
+    }
     setBusy(null);
-    if (!res.ok || !res.data) return setError(res.error);
-    setStored(res.data.measurement);
-    setPreview(null);
-    setMapping(null);
-    setFile(null);
+    setOutcomes(done);
+    const storedNames = new Set(done.filter((d) => d.ok).map((d) => d.fileName));
+    const left = entries.filter((e) => !storedNames.has(e.file.name));
+    setEntries(left);
+    setActive(0);
+    if (left.length === 0) setMapping(null);
     router.refresh();
   }
+
+  function choose(files: FileList | null) {
+    const list = files ? [...files] : [];
+    setEntries(list.map((file) => ({ file, label: file.name.replace(/\.[A-Za-z0-9]{1,5}$/, ""), preview: null, error: null })));
+    setMapping(null);
+    setError(null);
+    setActive(0);
+  }
+
+  const storedCount = outcomes.filter((o) => o.ok).length;
+  const refusedCount = outcomes.length - storedCount;
 
   return (
     <div className="stack" data-testid="import-panel">
       <form className="inline-form" onSubmit={read}>
         <div className="field">
-          <label htmlFor="import-file">Data file</label>
-          <input id="import-file" type="file" accept=".txt,.csv,.tsv,.dat,.dta,text/*" onChange={(e) => { setFile(e.target.files?.[0] ?? null); setPreview(null); setError(null); }} />
+          <label htmlFor="import-file">Data files</label>
+          <input id="import-file" type="file" multiple accept=".txt,.csv,.tsv,.dat,.dta,text/*" onChange={(e) => choose(e.target.files)} />
         </div>
         <div className="field">
           <label htmlFor="import-delimiter">Delimiter</label>
@@ -99,51 +201,115 @@ export function ImportPanel({ apiBase, measurementPath, heatCapacityUnits }: { a
             <option value="no">no</option>
           </select>
         </div>
-        <button type="submit" disabled={!file || busy !== null}>{busy === "preview" ? "Reading…" : preview ? "Read again" : "Read file"}</button>
+        <button type="submit" disabled={entries.length === 0 || busy !== null}>
+          {busy === "preview" ? "Reading…" : previews.length ? "Read again" : entries.length > 1 ? `Read ${entries.length} files` : "Read file"}
+        </button>
       </form>
-      <p className="small muted">Reading shows what Heatbook found in the file. Nothing is stored until you press “Store measurement”.</p>
-      {error && !preview && <p className="form-error" role="alert" data-testid="import-error">{error}</p>}
-      {stored && (
-        <p className="notice-ok" role="status">
-          Stored <Link href={`${measurementPath}/${stored.id}`}>{stored.label}</Link> with {stored.pointCount} points.
-        </p>
+      <p className="small muted">Reading shows what Heatbook found in each file. Nothing is stored until you press “Store”.</p>
+      {error && <p className="form-error" role="alert" data-testid="import-error">{error}</p>}
+      {outcomes.length > 0 && (
+        <div className={refusedCount ? "notice-info" : "notice-ok"} role="status" data-testid="import-summary">
+          <strong>{storedCount} stored{refusedCount ? `, ${refusedCount} refused` : ""}.</strong>
+          <ul className="plain">
+            {outcomes.map((o) => (
+              <li key={o.fileName}>
+                {o.ok ? "✓ " : "✕ "}
+                {o.ok && o.id ? <Link href={`${measurementPath}/${o.id}`}>{o.label}</Link> : o.fileName}: {o.text}
+                {o.warnings && o.warnings.length > 0 && <span className="small"> — note: {o.warnings.join("; ")}</span>}
+              </li>
+            ))}
+          </ul>
+        </div>
       )}
-      {preview && mapping && (
+      {entries.length > 1 && previews.length > 0 && (
+        <div data-testid="import-files">
+          <p className="small">
+            {shared
+              ? `All ${entries.length} files have the same columns: the mapping below is used for all of them, each stored in its own transaction.`
+              : "These files do not all have the same columns: map and store them one at a time (the selected file is stored)."}
+          </p>
+          <table className="preview-table">
+            <thead><tr><th>file</th><th>rows</th><th>found</th><th>label</th></tr></thead>
+            <tbody>
+              {entries.map((e, i) => (
+                <tr key={e.file.name} className={i === active ? "selected" : undefined}>
+                  <td><button type="button" className="link" onClick={() => setActive(i)} aria-pressed={i === active}>{e.file.name}</button></td>
+                  <td className="num">{e.preview ? e.preview.rowCount : "—"}</td>
+                  <td>{e.error ? <span className="field-error">{e.error}</span> : e.preview?.ambiguity ? "reads two ways" : fileFindings(e.preview)}</td>
+                  <td>
+                    <input aria-label={`label for ${e.file.name}`} type="text" value={e.label} disabled={!shared}
+                      onChange={(ev) => setEntries(entries.map((x, k) => (k === i ? { ...x, label: ev.target.value } : x)))} />
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+      {entries.length === 1 && entries[0]!.error && !current && <p className="form-error" role="alert" data-testid="import-error">{entries[0]!.error}</p>}
+      {current && mapping && (
         <>
           <div className="notice-info" data-testid="import-detected">
-            <strong>{preview.fileName}</strong> ({preview.rowCount} data rows): delimiter {DELIMITER_NAMES[preview.delimiter] ?? preview.delimiter}, decimal comma{" "}
-            {preview.decimalComma ? "yes" : "no"}, {preview.headerLine ? `column names on line ${preview.headerLine}` : "no header line found"}.
+            <strong>{current.fileName}</strong> ({current.rowCount} data rows): delimiter {DELIMITER_NAMES[current.delimiter] ?? current.delimiter}, decimal{" "}
+            {current.decimalComma ? "comma" : "point"}, {current.headerLine ? `column names on line ${current.headerLine}` : "no header line found"}.
           </div>
-          {preview.issueCount > 0 && (
+          {current.ambiguity && (
+            <div className="form-error" role="alert" data-testid="import-ambiguity">
+              <strong>This file reads two ways (line {current.ambiguity.line}).</strong> {capitalise(current.ambiguity.message)}. Choose the delimiter and the
+              decimal mark above and press “Read again”; nothing can be stored until then.
+            </div>
+          )}
+          {current.issueCount > 0 && (
             <div>
-              <h4 style={{ margin: "0.4rem 0" }}>{preview.issueCount} issue{preview.issueCount === 1 ? "" : "s"} found</h4>
+              <h4 className="subhead">{current.issueCount} line{current.issueCount === 1 ? "" : "s"} with problems in the file</h4>
               <ul className="issues" data-testid="import-issues">
-                {preview.issues.map((i, k) => (
+                {current.issues.map((i, k) => (
                   <li key={k}>line {i.line}, column {i.column}{i.field ? ` (${i.field})` : ""}: {i.message}</li>
                 ))}
-                {preview.issueCount > preview.issues.length && <li>… and {preview.issueCount - preview.issues.length} more</li>}
+                {current.issueCount > current.issues.length && <li>… and {current.issueCount - current.issues.length} more</li>}
               </ul>
             </div>
           )}
-          {preview.preamble.length > 0 && (
+          {current.checks && <ImportChecks checks={current.checks} />}
+          {current.preamble.length > 0 && (
             <details>
-              <summary className="small">Lines before the data ({preview.preamble.length})</summary>
-              <pre className="small mono" style={{ whiteSpace: "pre-wrap" }}>{preview.preamble.join("\n")}</pre>
+              <summary className="small">Lines before the data ({current.preamble.length})</summary>
+              <pre className="small mono" style={{ whiteSpace: "pre-wrap" }}>{current.preamble.join("\n")}</pre>
             </details>
           )}
-          <ImportPreviewTable preview={preview} roles={rolesOf(mapping)} />
-          <ImportMapping preview={preview} state={mapping} onChange={setMapping} heatCapacityUnits={heatCapacityUnits} />
-          {error && <p className="form-error" role="alert" data-testid="import-error">{error}</p>}
+          <ImportPreviewTable preview={current} roles={rolesOf(mapping)} />
+          <ImportMapping preview={current} state={mapping} onChange={setMapping} heatCapacityUnits={heatCapacityUnits} batch={entries.length > 1 && shared} />
+          {current.checks && current.checks.validCount > 0 && (
+            <ImportCurve curve={current.checks.curve} units={{ temperature: mapping.tUnit, heatCapacity: mapping.cUnit || "file unit" }} />
+          )}
           <div className="actions">
-            <button type="button" onClick={() => void store()} disabled={busy !== null} data-testid="store-measurement">
-              {busy === "store" ? "Storing…" : "Store measurement"}
+            <button type="button" onClick={() => void store()} disabled={busy !== null || Boolean(current.ambiguity)} data-testid="store-measurement">
+              {busy === "store" ? "Storing…" : entries.length > 1 && shared ? `Store ${entries.length} measurements` : "Store measurement"}
             </button>
-            <button type="button" className="quiet" onClick={() => { setPreview(null); setMapping(null); }}>Discard</button>
+            <button type="button" className="quiet" onClick={() => { setEntries([]); setMapping(null); }}>Discard</button>
           </div>
         </>
       )}
     </div>
   );
+}
+
+function fileFindings(p: Preview | null): string {
+  if (!p) return "—";
+  const c = p.checks;
+  const parts: string[] = [];
+  if (c && c.invalidCount) parts.push(`${c.invalidCount} invalid row${c.invalidCount === 1 ? "" : "s"}`);
+  if (c && c.temperatures.duplicateCount) parts.push(`${c.temperatures.duplicateCount} repeated T`);
+  if (c && c.temperatures.decreasingCount) parts.push(`${c.temperatures.decreasingCount} decreasing T`);
+  return parts.length ? parts.join(", ") : "no problems";
+}
+
+function capitalise(s: string): string {
+  return s.charAt(0).toUpperCase() + s.slice(1);
+}
+
+function rolesKey(m: MappingState): string {
+  return `${m.temperature}|${m.heatCapacity}|${m.sigma}`;
 }
 
 function rolesOf(m: MappingState): Record<number, string> {

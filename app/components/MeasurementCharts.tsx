@@ -11,12 +11,21 @@ const RANGES = [
   { value: "3", label: "T ≤ 3 K" },
 ];
 
-export function MeasurementCharts({ series }: { series: MeasurementSeries }) {
+/** `drawn` of `total` points reach the browser (reduced per pixel column on the server when large). */
+export function MeasurementCharts({ series, drawn, total }: { series: MeasurementSeries; drawn?: number; total?: number }) {
   const [log, setLog] = useState(false);
   const [maxT, setMaxT] = useState("");
   const buildC = useCallback((width: number) => heatCapacityPlot(series, { width, log }), [series, log]);
   const buildS = useCallback((width: number) => sommerfeldPlot(series, { width, ...(maxT ? { maxTK: Number(maxT) } : {}) }), [series, maxT]);
+  const reduced = drawn !== undefined && total !== undefined && drawn < total;
   return (
+    <>
+    {reduced && (
+      <p className="small muted" data-testid="chart-reduced">
+        {total.toLocaleString("en-GB").replace(/,/g, " ")} points: the charts draw {drawn.toLocaleString("en-GB").replace(/,/g, " ")} of them, the first, last, highest and lowest in each pixel column,
+        so the curve looks as it would with every point. Fits, exports and the CSV use every point.
+      </p>
+    )}
     <div className="chart-grid">
       <figure className="chart">
         <h3>Heat capacity C vs temperature T</h3>
@@ -39,5 +48,6 @@ export function MeasurementCharts({ series }: { series: MeasurementSeries }) {
         <PlotView build={buildS} testId="chart-ct-vs-t2" label="C over T against T squared" />
       </figure>
     </div>
+    </>
   );
 }

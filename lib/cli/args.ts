@@ -141,3 +141,14 @@ export function reportFailure(command: string, e: unknown, err: (text: string) =
   err(`heatbook ${command}: ${(e as Error).message}`);
   return 1;
 }
+
+/** "1.2±0.1", "1.2+-0.1", "1.2+/-0.1" or "1.2" → value and standard error in the flag's unit × factor. */
+export function parseMeasured(text: string, flag: string, factor: number): { value: number; stdError: number | null } {
+  const m = /^\s*([^±]+?)\s*(?:(?:±|\+-|\+\/-)\s*(.+?))?\s*$/.exec(text);
+  const value = m ? Number(m[1]) : NaN;
+  const sigma = m?.[2] === undefined ? null : Number(m[2]);
+  if (!Number.isFinite(value) || (sigma !== null && !(Number.isFinite(sigma) && sigma >= 0))) {
+    throw new InputError(`invalid --${flag}: ${JSON.stringify(text)} (expected V or V±S with S ≥ 0)`, { field: flag });
+  }
+  return { value: value * factor, stdError: sigma === null ? null : sigma * factor };
+}

@@ -84,14 +84,16 @@ export interface WaitingThread {
 }
 
 /**
- * Open discussion threads of the group that mention the member (@ + the e-mail name part or the
- * name without spaces, as lib/server/notebook/threads.ts recognises), newest first, at most `take`.
+ * Open discussion threads of the group that mention the member (@ + the member's handle, the
+ * e-mail name part or the name without spaces, as lib/server/notebook/threads.ts recognises),
+ * newest first, at most `take`.
  */
 export async function listThreadsWaitingForMe(db: Db, member: Member, take = 8): Promise<WaitingThread[]> {
   authorise(member, "group.read");
   const me = await db.user.findUnique({ where: { id: member.userId }, select: { email: true, name: true } });
   if (!me) return [];
-  const handles = [...new Set([me.email.split("@")[0]!, me.name.replace(/\s+/g, "")].filter((h) => h.length > 0))];
+  const mine = await db.membership.findFirst({ where: { userId: member.userId, groupId: member.group.id }, select: { handle: true } });
+  const handles = [...new Set([mine?.handle ?? "", me.email.split("@")[0]!, me.name.replace(/\s+/g, "")].filter((h) => h.length > 0))];
   const rows = await db.comment.findMany({
     where: { thread: { groupId: member.group.id, state: "open" }, authorId: { not: member.userId }, OR: handles.map((h) => ({ body: { contains: `@${h}`, mode: "insensitive" as const } })) },
     include: { author: { select: { name: true } }, thread: { select: { id: true, analysis: { select: { id: true, title: true } } } } },

@@ -55,12 +55,14 @@ export interface MemberRow {
   name: string;
   role: Role;
   since: string;
+  /** For @mentions in discussions, unique within the group. */
+  handle: string;
 }
 
 export async function listMembers(db: Db, member: Member): Promise<MemberRow[]> {
   authorise(member, "group.read");
   const rows = await db.membership.findMany({ where: { groupId: member.group.id }, include: { user: true }, orderBy: { createdAt: "asc" } });
-  return rows.map((m) => ({ userId: m.userId, email: m.user.email, name: m.user.name, role: m.role, since: m.createdAt.toISOString() }));
+  return rows.map((m) => ({ userId: m.userId, email: m.user.email, name: m.user.name, role: m.role, since: m.createdAt.toISOString(), handle: m.handle }));
 }
 
 export interface InvitationRow {

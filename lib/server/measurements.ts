@@ -6,7 +6,8 @@
 import { z } from "zod";
 import type { Db } from "./db/client";
 import { InputError, NotFoundError } from "../engine/errors";
-import { parseDelimited, guessColumnRoles, extractPoints, type ParsedTable, type RoleGuesses } from "../engine/importer";
+import { parseDelimited, guessColumnRoles, extractPoints, checkTemperatures, type Ambiguity, type ParsedTable, type RoleGuesses, type TemperatureChecks } from "../engine/importer";
+import { reduceForChart } from "../charts/reduce";
 import { toSI, heatCapacityBasis } from "../engine/units";
 import { recordAudit } from "./audit";
 import { authorise, type Member } from "./access";
@@ -17,6 +18,10 @@ import { packFloat64, packInt32, unpackFloat64, unpackInt32 } from "./packing";
 
 export const MAX_UPLOAD_BYTES = 20 * 1024 * 1024;
 const PREVIEW_ROWS = 15;
+/** Listed bad lines in a preview; the rest are counted. */
+const PREVIEW_ISSUES = 50;
+/** Pixel columns the preview curve is reduced to (reduceForChart keeps ≤ 4 points per column). */
+const PREVIEW_CURVE_BINS = 800;
 
 export const HEAT_CAPACITY_UNITS = ["J/K", "mJ/K", "µJ/K", "J/(mol K)", "mJ/(mol K)", "J/(g K)"] as const;
 
@@ -41,8 +46,10 @@ export const importSchema = z.object({
     heatCapacity: z.string().trim().min(1, "choose the heat-capacity unit"),
     field: z.string().trim().min(1).optional(),
   }),
+  /** σ of every point as this percentage of |C|, for files without a σ column (not with mapping.sigma). */
+  sigmaPercent: z.number().finite().gt(0, "the relative σ must be above 0 %").max(100, "the relative σ must be at most 100 %").optional(),
   parse: parseOptionsSchema.optional(),
-});
+}).refine((r) => !(r.sigmaPercent !== undefined && r.mapping.sigma !== undefined), { message: "give either a σ column or a relative σ, not both", path: ["sigmaPercent"] });
 
 export type ImportRequest = z.infer<typeof importSchema>;
 
@@ -60,6 +67,29 @@ function checkSize(fileName: string, bytes: Uint8Array): void {
   if (bytes.byteLength > MAX_UPLOAD_BYTES) throw new InputError(`the file is larger than ${MAX_UPLOAD_BYTES / 1024 / 1024} MiB`, { file: fileName });
 }
 
+/** The preview request's own fields: how to read the file, and (optionally) which column is what. */
+export const previewSchema = z.object({
+  parse: parseOptionsSchema.optional(),
+  mapping: z.object({
+    temperature: z.number().int().min(0),
+    heatCapacity: z.number().int().min(0),
+    sigma: z.number().int().min(0).optional(),
+  }).optional(),
+});
+
+/** What the mapped columns hold, row by row: every bad line (first 50, then a count) and order checks. */
+export interface PreviewChecks {
+  mapping: { temperature: number; heatCapacity: number; sigma?: number };
+  /** Rows that would be refused at storing, with line, column and reason. */
+  invalid: { line: number; column: number; field?: string; message: string }[];
+  invalidCount: number;
+  temperatures: TemperatureChecks;
+  /** Accepted rows. */
+  validCount: number;
+  /** The parsed curve for a look before storing, in the file's own units; reduced per pixel column when large. */
+  curve: { temperature: number[]; heatCapacity: number[]; line: number[]; reduced: boolean; total: number };
+}
+
 export interface ImportPreview {
   fileName: string;
   sizeBytes: number;
@@ -74,6 +104,10 @@ export interface ImportPreview {
   issues: { line: number; column: number; field?: string; message: string }[];
   issueCount: number;
   preamble: string[];
+  /** The file reads two ways; nothing can be stored until the delimiter and decimal mark are chosen. */
+  ambiguity: Ambiguity | null;
+  /** Checks of the mapped columns (the request's mapping, else the guessed one); null without T and C columns. */
+  checks: PreviewChecks | null;
 }
 
 function parse(fileName: string, bytes: Uint8Array, options?: z.infer<typeof parseOptionsSchema>): ParsedTable {
@@ -81,11 +115,17 @@ function parse(fileName: string, bytes: Uint8Array, options?: z.infer<typeof par
   return parseDelimited(decodeText(bytes), { fileName, ...(options ?? {}) });
 }
 
-/** Parse and report, store nothing. */
-export function previewImport(member: Member, fileName: string, bytes: Uint8Array, options?: unknown): ImportPreview {
+/**
+ * Parse and report, store nothing. `request` is `{ parse?, mapping? }`; without a mapping the
+ * guessed T and C (and σ) columns are checked. Every bad row of the mapped columns is listed
+ * (first 50, then a count), as are repeated and non-increasing temperatures, and the curve comes
+ * back (reduced per pixel column when large) so the user sees it before storing.
+ */
+export function previewImport(member: Member, fileName: string, bytes: Uint8Array, request?: unknown): ImportPreview {
   authorise(member, "measurement.write");
-  const opts = options === undefined ? undefined : parseInput(parseOptionsSchema, options);
-  const t = parse(fileName, bytes, opts);
+  const req = request === undefined ? {} : parseInput(previewSchema, request);
+  const t = parse(fileName, bytes, req.parse);
+  const guesses = guessColumnRoles(t.columns);
   const n = Math.min(PREVIEW_ROWS, t.rowCount);
   const rows = Array.from({ length: n }, (_, r) => ({
     line: t.lineNumbers[r]!,
@@ -94,7 +134,48 @@ export function previewImport(member: Member, fileName: string, bytes: Uint8Arra
   return {
     fileName, sizeBytes: bytes.byteLength, sha256: sha256Hex(bytes), delimiter: t.delimiter, decimalComma: t.decimalComma,
     headerLine: t.headerLine ?? null, columns: t.columns.map((c) => ({ index: c.index, name: c.name, unitText: c.unitText ?? null })),
-    rows, rowCount: t.rowCount, guesses: guessColumnRoles(t.columns), issues: t.issues.slice(0, 50), issueCount: t.issueCount, preamble: t.preamble.slice(0, 20),
+    rows, rowCount: t.rowCount, guesses, issues: t.issues.slice(0, PREVIEW_ISSUES), issueCount: t.issueCount, preamble: t.preamble.slice(0, 20),
+    ambiguity: t.ambiguity ?? null,
+    checks: previewChecks(t, req.mapping ?? guessedMapping(guesses)),
+  };
+}
+
+function guessedMapping(g: RoleGuesses): PreviewChecks["mapping"] | undefined {
+  if (!g.temperature || !g.heatCapacity || g.temperature.index === g.heatCapacity.index) return undefined;
+  const sigma = g.sigma && g.sigma.index !== g.temperature.index && g.sigma.index !== g.heatCapacity.index ? g.sigma.index : undefined;
+  return { temperature: g.temperature.index, heatCapacity: g.heatCapacity.index, ...(sigma !== undefined ? { sigma } : {}) };
+}
+
+function previewChecks(t: ParsedTable, mapping: PreviewChecks["mapping"] | undefined): PreviewChecks | null {
+  if (!mapping) return null;
+  let points;
+  try {
+    points = extractPoints(t, mapping, { onInvalid: "skip" });
+  } catch (err) {
+    if (err instanceof InputError && /no valid data rows/.test(err.message)) {
+      const all = extractPoints(t, { temperature: mapping.temperature, heatCapacity: mapping.heatCapacity }, { onInvalid: "skip" }).skipped;
+      return emptyChecks(mapping, all);
+    }
+    throw err;
+  }
+  const keep = reduceForChart(points.temperature, points.heatCapacity, { bins: PREVIEW_CURVE_BINS });
+  return {
+    mapping,
+    invalid: points.skipped.slice(0, PREVIEW_ISSUES), invalidCount: points.skipped.length,
+    temperatures: checkTemperatures(points.temperature, points.lineNumbers),
+    validCount: points.temperature.length,
+    curve: {
+      temperature: keep.map((i) => points.temperature[i]!), heatCapacity: keep.map((i) => points.heatCapacity[i]!),
+      line: keep.map((i) => points.lineNumbers[i]!), reduced: keep.length < points.temperature.length, total: points.temperature.length,
+    },
+  };
+}
+
+function emptyChecks(mapping: PreviewChecks["mapping"], skipped: PreviewChecks["invalid"]): PreviewChecks {
+  return {
+    mapping, invalid: skipped.slice(0, PREVIEW_ISSUES), invalidCount: skipped.length,
+    temperatures: checkTemperatures([], []), validCount: 0,
+    curve: { temperature: [], heatCapacity: [], line: [], reduced: false, total: 0 },
   };
 }
 
@@ -126,17 +207,27 @@ export interface MeasurementPoints extends MeasurementInfo {
 }
 
 /** Accept an import: validate every row, convert to SI, store file + points + audit in one transaction. */
-export async function importMeasurement(db: Db, member: Member, sampleId: string, fileName: string, bytes: Uint8Array, input: unknown): Promise<MeasurementInfo> {
+export async function importMeasurement(db: Db, member: Member, sampleId: string, fileName: string, bytes: Uint8Array, input: unknown): Promise<MeasurementInfo & { warnings: string[] }> {
   authorise(member, "measurement.write");
   const req = parseInput(importSchema, input);
   const sample = await db.sample.findFirst({ where: { id: uuidOrNone(sampleId), groupId: member.group.id, archivedAt: null } });
   if (!sample) throw new NotFoundError("sample");
   const table = parse(fileName, bytes, req.parse);
+  if (table.ambiguity) {
+    throw new InputError(`ambiguous file: ${table.ambiguity.message}`, { file: fileName, line: table.ambiguity.line, field: "parse" });
+  }
   const points = extractPoints(table, req.mapping);
+  const order = checkTemperatures(points.temperature, points.lineNumbers);
   const basis = heatCapacityBasis(req.units.heatCapacity);
   const temperatureK = toSI(points.temperature, req.units.temperature, "temperature");
   const heatCapacity = toSI(points.heatCapacity, req.units.heatCapacity, "heatCapacity");
-  const sigma: number[] = points.sigma ? toSI(points.sigma, req.units.heatCapacity, "heatCapacity") : [];
+  const sigma: number[] = points.sigma
+    ? toSI(points.sigma, req.units.heatCapacity, "heatCapacity")
+    : req.sigmaPercent !== undefined ? heatCapacity.map((c) => (Math.abs(c) * req.sigmaPercent!) / 100) : [];
+  if (sigma.some((s) => !(s > 0))) {
+    const r = sigma.findIndex((s) => !(s > 0));
+    throw new InputError(`a relative σ of ${req.sigmaPercent} % gives σ = 0 where C = 0`, { file: fileName, line: points.lineNumbers[r], field: "sigmaPercent" });
+  }
   if (points.field && !req.units.field) throw new InputError("choose the unit of the field column", { field: "units.field" });
   const fieldPointsT: number[] = points.field ? toSI(points.field, req.units.field!, "field") : [];
   let tMin = Infinity;
@@ -151,7 +242,7 @@ export async function importMeasurement(db: Db, member: Member, sampleId: string
     const m = await tx.measurement.create({
       data: {
         groupId: member.group.id, sampleId: sample.id, fileId: file.id, kind: req.kind, label: req.label, fieldT: req.fieldT ?? 0,
-        notes: req.notes ?? "", columnMapping: req.mapping, units: req.units, basis, pointCount: temperatureK.length, tMinK: tMin, tMaxK: tMax,
+        notes: req.notes ?? "", columnMapping: req.sigmaPercent !== undefined ? { ...req.mapping, sigmaPercentOfC: req.sigmaPercent } : req.mapping, units: req.units, basis, pointCount: temperatureK.length, tMinK: tMin, tMaxK: tMax,
         temperatureK: packFloat64(temperatureK), heatCapacity: packFloat64(heatCapacity), sigma: sigma.length ? packFloat64(sigma) : null,
         fieldPointsT: fieldPointsT.length ? packFloat64(fieldPointsT) : null, sourceLines: packInt32(points.lineNumbers), createdById: member.userId,
       },
@@ -160,8 +251,17 @@ export async function importMeasurement(db: Db, member: Member, sampleId: string
       groupId: member.group.id, actorId: member.userId, action: "measurement.import", objectType: "measurement", objectId: m.id,
       afterHash: sha256, detail: { fileName, points: temperatureK.length, kind: req.kind, sampleId: sample.id },
     });
-    return { ...toInfo(m), fileName, sha256, sizeBytes: bytes.byteLength };
+    return { ...toInfo(m), fileName, sha256, sizeBytes: bytes.byteLength, warnings: orderWarnings(order) };
   }, { timeout: 60_000 });
+}
+
+/** Sentences for the store summary: repeated and non-increasing temperatures, with their first lines. */
+function orderWarnings(c: TemperatureChecks): string[] {
+  const lines = (f: { line: number }[], count: number) => `line${count === 1 ? "" : "s"} ${f.slice(0, 5).map((x) => x.line).join(", ")}${count > 5 ? ` and ${count - 5} more` : ""}`;
+  const out: string[] = [];
+  if (c.duplicateCount > 0) out.push(`${c.duplicateCount} repeated temperature${c.duplicateCount === 1 ? "" : "s"} (${lines(c.duplicates, c.duplicateCount)})`);
+  if (c.decreasingCount > 0) out.push(`${c.decreasingCount} temperature${c.decreasingCount === 1 ? "" : "s"} lower than the row before (${lines(c.decreasing, c.decreasingCount)})`);
+  return out;
 }
 
 type Row = Awaited<ReturnType<Db["measurement"]["findFirstOrThrow"]>>;

@@ -35,4 +35,26 @@ describe("heatbook model", () => {
     const j = JSON.parse(p.stdout);
     expectClose(j.values[0], lowT(5, 300), { rel: 1e-9 });
   });
+  it("heatbook model debye --set thetaD=-5 exits 2 naming Θ_D and its bounds, printing no values", async () => {
+    const r = await runCli(["model", "debye", "--set", "thetaD=-5", "--T", "10", "--json"]);
+    expect(r.code).toBe(2);
+    expect(r.out).toBe("");
+    expect(r.err).toMatch(/--set thetaD=-5: Debye temperature Θ_D must lie in \[0\.001, 100000\] K for model debye/);
+  });
+  it("heatbook model exits 2 for any out-of-bounds parameter: Θ_D = 0, n_E < 0, a gap of 0, α outside [0.1, 10]", async () => {
+    for (const [model, set, name] of [["debye", "thetaD=0", "thetaD"], ["einstein", "thetaE=100,nE=-1", "nE"], ["schottky", "n=1,gap=0", "gap"], ["alpha-model", "gammaN=5,tc=4,alpha=20", "alpha"]]) {
+      const r = await runCli(["model", model, "--set", set, "--T", "1"]);
+      expect(r.code, `${model} ${set}`).toBe(2);
+      expect(r.err).toContain(`--set ${name}=`);
+    }
+  });
+  it("heatbook fit --model debye --fix/--start outside the bounds exits 2 naming the parameter", async () => {
+    const file = "T (K),C (mJ/(mol K))\n" + Array.from({ length: 20 }, (_, i) => `${1 + i},${1.3 * (1 + i) + 0.02 * (1 + i) ** 3}`).join("\n");
+    const fix = await runCli(["fit", "a.csv", "--model", "debye", "--fix", "thetaD=-5"], { "a.csv": file });
+    expect(fix.code).toBe(2);
+    expect(fix.err).toMatch(/--fix thetaD=-5: Debye temperature/);
+    const start = await runCli(["fit", "a.csv", "--model", "debye", "--start", "thetaD=1e9"], { "a.csv": file });
+    expect(start.code).toBe(2);
+    expect(start.err).toMatch(/--start thetaD=1000000000: Debye temperature/);
+  });
 });

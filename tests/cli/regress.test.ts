@@ -20,13 +20,19 @@ describe("heatbook regress", () => {
     expect(r.code, r.err).toBe(0);
     expect(JSON.parse(r.out).method).toBe("linear-qr");
   });
-  it("heatbook regress exits 2 for a refused expression and for a missing start", async () => {
+  it("heatbook regress exits 2 for a refused expression", async () => {
     const files = { "l.csv": "x,y\n1,3\n2,5\n3,7\n" };
     const refused = await runCli(["regress", "l.csv", "--model", "import(x)"], files);
     expect(refused.code).toBe(2);
     expect(refused.err).toMatch(/function "import" is not allowed.*column 1/);
-    const noStart = await runCli(["regress", "l.csv", "--model", "a*exp(b*x)"], files);
-    expect(noStart.code).toBe(2);
-    expect(noStart.err).toMatch(/start value needed for a, b/);
+  });
+  it("heatbook regress fits a nonlinear expression without a start (global search)", async () => {
+    const files = { "e.csv": "x,y\n0,2\n1,2.7183\n2,3.6945\n3,5.0214\n4,6.8248\n" };
+    const r = await runCli(["regress", "e.csv", "--model", "a*exp(b*x)", "--json"], files);
+    expect(r.code, r.err).toBe(0);
+    const j = JSON.parse(r.out);
+    expect(j.statistics.converged).toBe(true);
+    expect(j.parameters[0].value).toBeCloseTo(2, 3);
+    expect(j.parameters[1].value).toBeCloseTo(0.307, 3);
   });
 });

@@ -50,6 +50,14 @@ const PAYLOADS = [
   "\"><script>alert(1)</script>",
   "<noscript><p title=\"</noscript><img src=x onerror=alert(1)>\">",
   "[a](https://ok.example \"title\\\" onmouseover=alert(1)\")",
+  // URL-carrying attributes other than href/src/cite (the family of the sanitize-html advisory
+  // fixed in 2.17.6; we pin 2.17.5 for Node 20, so our allow-list must keep them all out).
+  "<button formaction=\"javascript:alert(1)\">go</button>",
+  "<video poster=\"javascript:alert(1)\"></video>",
+  "<a href=\"https://ok.example\" ping=\"javascript:alert(1)\">ok</a>",
+  "<svg><a xlink:href=\"javascript:alert(1)\"><text>x</text></a></svg>",
+  "<table background=\"javascript:alert(1)\"><tr><td>x</td></tr></table>",
+  "<a href=\"https://ok.example\" action=\"javascript:alert(1)\" xlink:href=\"javascript:alert(1)\">ok</a>",
 ];
 
 const ALLOWED_TAGS = new Set(["P", "BR", "STRONG", "EM", "DEL", "CODE", "PRE", "BLOCKQUOTE", "UL", "OL", "LI", "H3", "H4", "H5", "H6", "TABLE", "THEAD", "TBODY", "TR", "TH", "TD", "A", "HR", "SUB", "SUP", "HTML", "HEAD", "BODY"]);

@@ -79,3 +79,65 @@ describe("measurement import", () => {
     expect(full.sourceLines[99_999]).toBe(100_001);
   });
 });
+
+describe("import preview checks and refusals", () => {
+  const mapping = { temperature: 0, heatCapacity: 1 };
+  const units = { temperature: "K", heatCapacity: "mJ/K" };
+
+  it("previewImport lists every refused row of the mapped columns at preview time, the first 50 and a count", () => {
+    const lines = ["T (K),C (mJ/K)"];
+    for (let i = 0; i < 80; i++) lines.push(i % 2 ? `${-1 - i},0.5` : `${1 + i},0.5`);
+    const p = previewImport(g.members.analyst, "neg.csv", enc(lines.join("\n")), { mapping });
+    expect(p.checks?.invalidCount).toBe(40);
+    expect(p.checks?.invalid).toHaveLength(40);
+    expect(p.checks?.invalid[0]).toMatchObject({ line: 3, column: 1, field: "T" });
+    expect(p.checks?.invalid[0]!.message).toMatch(/temperature must be finite and > 0/);
+    const many = ["T,C", ...Array.from({ length: 120 }, (_, i) => `-${i + 1},1`), "5,1"];
+    const q = previewImport(g.members.analyst, "many.csv", enc(many.join("\n")), { mapping });
+    expect(q.checks?.invalidCount).toBe(120);
+    expect(q.checks?.invalid).toHaveLength(50);
+  });
+
+  it("previewImport flags repeated and decreasing temperatures with their lines and returns the curve", () => {
+    const p = previewImport(g.members.analyst, "dup.csv", enc("T,C\n1,0.1\n2,0.2\n2,0.21\n3,0.3\n2.5,0.25\n"));
+    expect(p.checks?.temperatures.duplicates).toEqual([{ line: 4, otherLine: 3, value: 2 }]);
+    expect(p.checks?.temperatures.decreasing).toEqual([{ line: 6, otherLine: 5, value: 2.5 }]);
+    expect(p.checks?.curve).toMatchObject({ temperature: [1, 2, 2, 3, 2.5], total: 5, reduced: false });
+  });
+
+  it("previewImport reduces a 100 000-point curve per pixel column and says so", () => {
+    const lines = ["T,C"];
+    for (let i = 0; i < 100_000; i++) { const T = 0.5 + i * 1e-4; lines.push(`${T},${(0.002 * T + 1e-4 * T ** 3).toPrecision(8)}`); }
+    const p = previewImport(g.members.analyst, "big.csv", enc(lines.join("\n")));
+    expect(p.checks?.curve.reduced).toBe(true);
+    expect(p.checks?.curve.total).toBe(100_000);
+    expect(p.checks!.curve.temperature.length).toBeLessThanOrEqual(3200);
+  });
+
+  it("previewImport reports a decimal comma in a comma-delimited file and importMeasurement refuses to store it, naming the line", async () => {
+    const text = "T (K),C (mJ/K)\n1,5,2,3\n2,0,4,6\n";
+    const p = previewImport(g.members.analyst, "dc.csv", enc(text));
+    expect(p.ambiguity).toMatchObject({ kind: "decimal-comma", line: 1 });
+    const before = await t.db.storedFile.count();
+    await expect(importMeasurement(t.db, g.members.analyst, sampleId, "dc.csv", enc(text), { kind: "sample", label: "dc", mapping, units }))
+      .rejects.toThrow(/ambiguous file.*dc\.csv, line 1/);
+    expect(await t.db.storedFile.count()).toBe(before);
+    const chosen = await importMeasurement(t.db, g.members.analyst, sampleId, "dc.csv", enc(text), { kind: "sample", label: "dc", mapping, units, parse: { delimiter: "," } });
+    expect(chosen.pointCount).toBe(2);
+  });
+
+  it("importMeasurement stores σ as a percentage of C when asked, and says so in the mapping", async () => {
+    const m = await importMeasurement(t.db, g.members.analyst, sampleId, "pct.csv", enc("T,C\n2,0.5\n3,-1.0\n"), { kind: "sample", label: "pct", mapping, units, sigmaPercent: 2 });
+    const full = await getMeasurement(t.db, g.members.viewer, m.id);
+    expectClose(full.sigma![0]!, 0.02 * 0.5e-3, { rel: 1e-12 });
+    expectClose(full.sigma![1]!, 0.02 * 1.0e-3, { rel: 1e-12 });
+    expect(full.columnMapping).toMatchObject({ sigmaPercentOfC: 2 });
+    await expect(importMeasurement(t.db, g.members.analyst, sampleId, "pct.csv", enc("T,C,s\n2,0.5,0.1\n"), { kind: "sample", label: "x", mapping: { ...mapping, sigma: 2 }, units, sigmaPercent: 2 }))
+      .rejects.toThrow(/either a σ column or a relative σ/);
+  });
+
+  it("importMeasurement stores repeated temperatures and answers with a warning naming their lines", async () => {
+    const m = await importMeasurement(t.db, g.members.analyst, sampleId, "rep.csv", enc("T,C\n1,0.1\n2,0.2\n2,0.2\n"), { kind: "sample", label: "rep", mapping, units });
+    expect(m.warnings).toEqual(["1 repeated temperature (line 4)"]);
+  });
+});

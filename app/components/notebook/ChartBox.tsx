@@ -10,6 +10,7 @@ import * as Plot from "@observablehq/plot";
 import { useEffect, useRef, useState, type ReactNode } from "react";
 import { useContainerWidth } from "@/app/components/useContainerWidth";
 import { downloadPng, downloadText, mainSvg, svgText } from "./exportChart";
+import { ChartTable } from "../ChartTable";
 
 export interface RangePick {
   xMin: number;
@@ -162,6 +163,7 @@ export function ChartBox({ title, name, label, testId, build, csv, onRange, drag
         {overlay && <div className="nb-drag-band" style={{ left: overlay.left, width: overlay.width }} />}
       </div>
       {dragHint && <p className="small muted nb-hint">{dragHint}</p>}
+      {csv && <ChartTable label={label} csv={csv} />}
       {error && <p className="form-error" role="alert">Chart could not be drawn: {error}</p>}
       {footer}
     </figure>

@@ -1,13 +1,15 @@
 "use client";
 /**
  * The data step's chart: the chosen measurements as stored (fetched from the measurement route),
- * with the range and hand-excluded points. Clicking a point asks for a reason and leaves it out
- * (saved as a step edit); dragging comments on a temperature range.
+ * with the range and hand-excluded points. Clicking a point chooses it in the exclusion panel
+ * below (which works by keyboard too: choose, say why, leave out; every exclusion listed with
+ * "Put back"); dragging comments on a temperature range.
  */
 import { useCallback, useEffect, useMemo, useState } from "react";
 import { dataPlot, dataRows, dataCsv, type DataSeries } from "@/lib/charts/notebook";
 import { callJson } from "@/app/_lib/api";
 import { ChartBox, type ClickPick, type RangePick } from "./ChartBox";
+import { ExclusionPanel, type Exclusion } from "./ExclusionPanel";
 import type { NotebookContext, StepView } from "./types";
 
 type Excluded = { measurementId: string; index: number; reason: string };
@@ -17,6 +19,7 @@ export function DataView({ step, ctx, save }: { step: StepView; ctx: NotebookCon
   const [series, setSeries] = useState<DataSeries[] | null>(null);
   const [log, setLog] = useState(false);
   const [error, setError] = useState<string | null>(null);
+  const [picked, setPicked] = useState<string | null>(null);
   const key = ids.join(",");
   useEffect(() => {
     let live = true;
@@ -42,14 +45,11 @@ export function DataView({ step, ctx, save }: { step: StepView; ctx: NotebookCon
       const dist = pick.distance(d.t, d.c);
       if (dist < bestD) { best = d; bestD = dist; }
     }
-    if (!best) return;
-    if (best.state === "excluded") {
-      if (window.confirm(`Put point ${best.index + 1} (T = ${best.t} K) back into the analysis?`)) await save({ ...step.config, excluded: excluded.filter((e) => !(e.measurementId === best!.measurementId && e.index === best!.index)) });
-      return;
-    }
-    const reason = window.prompt(`Leave out point ${best.index + 1} of ${best.label} (T = ${best.t} K)? Say why:`);
-    if (reason && reason.trim()) await save({ ...step.config, excluded: [...excluded, { measurementId: best.measurementId, index: best.index, reason: reason.trim() }] });
+    if (best && best.state !== "excluded") setPicked(`${best.measurementId}:${best.index}`);
   }
+
+  const exclude = async (e: Exclusion) => { await save({ ...step.config, excluded: [...excluded, e] }); };
+  const restore = async (e: Exclusion) => { await save({ ...step.config, excluded: excluded.filter((x) => !(x.measurementId === e.measurementId && x.index === e.index)) }); };
 
   function onRange(pick: RangePick) {
     if (!series) return;
@@ -65,8 +65,9 @@ export function DataView({ step, ctx, save }: { step: StepView; ctx: NotebookCon
       <ChartBox title="Heat capacity as measured" name="data-c-vs-t" label="Heat capacity against temperature" testId="chart-data" build={build}
         csv={() => { const d = dataRows(series, opts); return dataCsv(d.rows, d.unit); }}
         onClick={onClick} onRange={onRange}
-        dragHint={`${ctx.editable ? "Click a point to leave it out (you will be asked why). " : ""}Drag across the chart to comment on a temperature range.`}
+        dragHint={`${ctx.editable ? "Click a point to choose it for leaving out (below). " : ""}Drag across the chart to comment on a temperature range.`}
         controls={<label className="checkbox"><input type="checkbox" checked={log} onChange={(e) => setLog(e.target.checked)} /> Logarithmic axes</label>} />
+      <ExclusionPanel rows={dataRows(series, opts).rows} excluded={excluded} editable={ctx.editable} picked={picked} onExclude={exclude} onRestore={restore} />
     </div>
   );
 }

@@ -49,8 +49,11 @@ export function FitView({ step, result: r, ctx, save }: Props) {
       ctx.startThread(step.id, anchor);
       return;
     }
-    if (!ctx.editable) return;
-    setPending({ tMinK: Number(lo.toPrecision(4)), tMaxK: Number(hi.toPrecision(4)), n: inside.length });
+    if (!ctx.editable || inside.length < 2) return;
+    // The window's edges are the outermost points inside the drag (never below the lowest point
+    // or above the highest), exactly: a rounded edge could drop the last point from the fit.
+    const ts = inside.map(({ t }) => t);
+    setPending({ tMinK: Math.min(...ts), tMaxK: Math.max(...ts), n: inside.length });
   }
 
   async function usePending(w: { tMinK: number; tMaxK: number }) {

@@ -24,6 +24,8 @@ interface Props {
   measurements: MeasurementChoice[];
   meId: string;
   members: Record<string, string>;
+  /** Members by @handle, for mention completion in discussions. */
+  mentionables: { handle: string; name: string }[];
   canComment: boolean;
   /** The revision asked for in the URL (null: the newest). */
   revisionId: string | null;
@@ -93,8 +95,8 @@ export function Notebook(props: Props) {
   const startThread = useCallback((stepId: string | null, anchor: Anchor | null) => setComposer({ stepId, anchor }), []);
   const ctx: NotebookContext = useMemo(() => ({
     slug, apiBase, analysisId, editable: nb.editable, canComment: props.canComment, models: props.models, measurements: props.measurements,
-    steps: nb.steps, revisionVersion: nb.revision.version, revisionId: nb.revision.id, threads, refresh, startThread,
-  }), [slug, apiBase, analysisId, nb, props.canComment, props.models, props.measurements, threads, refresh, startThread]);
+    steps: nb.steps, revisionVersion: nb.revision.version, revisionId: nb.revision.id, threads, refresh, startThread, mentionables: props.mentionables,
+  }), [slug, apiBase, analysisId, nb, props.canComment, props.models, props.measurements, threads, refresh, startThread, props.mentionables]);
 
   const basisAt = (i: number) => {
     for (let k = i - 1; k >= 0; k--) {

@@ -7,6 +7,7 @@ import { useEffect, useRef, useState } from "react";
 import { callJson } from "@/app/_lib/api";
 import { KIND_LABEL, num, when } from "./display";
 import type { Anchor, NotebookContext, ThreadData } from "./types";
+import { MentionBox } from "./MentionBox";
 
 export interface Composer {
   stepId: string | null;
@@ -25,15 +26,20 @@ function stepName(ctx: NotebookContext, stepId: string | null): string {
   return s ? s.title || KIND_LABEL[s.kind] || s.kind : stepId ? "a removed step" : "the analysis";
 }
 
+/** The note shown after posting when a mention reached nobody (null when all matched). */
+function unmatchedNote(handles: string[] | undefined): string | null {
+  return handles && handles.length ? `Posted, but ${handles.map((h) => `@${h}`).join(", ")} ${handles.length === 1 ? "matches" : "match"} no member: nobody was notified for ${handles.length === 1 ? "it" : "them"}.` : null;
+}
+
 function Thread({ t, n, ctx }: { t: ThreadData; n: number; ctx: NotebookContext }) {
   const [reply, setReply] = useState("");
   const [error, setError] = useState<string | null>(null);
   const url = `${ctx.apiBase}/analyses/${ctx.analysisId}/threads/${t.id}`;
   async function send() {
-    const res = await callJson(url, "POST", { body: reply });
+    const res = await callJson<{ unmatchedMentions?: string[] }>(url, "POST", { body: reply });
     if (!res.ok) return setError(res.error);
     setReply("");
-    setError(null);
+    setError(unmatchedNote(res.data?.unmatchedMentions));
     await ctx.refresh();
   }
   async function setState(state: "open" | "resolved") {
@@ -60,7 +66,7 @@ function Thread({ t, n, ctx }: { t: ThreadData; n: number; ctx: NotebookContext 
       {ctx.canComment && (
         <div className="nb-reply">
           <label htmlFor={`reply-${t.id}`} className="sr-only">Reply to discussion #{n}</label>
-          <textarea id={`reply-${t.id}`} rows={2} value={reply} onChange={(e) => setReply(e.target.value)} placeholder="Reply… (@name notifies a member)" />
+          <MentionBox id={`reply-${t.id}`} rows={2} value={reply} onChange={setReply} members={ctx.mentionables} placeholder="Reply… (@handle notifies a member)" />
           <div className="actions">
             <button type="button" className="small" disabled={!reply.trim()} onClick={send}>Reply</button>
             {t.state === "open"
@@ -78,14 +84,16 @@ export function Threads({ ctx, composer, setComposer }: { ctx: NotebookContext; 
   const [body, setBody] = useState("");
   const [error, setError] = useState<string | null>(null);
   const [showResolved, setShowResolved] = useState(false);
+  const [posted, setPosted] = useState<string | null>(null);
   const box = useRef<HTMLTextAreaElement>(null);
   useEffect(() => { if (composer) box.current?.focus(); }, [composer]);
   async function post() {
     if (!composer) return;
-    const res = await callJson(`${ctx.apiBase}/analyses/${ctx.analysisId}/threads`, "POST", { stepId: composer.stepId, anchor: composer.anchor, body });
+    const res = await callJson<{ unmatchedMentions?: string[] }>(`${ctx.apiBase}/analyses/${ctx.analysisId}/threads`, "POST", { stepId: composer.stepId, anchor: composer.anchor, body });
     if (!res.ok) return setError(res.error);
     setBody("");
     setError(null);
+    setPosted(unmatchedNote(res.data?.unmatchedMentions));
     setComposer(null);
     await ctx.refresh();
   }
@@ -98,7 +106,7 @@ export function Threads({ ctx, composer, setComposer }: { ctx: NotebookContext; 
         <div className="nb-composer" data-testid="thread-composer">
           <p className="small">New discussion on <strong>{stepName(ctx, composer.stepId)}</strong>{composer.anchor && <> · {anchorText(composer.anchor)}</>}</p>
           <label htmlFor="new-thread" className="sr-only">Comment</label>
-          <textarea id="new-thread" ref={box} rows={3} value={body} onChange={(e) => setBody(e.target.value)} placeholder="What do you see here? (@name notifies a member)" data-testid="thread-body" />
+          <MentionBox id="new-thread" boxRef={box} rows={3} value={body} onChange={setBody} members={ctx.mentionables} placeholder="What do you see here? (@handle notifies a member)" testId="thread-body" />
           <div className="actions">
             <button type="button" className="small" disabled={!body.trim()} onClick={post} data-testid="post-thread">Post</button>
             <button type="button" className="quiet small" onClick={() => setComposer(null)}>Cancel</button>
@@ -108,6 +116,7 @@ export function Threads({ ctx, composer, setComposer }: { ctx: NotebookContext; 
       ) : ctx.canComment && (
         <button type="button" className="quiet small" onClick={() => setComposer({ stepId: null, anchor: null })}>Comment on the analysis</button>
       )}
+      {posted && <p className="field-error" role="status">{posted}</p>}
       {shown.length === 0 && <p className="muted small">No open discussions. Comment on a step, or drag across a chart to discuss a range of points.</p>}
       <ul className="nb-threads">{shown.map(({ t, n }) => <Thread key={t.id} t={t} n={n} ctx={ctx} />)}</ul>
       {resolved > 0 && <button type="button" className="quiet small" onClick={() => setShowResolved((v) => !v)}>{showResolved ? "Hide" : "Show"} {resolved} resolved</button>}

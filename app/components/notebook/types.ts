@@ -101,4 +101,6 @@ export interface NotebookContext {
   threads: ThreadData[];
   refresh: () => Promise<void>;
   startThread: (stepId: string | null, anchor: Anchor | null) => void;
+  /** Members by @handle, for mention completion. */
+  mentionables: { handle: string; name: string }[];
 }

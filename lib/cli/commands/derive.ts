@@ -5,11 +5,12 @@
  * Exit 0 success, 2 bad usage or input (the message names the flag), 1 anything else.
  */
 import type { CliIo } from "../io";
-import { formatFlagHelp, getAssignments, getBoolean, getNumber, getString, parseArgs, type FlagSpec, type ParsedArgs } from "../args";
+import { formatFlagHelp, getAssignments, getBoolean, getNumber, getString, parseArgs, parseMeasured, type FlagSpec, type ParsedArgs } from "../args";
 import { InputError } from "../../engine/errors";
 import { parseFormula, electronsPerFormulaUnit } from "../../engine/chemistry";
 import { deriveAll, type DeriveInput, type Measured, type LatticeSpec, type MolarSusceptibilityUnit } from "../../engine/derived";
 import { formatUncertainty } from "../../engine/units";
+import { prettyUnit } from "../format";
 
 const FLAGS: Record<string, FlagSpec> = {
   gamma: { kind: "string", meta: "V[±S]", help: "Sommerfeld γ [mJ mol^-1 K^-2] per mole formula unit (required)" },
@@ -59,16 +60,7 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
   }
 }
 
-/** "1.2±0.1", "1.2+-0.1", "1.2+/-0.1" or "1.2" → Measured in the flag's unit × factor. */
-export function parseMeasured(text: string, flag: string, factor: number): Measured {
-  const m = /^\s*([^±]+?)\s*(?:(?:±|\+-|\+\/-)\s*(.+?))?\s*$/.exec(text);
-  const value = m ? Number(m[1]) : NaN;
-  const sigma = m?.[2] === undefined ? null : Number(m[2]);
-  if (!Number.isFinite(value) || (sigma !== null && !(Number.isFinite(sigma) && sigma >= 0))) {
-    throw new InputError(`invalid --${flag}: ${JSON.stringify(text)} (expected V or V±S with S ≥ 0)`, { field: flag });
-  }
-  return { value: value * factor, stdError: sigma === null ? null : sigma * factor };
-}
+export { parseMeasured };
 
 function required(args: ParsedArgs, flag: string): string {
   const v = getString(args, flag);
@@ -127,7 +119,7 @@ function table(input: DeriveInput, basis: string, quantities: ReturnType<typeof 
   const head = `${f.label}: r = ${f.atomsPerFormulaUnit} atoms/f.u., M = ${f.molarMassGPerMol.toFixed(4)} g/mol, z = ${f.electronsPerFormulaUnit} e/f.u.; per ${basis === "atom" ? "mole of atoms" : "mole formula unit"}`;
   const rows = quantities.map((q) => {
     const shown = formatUncertainty(q.value, q.stdError, { plainDigits: 4 });
-    return `  ${q.symbol.padEnd(22)} ${shown.padStart(16)}  ${q.unit}`;
+    return `  ${q.symbol.padEnd(22)} ${shown.padStart(16)}  ${prettyUnit(q.unit)}`.trimEnd();
   });
   const warn = warnings.map((w) => `warning: ${w}`);
   return [head, ...rows, ...warn].join("\n");

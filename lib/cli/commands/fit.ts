@@ -1,17 +1,18 @@
 /**
  * `heatbook fit FILE`: fit a heat-capacity model to a delimited C(T) file.
- * Columns by header (T, C, optional σ; guessed by the importer, or named with --t-col,
- * --c-col, --sigma-col by name or 1-based number). Units: --c-unit (mathjs syntax, default
- * the header's unit or J/(mol*K)); T in the header's unit or K. Window bounds inclusive.
+ * Columns, units, per-gram data and the weighting (--sigma-col N|none, --unweighted,
+ * --relative-sigma, --sigma): see lib/cli/data.ts. T in the header's unit or K. Window bounds
+ * inclusive. An unweighted fit reports the residual standard deviation instead of χ²_red.
  * Output γ in mJ/(mol K²), β in mJ/(mol K⁴) (display units of each parameter); --fix and
- * --start take the same display units for registered models (SI for expressions).
+ * --start take the same display units for registered models (SI for expressions) and are
+ * checked against the model's parameter bounds.
  * Exit 0 success, 1 the fit failed (reason printed), 2 bad usage or input (what and where).
  */
 import type { CliIo } from "../io";
-import { formatFlagHelp, getAssignments, getBoolean, getNumber, getString, parseArgs, type FlagSpec, type ParsedArgs, reportFailure } from "../args";
+import { formatFlagHelp, getAssignments, getBoolean, getNumber, getString, parseArgs, type FlagSpec, reportFailure } from "../args";
 import { InputError } from "../../engine/errors";
-import { parseDelimited, guessColumnRoles, extractPoints, type ParsedTable } from "../../engine/importer";
-import { toSI, heatCapacityBasis } from "../../engine/units";
+import { DATA_FLAGS, describeWeighting, findColumn, loadHeatCapacity, readTable, type LoadedHeatCapacity } from "../data";
+import { checkParameterValues } from "../modelParams";
 import { fitHeatCapacity, type FitResult, type HeatCapacityFitResult } from "../../engine/fit";
 import { MODELS, debyeTemperatureFromBeta } from "../../engine/models";
 import { scanWindows, type ScanResult } from "../../engine/scan";
@@ -21,11 +22,8 @@ const FLAGS: Record<string, FlagSpec> = {
   "t-min": { kind: "number", meta: "K", help: "lower window edge, inclusive" },
   "t-max": { kind: "number", meta: "K", help: "upper window edge, inclusive" },
   scan: { kind: "boolean", help: "scan T_min × T_max windows, report the plateau and fit the recommended window" },
-  "c-unit": { kind: "string", meta: "UNIT", help: 'heat-capacity unit, e.g. "mJ/(mol*K)" (default: header unit, else J/(mol*K))' },
-  "t-col": { kind: "string", meta: "NAME|N", help: "temperature column (name or 1-based number)" },
-  "c-col": { kind: "string", meta: "NAME|N", help: "heat-capacity column" },
-  "sigma-col": { kind: "string", meta: "NAME|N", help: "column of standard uncertainties of C (same unit as C)" },
-  r: { kind: "number", meta: "N", help: "atoms per formula unit for Θ_D and lattice models (default 1)" },
+  ...DATA_FLAGS,
+  r: { kind: "number", meta: "N", help: "atoms per formula unit for Θ_D and lattice models (default: from --formula, else 1)" },
   fix: { kind: "assignments", meta: "p=v,...", help: "hold parameters fixed (display units, as printed: γ in mJ/(mol K²); SI for expressions)" },
   start: { kind: "assignments", meta: "p=v,...", help: "starting values (same units as --fix)" },
   "scale-errors": { kind: "boolean", help: "scale standard errors by χ²_red even with σ given" },
@@ -34,59 +32,8 @@ const FLAGS: Record<string, FlagSpec> = {
 };
 const USAGE = `usage: heatbook fit FILE [options]\n\n${formatFlagHelp(FLAGS)}`;
 
-export interface LoadedColumns {
-  readonly table: ParsedTable;
-  readonly x: number[];
-  readonly y: number[];
-  readonly sigma?: number[];
-  readonly names: { x: string; y: string; sigma?: string };
-}
-
-/** Find a column by name (case-insensitive) or 1-based number; InputError naming the file otherwise. */
-export function findColumn(table: ParsedTable, spec: string, flag: string): number {
-  const n = Number(spec);
-  if (Number.isInteger(n) && n >= 1 && n <= table.columns.length) return n - 1;
-  const hit = table.columns.find((c) => c.name.toLowerCase() === spec.toLowerCase());
-  if (!hit) throw new InputError(`--${flag} ${JSON.stringify(spec)}: no such column (columns: ${table.columns.map((c) => c.name).join(", ")})`, { file: table.fileName, field: flag });
-  return hit.index;
-}
-
-/** Read and parse FILE through the shared importer. */
-export function readTable(path: string, io: CliIo): ParsedTable {
-  let bytes: Uint8Array;
-  try {
-    bytes = io.readFile(path);
-  } catch (e) {
-    throw new InputError(`cannot read ${path}: ${(e as Error).message}`, { file: path });
-  }
-  return parseDelimited(new TextDecoder().decode(bytes), { fileName: path });
-}
-
-function loadHeatCapacity(args: ParsedArgs, io: CliIo) {
-  const path = args.positionals[0];
-  const table = readTable(path, io);
-  const roles = guessColumnRoles(table.columns);
-  const pick = (flag: string, role: "temperature" | "heatCapacity" | "sigma") => {
-    const given = getString(args, flag);
-    if (given !== undefined) return findColumn(table, given, flag);
-    return roles[role]?.index;
-  };
-  const t = pick("t-col", "temperature");
-  const c = pick("c-col", "heatCapacity");
-  const s = pick("sigma-col", "sigma");
-  if (t === undefined || c === undefined) throw new InputError("cannot tell which columns hold T and C: name them with --t-col and --c-col", { file: path });
-  const points = extractPoints(table, { temperature: t, heatCapacity: c, ...(s !== undefined && s !== t && s !== c ? { sigma: s } : {}) });
-  const cUnit = getString(args, "c-unit") ?? table.columns[c].unitText ?? "J/(mol*K)";
-  const where = { file: path, field: getString(args, "c-unit") ? "c-unit" : table.columns[c].name };
-  if (heatCapacityBasis(cUnit, where) !== "molar") throw new InputError(`heat capacity in ${JSON.stringify(cUnit)} is not per mole: normalise to J/(mol*K) first`, where);
-  const tUnit = table.columns[t].unitText ?? "K";
-  return {
-    temperatureK: toSI(points.temperature, tUnit, "temperature", { file: path, field: table.columns[t].name }),
-    heatCapacity: toSI(points.heatCapacity, cUnit, "heatCapacity", where),
-    sigma: points.sigma ? toSI(points.sigma, cUnit, "heatCapacity", where) : undefined,
-    columns: { T: table.columns[t].name, C: table.columns[c].name, sigma: s !== undefined ? table.columns[s].name : null, cUnit },
-  };
-}
+/** Re-exported for the commands that read tables the same way (regress). */
+export { findColumn, readTable };
 
 function displayParameters(fit: HeatCapacityFitResult) {
   const specs = MODELS[fit.modelName]?.parameters;
@@ -119,14 +66,27 @@ export function statistics(fit: FitResult) {
 
 const num = (v: number | null, d = 6) => (v === null ? "—" : Number(v.toPrecision(d)).toString());
 
-function fitText(fit: HeatCapacityFitResult, file: string): string {
-  const lines = [`${file}: model ${fit.modelName}, ${fit.window.nPoints} points in [${fit.window.tMinK ?? "min"}, ${fit.window.tMaxK ?? "max"}] K, ${fit.weighted ? "weighted by σ" : "unweighted"}`];
+/**
+ * Residual standard deviation √(Σr²/dof) in mJ/(mol K), the spread of an unweighted fit in the
+ * data's unit (χ²_red means something only when σ is known); null for a weighted fit or dof = 0.
+ */
+function residualStdDev(fit: FitResult): { value: number; unit: string } | null {
+  if (fit.weighted || !(fit.dof > 0) || fit.chiSquare === null || !Number.isFinite(fit.chiSquare)) return null;
+  return { value: Math.sqrt(fit.chiSquare / fit.dof) * 1e3, unit: "mJ/(mol*K)" };
+}
+
+function fitText(fit: HeatCapacityFitResult, data: LoadedHeatCapacity): string {
+  const lines = [`${data.file}: model ${fit.modelName}, ${fit.window.nPoints} points in [${fit.window.tMinK ?? "min"}, ${fit.window.tMaxK ?? "max"}] K, fit variable C, ${describeWeighting(data.weighting)}`];
+  if (data.basis.given === "specific") lines.push(`  C converted from ${data.columns.cUnit} with M = ${data.basis.molarMassGPerMol} g/mol${data.basis.formula ? ` (${data.basis.formula})` : ""}: per mole formula unit`);
   for (const p of displayParameters(fit)) lines.push(`  ${p.name.padEnd(8)} ${num(p.value, 8).padStart(14)} ± ${num(p.stdError, 3).padEnd(10)} ${p.unit}${p.fixed ? " (fixed)" : ""}${p.atBound ? " (at bound)" : ""}`);
   const th = thetaFromBeta(fit);
   if (th) lines.push(`  Θ_D      ${num(th.thetaDK, 6).padStart(14)} ± ${num(th.thetaDStdErrorK, 3).padEnd(10)} K (from β, r = ${th.r})`);
-  lines.push(`  χ² = ${num(fit.chiSquare)}, χ²_red = ${num(fit.reducedChiSquare)}, dof = ${fit.dof}, R² = ${num(fit.rSquared, 8)}, AICc = ${num(fit.aicc)}, BIC = ${num(fit.bic)}`);
+  const sd = residualStdDev(fit);
+  if (sd) lines.push(`  residual s.d. = ${num(sd.value, 4)} mJ/(mol K) (unweighted: no χ²_red), dof = ${fit.dof}, R² = ${num(fit.rSquared, 8)}, AICc = ${num(fit.aicc)}, BIC = ${num(fit.bic)}`);
+  else lines.push(`  χ² = ${num(fit.chiSquare)}, χ²_red = ${num(fit.reducedChiSquare)}, dof = ${fit.dof}, R² = ${num(fit.rSquared, 8)}, AICc = ${num(fit.aicc)}, BIC = ${num(fit.bic)}`);
   lines.push(`  ${fit.converged ? "converged" : "NOT converged"}: ${fit.message}`);
   for (const w of fit.warnings) lines.push(`  warning: ${w}`);
+  for (const n of data.notes) lines.push(`  note: ${n}`);
   return lines.join("\n");
 }
 
@@ -146,6 +106,8 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
     const data = loadHeatCapacity(args, io);
     const modelArg = getString(args, "model") ?? "sommerfeld";
     const model = Object.hasOwn(MODELS, modelArg) ? modelArg : { expression: modelArg };
+    const r = getNumber(args, "r") ?? data.atomsPerFormulaUnit ?? undefined;
+    if (r !== undefined && !(r > 0)) throw new InputError(`invalid --r: ${r} (atoms per formula unit, must be > 0)`, { field: "r" });
     let tMinK = getNumber(args, "t-min");
     let tMaxK = getNumber(args, "t-max");
     let scan: ScanResult | null = null;
@@ -153,16 +115,21 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
       if (typeof model !== "string") throw new InputError("--scan needs a registered model, not an expression", { field: "scan" });
       const inRange = data.temperatureK.map((t, i) => i).filter((i) => (tMinK === undefined || data.temperatureK[i] >= tMinK) && (tMaxK === undefined || data.temperatureK[i] <= tMaxK));
       const sub = (a: number[]) => inRange.map((i) => a[i]);
-      scan = scanWindows({ temperatureK: sub(data.temperatureK), heatCapacity: sub(data.heatCapacity), sigma: data.sigma ? sub(data.sigma) : undefined }, { model, r: getNumber(args, "r") });
+      scan = scanWindows({ temperatureK: sub(data.temperatureK), heatCapacity: sub(data.heatCapacity), sigma: data.sigma ? sub(data.sigma) : undefined }, { model, r });
       if (scan.recommended) [tMinK, tMaxK] = [scan.recommended.tMinK, scan.recommended.tMaxK];
     }
-    const toSi = (values: Record<string, number> | undefined) => (values && typeof model === "string" ? fromDisplay(model, values) : values);
-    const fit = fitHeatCapacity(data, { model, tMinK, tMaxK, r: getNumber(args, "r"), fixed: toSi(getAssignments(args, "fix")), start: toSi(getAssignments(args, "start")), scaleErrors: getBoolean(args, "scale-errors") });
+    const toSi = (values: Record<string, number> | undefined, flag: string) => {
+      if (!values || typeof model !== "string") return values;
+      const si = fromDisplay(model, values);
+      checkParameterValues(MODELS[model], si, flag);
+      return si;
+    };
+    const fit = fitHeatCapacity(data, { model, tMinK, tMaxK, r, fixed: toSi(getAssignments(args, "fix"), "fix"), start: toSi(getAssignments(args, "start"), "start"), scaleErrors: getBoolean(args, "scale-errors") });
     if (getBoolean(args, "json")) {
-      io.out(JSON.stringify({ file: args.positionals[0], columns: data.columns, model: fit.modelName, window: { tMinK: fit.window.tMinK, tMaxK: fit.window.tMaxK, nPoints: fit.window.nPoints }, parameters: displayParameters(fit), derived: thetaFromBeta(fit), statistics: statistics(fit), correlation: fit.correlation, warnings: fit.warnings, ...(scan ? { scan: scanJson(scan) } : {}) }));
+      io.out(JSON.stringify({ file: args.positionals[0], columns: data.columns, weighting: { ...data.weighting, text: describeWeighting(data.weighting) }, basis: data.basis, model: fit.modelName, window: { tMinK: fit.window.tMinK, tMaxK: fit.window.tMaxK, nPoints: fit.window.nPoints }, parameters: displayParameters(fit), derived: thetaFromBeta(fit), statistics: { ...statistics(fit), residualStdDev: residualStdDev(fit) }, correlation: fit.correlation, warnings: fit.warnings, notes: data.notes, ...(scan ? { scan: scanJson(scan) } : {}) }));
     } else {
       if (scan) io.out(`window scan: ${scan.cells.length} windows; ${scan.reason}`);
-      io.out(fitText(fit, args.positionals[0]));
+      io.out(fitText(fit, data));
     }
     if (!fit.converged) {
       io.err(`heatbook fit: the fit failed: ${fit.message}`);

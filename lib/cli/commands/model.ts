@@ -4,12 +4,14 @@
  * display unit (γ in mJ/(mol K²), β in mJ/(mol K⁴), temperatures in K: see --help);
  * `r` (atoms per formula unit, default 1) may be set with --set r=N. Unset additive
  * coefficients (gamma, beta, delta, epsilon, A, B) are 0; any other parameter must be set.
- * Exit 0 success, 2 bad usage or input.
+ * Parameter values outside the model's bounds (e.g. Θ_D ≤ 0) are refused naming the parameter.
+ * The engine (evaluateHeatCapacity) refuses a C that is not finite. Exit 0 success, 2 bad usage or input.
  */
 import type { CliIo } from "../io";
 import { formatFlagHelp, getAssignments, getBoolean, getList, parseArgs, type FlagSpec, reportFailure } from "../args";
 import { InputError } from "../../engine/errors";
-import { getModel, MODELS, type HeatCapacityModel } from "../../engine/models";
+import { evaluateHeatCapacity, getModel, MODELS, type HeatCapacityModel } from "../../engine/models";
+import { checkParameterValues } from "../modelParams";
 
 const FLAGS: Record<string, FlagSpec> = {
   set: { kind: "assignments", meta: "p=v,...", help: "parameter values in display units (and r=N)" },
@@ -33,6 +35,7 @@ function siParameters(model: HeatCapacityModel, set: Record<string, number>): Re
     if (v === undefined) throw new InputError(`--set needs ${p.name} (${p.description}, in ${p.displayUnit}) for model ${model.name}`, { field: "set" });
     out[p.name] = v;
   }
+  checkParameterValues(model, out, "set");
   return out;
 }
 
@@ -55,7 +58,7 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
     const r = set.r ?? 1;
     if (!(r > 0)) throw new InputError(`invalid r: ${r} (must be > 0)`, { field: "set" });
     const params = siParameters(model, set);
-    const values = T.map((t) => model.evaluate(t, params, { r }));
+    const values = evaluateHeatCapacity(model, T, params, { r });
     if (getBoolean(args, "json")) io.out(JSON.stringify({ model: model.name, formula: model.formula, parameters: params, r, temperatureK: T, unit: "J/(mol*K)", values }));
     else {
       io.out(`${model.name}: ${model.formula}   (C in J/(mol K) per mole formula unit, r = ${r})`);

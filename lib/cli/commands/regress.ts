@@ -2,7 +2,7 @@
  * `heatbook regress FILE --model EXPR`: weighted least squares of y = f(x; parameters) for
  * any mathjs expression in x, on two columns of a delimited file (default: the first two;
  * --x/--y/--sigma by name or 1-based number). Linear-in-parameter expressions are solved by
- * QR; others by Levenberg–Marquardt from --start (every parameter needs a start).
+ * QR; others by Levenberg–Marquardt from --start, or without one from a global search.
  * Units are the file's own; parameters are reported without units.
  * Exit 0 success, 1 the fit failed (reason printed), 2 bad usage or input.
  */
@@ -17,7 +17,7 @@ const FLAGS: Record<string, FlagSpec> = {
   x: { kind: "string", meta: "COL", help: "x column (name or 1-based number; default 1)" },
   y: { kind: "string", meta: "COL", help: "y column (default 2)" },
   sigma: { kind: "string", meta: "COL", help: "column of standard uncertainties of y" },
-  start: { kind: "assignments", meta: "p=v,...", help: "starting values (needed for nonlinear expressions)" },
+  start: { kind: "assignments", meta: "p=v,...", help: "starting values (optional: without them a global search finds the start)" },
   "scale-errors": { kind: "boolean", help: "scale standard errors by χ²_red even with σ given" },
   json: { kind: "boolean", help: "print one JSON object" },
   help: { kind: "boolean", help: "show this help" },

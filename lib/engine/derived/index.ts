@@ -17,3 +17,5 @@ export type { FreeElectronSource, LatticeSpec } from "./deriveFreeElectron";
 export type { CouplingInput, MagneticInput } from "./deriveCoupling";
 export type { MoleBasis, FormulaInfo, DeriveInput, DerivedResult } from "./deriveAll";
 export { deriveAll } from "./deriveAll";
+export type { LatticeInput as LatticeViewInput, ThetaPoint, RatioPoint } from "./latticeViews";
+export { effectiveDebyeTemperature, latticeOverT3, invertDebye } from "./latticeViews";

@@ -1,32 +1,41 @@
 /**
  * Compile a user model y = f(variable; parameters) written in the mathjs language.
  *
- * Parameters are all symbols other than the variable and the constants pi, e. The
- * Jacobian comes from mathjs's symbolic `derivative` (our own trusted use on an already
- * whitelisted tree). Linearity in the parameters is decided symbolically: the model is
- * linear when every ∂f/∂p_k exists and contains no parameter, so that
- * f = f(x; 0) + Σ_k p_k ∂f/∂p_k(x) exactly; then the fit uses QR instead of LM.
- * Failure modes: InputError for refused or unparsable text (with the column), for a
- * missing variable name clash, or for no parameters.
+ * Parameters are all symbols other than the variable and the constants pi, e. Values come
+ * from generated JS (codegen.ts); value and Jacobian together from forward-mode automatic
+ * differentiation (forward.ts), whose size is linear in the expression and capped. The
+ * parameters that enter linearly are found on the tree (linearity.ts): `linearParameters` is a
+ * set in which f is jointly affine, and the model is `linear` when that set holds every
+ * parameter (then the fit uses QR; otherwise the linear ones are solved exactly inside the
+ * search over the others).
+ * Failure modes: InputError (field "expression") for refused or unparsable text (with the
+ * column), for no parameters, or for a limit exceeded (length, nodes, nesting depth,
+ * derivative size), each naming the limit.
  */
-import { derivative, type MathNode } from "mathjs";
+import type { MathNode } from "mathjs";
 import { InputError } from "../errors";
 import { collectSymbols, CONSTANT_SYMBOLS, parseUserExpression } from "./validate";
 import { compileVector, type VectorFunction } from "./codegen";
+import { compileValueAndJacobian, type ValueAndJacobian } from "./forward";
+import { linearParameters } from "./linearity";
 
 export interface CompiledExpression {
   readonly text: string;
   readonly variable: string;
   readonly parameters: readonly string[];
-  /** true when f is affine in every parameter (detected symbolically). */
+  /** true when f is affine in every parameter (decided on the tree). */
   readonly linear: boolean;
+  /** Parameters in which f is jointly affine (all of them when `linear`). */
+  readonly linearParameters: readonly string[];
   readonly evaluate: VectorFunction;
-  /** ∂f/∂p_k per parameter, or null when a symbolic derivative is unavailable. */
-  readonly jacobian: readonly VectorFunction[] | null;
+  /** Value and column-major Jacobian in one pass (forward-mode differentiation). */
+  readonly valueAndJacobian: ValueAndJacobian;
+  /** ∂f/∂p_k per parameter (each call runs the combined pass; prefer valueAndJacobian). */
+  readonly jacobian: readonly VectorFunction[];
   /** Linear models only: f(x; p = 0), the part of f free of parameters. */
   readonly offset: VectorFunction | null;
-  /** The derivative expressions as text (for display), or null. */
-  readonly derivativeText: readonly string[] | null;
+  /** Number of derivative terms in the compiled Jacobian (bounded by MAX_DERIVATIVE_TERMS). */
+  readonly derivativeTerms: number;
 }
 
 export interface CompileOptions {
@@ -40,40 +49,36 @@ function pickVariable(symbols: string[], requested?: string): string {
   return "x";
 }
 
-function tryDerivatives(tree: MathNode, names: readonly string[]): MathNode[] | null {
-  try {
-    return names.map((name) => derivative(tree, name));
-  } catch {
-    return null;
-  }
+function columnFunctions(vj: ValueAndJacobian, n: number): VectorFunction[] {
+  return Array.from({ length: n }, (_, k) => (x: Float64Array, p: Float64Array, out: Float64Array, offset = 0) => {
+    const m = x.length;
+    const jac = new Float64Array(m * n);
+    vj(x, p, new Float64Array(m), jac);
+    out.set(jac.subarray(k * m, (k + 1) * m), offset);
+  });
 }
 
 /** Parse, whitelist and compile `text`. */
 export function compileExpression(text: string, options: CompileOptions = {}): CompiledExpression {
-  const tree = parseUserExpression(text);
+  const tree: MathNode = parseUserExpression(text);
   const symbols = collectSymbols(tree);
   const variable = pickVariable(symbols, options.variable);
   const parameters = symbols.filter((s) => s !== variable && !CONSTANT_SYMBOLS.has(s));
   if (parameters.length === 0) throw new InputError(`invalid expression: ${JSON.stringify(text)} has no parameters to fit`, { field: "expression" });
   const evaluate = compileVector(tree, variable, parameters);
-  const dTrees = tryDerivatives(tree, parameters);
-  let jacobian: VectorFunction[] | null = null;
-  if (dTrees) {
-    try {
-      jacobian = dTrees.map((d) => compileVector(d, variable, parameters));
-    } catch {
-      jacobian = null;
-    }
-  }
-  const linear = jacobian !== null && dTrees !== null && dTrees.every((d) => collectSymbols(d).every((s) => !parameters.includes(s)));
+  const vj = compileValueAndJacobian(tree, variable, parameters);
+  const lin = linearParameters(tree, parameters);
+  const linear = lin.length === parameters.length;
   return Object.freeze({
     text,
     variable,
     parameters: Object.freeze(parameters),
     linear,
+    linearParameters: Object.freeze(lin),
     evaluate,
-    jacobian: jacobian ? Object.freeze(jacobian) : null,
+    valueAndJacobian: vj.fn,
+    jacobian: Object.freeze(columnFunctions(vj.fn, parameters.length)),
     offset: linear ? evaluate : null,
-    derivativeText: dTrees ? Object.freeze(dTrees.map((d) => d.toString())) : null,
+    derivativeTerms: vj.terms,
   });
 }

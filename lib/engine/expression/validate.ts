@@ -7,13 +7,16 @@
  * definitions, property access, indexing, strings, matrices, objects, ranges, conditionals,
  * comparisons, and calls such as import/createUnit/evaluate/parse/simplify/derivative —
  * is refused with an InputError that names the column in the expression.
- * Limits: MAX_EXPRESSION_LENGTH characters and MAX_NODES tree nodes.
+ * Limits: MAX_EXPRESSION_LENGTH characters, MAX_NODES tree nodes and MAX_DEPTH levels of
+ * nesting (operators and calls inside one another; parentheses do not count). Each refusal
+ * names the limit. The derivative's size has its own limit (forward.ts).
  */
 import { parse, type MathNode } from "mathjs";
 import { InputError } from "../errors";
 
 export const MAX_EXPRESSION_LENGTH = 500;
 export const MAX_NODES = 300;
+export const MAX_DEPTH = 64;
 
 /** Function name → arity accepted in user expressions. */
 export const ALLOWED_FUNCTIONS: Readonly<Record<string, readonly number[]>> = Object.freeze({
@@ -85,7 +88,17 @@ export function parseUserExpression(text: string): MathNode {
     checkNode(node as AnyNode, text);
   });
   if (count > MAX_NODES) throw new InputError(`invalid expression: ${count} nodes, at most ${MAX_NODES} allowed`, { field: "expression" });
+  const depth = nestingDepth(tree);
+  if (depth > MAX_DEPTH) throw new InputError(`invalid expression: nesting depth ${depth}, at most ${MAX_DEPTH} allowed (limit on nesting depth)`, { field: "expression" });
   return tree;
+}
+
+/** Levels of operators and calls inside one another (parentheses not counted). */
+export function nestingDepth(tree: MathNode): number {
+  const n = tree as AnyNode;
+  if (n.type === "ParenthesisNode") return nestingDepth(n.content as MathNode);
+  const args = n.type === "OperatorNode" || n.type === "FunctionNode" ? (n.args as MathNode[]) : [];
+  return 1 + args.reduce((d, a) => Math.max(d, nestingDepth(a)), 0);
 }
 
 /** Symbols used as values (not called as functions), in order of first appearance. */

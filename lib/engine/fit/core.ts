@@ -30,6 +30,11 @@ export interface CoreOptions {
   readonly scaleErrors: boolean;
   readonly lm?: LevenbergMarquardtOptions;
   readonly warnings?: string[];
+  /**
+   * Lowest χ² met by a search before this fit (global start): a fit that ends above it is
+   * not a verified minimum and is reported converged: false with a warning.
+   */
+  readonly bestSeen?: { readonly chiSquare: number; readonly where: string; /** Σ δ_i² of the rounding δ_i in evaluating each weighted residual. */ readonly floor?: number };
 }
 
 /** Fit `core` to (x, y, σ). Never throws for a poor fit; the result says what happened. */
@@ -77,6 +82,8 @@ function fitLinear(core: ModelCore, x: Float64Array, y: Float64Array, sigma: Flo
       const f = new Float64Array(m);
       core.evaluate(x, values, f);
       for (let i = 0; i < m; i++) residuals[i] = y[i] - f[i];
+      const overflow = endPointProblem(residuals.reduce((s, r, i) => s + (r / (sigma ? sigma[i] : 1)) ** 2, 0), {});
+      if (overflow) return failed(core, x, y, sigma, opt, values, overflow);
       return buildFitResult({
         ...common(core, y, sigma, opt, values, atBound),
         method: "linear-qr",
@@ -132,7 +139,18 @@ function failed(core: ModelCore, x: Float64Array, y: Float64Array, sigma: Float6
   });
 }
 
-function fitNonlinear(core: ModelCore, x: Float64Array, y: Float64Array, sigma: Float64Array | null, opt: CoreOptions): FitResult {
+/** Reasons the end point cannot be called a minimum, beyond what LM itself checks. */
+function endPointProblem(chi: number, opt: Pick<CoreOptions, "bestSeen">): string | null {
+  if (!Number.isFinite(chi)) return "χ² is not finite at the end point (overflow: values too large for double precision, or the model is not finite there)";
+  const seen = opt.bestSeen;
+  // rounding δ changes χ² by up to 2‖r‖‖δ‖ + ‖δ‖² (Cauchy–Schwarz): not a lower minimum
+  const rounding = seen?.floor ? 2 * Math.sqrt(seen.chiSquare * seen.floor) + seen.floor : 0;
+  if (seen && chi > seen.chiSquare * (1 + 1e-9) + rounding + 1e-300) return `ended at χ² = ${chi.toPrecision(6)} although the search met χ² = ${seen.chiSquare.toPrecision(6)} at ${seen.where}: not the global minimum`;
+  return null;
+}
+
+/** Fit a nonlinear core by LM from opt.start (exported for the global-start driver). */
+export function fitNonlinear(core: ModelCore, x: Float64Array, y: Float64Array, sigma: Float64Array | null, opt: CoreOptions): FitResult {
   const m = x.length;
   const nAll = core.names.length;
   const free = core.names.map((_, j) => j).filter((j) => !opt.fixed[j]);
@@ -160,7 +178,10 @@ function fitNonlinear(core: ModelCore, x: Float64Array, y: Float64Array, sigma: 
     upper: Float64Array.from(free, (j) => opt.upper[j]),
   };
   if (m < k) return failed(core, x, y, sigma, opt, full, `${m} points cannot determine ${k} free parameters`);
-  const lm = levenbergMarquardt(problem, Float64Array.from(free, (j) => opt.start[j]), opt.lm);
+  const lm0 = levenbergMarquardt(problem, Float64Array.from(free, (j) => opt.start[j]), opt.lm);
+  const problemAtEnd = endPointProblem(lm0.chiSquare, opt);
+  const lm = problemAtEnd ? { ...lm0, converged: false, message: `${lm0.message}; ${problemAtEnd}` } : lm0;
+  const endWarnings = problemAtEnd ? [`not converged: ${problemAtEnd}`] : [];
   expand(lm.p);
   const values = new Float64Array(full);
   const atBound = new Array<boolean>(nAll).fill(false);
@@ -171,8 +192,10 @@ function fitNonlinear(core: ModelCore, x: Float64Array, y: Float64Array, sigma: 
   const cov = covCols.length && lm.converged ? solveLinearLeastSquares(jc, m, covCols.length, lm.residuals, { refine: 0 }) : null;
   const f = new Float64Array(m);
   core.evaluate(x, values, f);
+  const base = common(core, y, sigma, opt, values, atBound);
   return buildFitResult({
-    ...common(core, y, sigma, opt, values, atBound),
+    ...base,
+    warnings: [...base.warnings, ...endWarnings],
     method: "levenberg-marquardt",
     covariance: cov && cov.fullRank ? cov.covariance : null,
     covNames: covCols.map(([j]) => core.names[j]),

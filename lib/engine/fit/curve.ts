@@ -1,15 +1,16 @@
 /**
  * General regression y = f(x; p) for a user expression (CLI `regress`, NIST checks).
- * The variable is x (or T when only T is used). Linear-in-parameter expressions are solved by QR (no start needed); others by LM from
- * `start` (every parameter needs a value). Units of x, y, σ are the caller's; parameter
+ * The variable is x (or T when only T is used). Linear-in-parameter expressions are solved by QR
+ * (no start needed); others by LM from `start`, or without a start (or when LM from it does
+ * not converge) by the global search of expressionFit.ts. Units of x, y, σ are the caller's; parameter
  * units are reported as "" (unknown).
- * Failure modes: InputError for unequal lengths, non-finite values, σ ≤ 0, a missing start
- * value or a start/fixed name that the expression does not use.
+ * Failure modes: InputError for unequal lengths, non-finite values, σ ≤ 0, values so large
+ * that χ² would overflow, or a start/fixed name that the expression does not use.
  */
-import { compileExpression, type CompiledExpression } from "../expression/compile";
+import { compileExpression } from "../expression/compile";
 import { collectSymbols, parseUserExpression } from "../expression/validate";
 import { InputError } from "../errors";
-import { fitCore, type ModelCore } from "./core";
+import { fitExpression } from "./expressionFit";
 import type { FitResult } from "./result";
 import type { LevenbergMarquardtOptions } from "./problem";
 
@@ -21,21 +22,11 @@ export interface FitCurveOptions {
   readonly lm?: LevenbergMarquardtOptions;
 }
 
-/** A ModelCore over a compiled expression. */
-export function expressionCore(c: CompiledExpression, units?: readonly string[]): ModelCore {
-  const n = c.parameters.length;
-  const jac = c.jacobian;
-  return {
-    label: c.text,
-    names: c.parameters,
-    units: units ?? new Array<string>(n).fill(""),
-    linear: c.linear,
-    evaluate: (x, p, out) => c.evaluate(x, p, out, 0),
-    jacobian: jac ? (x, p, out) => jac.forEach((d, j) => d(x, p, out, j * x.length)) : null,
-  };
-}
+export { expressionCore } from "./expressionFit";
 
-/** Check lengths and finiteness of x, y, σ; returns Float64Arrays. */
+const MAX_SCALED = 1e150;
+
+/** Check lengths, finiteness and magnitude of x, y, σ; returns Float64Arrays. */
 export function checkSeries(x: ArrayLike<number>, y: ArrayLike<number>, sigma: ArrayLike<number> | undefined, names: [string, string, string]) {
   if (x.length !== y.length) throw new InputError(`${names[0]} has ${x.length} values but ${names[1]} has ${y.length}`, { field: names[1] });
   if (sigma && sigma.length !== x.length) throw new InputError(`${names[2]} has ${sigma.length} values but ${names[0]} has ${x.length}`, { field: names[2] });
@@ -43,6 +34,11 @@ export function checkSeries(x: ArrayLike<number>, y: ArrayLike<number>, sigma: A
     if (!Number.isFinite(x[i])) throw new InputError(`invalid ${names[0]}: ${x[i]} at point ${i + 1} (not finite)`, { field: names[0], line: i + 1 });
     if (!Number.isFinite(y[i])) throw new InputError(`invalid ${names[1]}: ${y[i]} at point ${i + 1} (not finite)`, { field: names[1], line: i + 1 });
     if (sigma && !(sigma[i] > 0 && Number.isFinite(sigma[i]))) throw new InputError(`invalid ${names[2]}: ${sigma[i]} at point ${i + 1} (must be > 0)`, { field: names[2], line: i + 1 });
+  }
+  for (let i = 0; i < x.length; i++) {
+    // χ² sums squares of y/σ: beyond 1e150 a single term overflows double precision
+    const scaled = Math.abs(y[i]) / (sigma ? sigma[i] : 1);
+    if (!(scaled < MAX_SCALED)) throw new InputError(`invalid ${names[1]}: ${y[i]} at point ${i + 1} (|${names[1]}|${sigma ? `/${names[2]}` : ""} must stay below 1e150 or χ² overflows: check the unit)`, { field: names[1], line: i + 1 });
   }
   return { x: Float64Array.from(x), y: Float64Array.from(y), sigma: sigma ? Float64Array.from(sigma) : null };
 }
@@ -67,9 +63,7 @@ export function fitCurve(
   }
   const fixed = names.map((n) => options.fixed?.[n] !== undefined);
   const startValues = Float64Array.from(names, (n) => options.fixed?.[n] ?? start[n] ?? NaN);
-  const missing = names.filter((_, j) => !Number.isFinite(startValues[j]));
-  if (missing.length && !compiled.linear) throw new InputError(`start value needed for ${missing.join(", ")} (the model is nonlinear)`, { field: missing[0] });
   const lower = Float64Array.from(names, (n) => options.bounds?.[n]?.[0] ?? -Infinity);
   const upper = Float64Array.from(names, (n) => options.bounds?.[n]?.[1] ?? Infinity);
-  return fitCore(expressionCore(compiled), data.x, data.y, data.sigma, { start: startValues, fixed, lower, upper, scaleErrors: options.scaleErrors ?? false, lm: options.lm });
+  return fitExpression(compiled, data.x, data.y, data.sigma, { start: startValues, fixed, lower, upper, scaleErrors: options.scaleErrors ?? false, lm: options.lm });
 }

@@ -5,7 +5,10 @@
  * options: model (registry name or {expression} over T), tMinK/tMaxK (inclusive window),
  * fixed {name: value}, free [names of parameters fixed by default to release], start,
  * bounds, scaleErrors, r (atoms per formula unit, default 1).
- * Linear models go to QR, nonlinear to LM from guess(data) overridden by `start`.
+ * Linear models go to QR. Nonlinear registry models: a global search over their nonlinear
+ * parameters with the amplitudes solved exactly (fit/global.ts, ranges from the model's
+ * separable spec), then LM; with `start` for every free nonlinear parameter, LM from it,
+ * checked against the search (option globalSearch). User expressions: expressionFit.ts.
  * Returns the FitResult (parameters in SI) plus window and model info and the physicist's
  * warnings (warnings.ts). Throws InputError for unequal lengths, non-finite or
  * non-positive T, σ ≤ 0, an unknown model or parameter, a required fixed parameter left
@@ -15,8 +18,10 @@ import { InputError } from "../errors";
 import { getModel } from "../models/registry";
 import type { HeatCapacityModel, ModelOptions } from "../models/types";
 import { compileExpression } from "../expression/compile";
-import { fitCore, type ModelCore } from "./core";
-import { checkSeries, expressionCore } from "./curve";
+import { fitCore, type CoreOptions, type ModelCore } from "./core";
+import { checkSeries } from "./curve";
+import { fitExpression } from "./expressionFit";
+import { fitGlobal, type GlobalSearch } from "./global";
 import type { FitResult } from "./result";
 import { heatCapacityWarnings } from "./warnings";
 
@@ -36,6 +41,14 @@ export interface HeatCapacityFitOptions {
   readonly bounds?: Readonly<Record<string, readonly [number | null, number | null]>>;
   readonly scaleErrors?: boolean;
   readonly r?: number;
+  /**
+   * Nonlinear models: search for the global minimum (default true). Without a start for
+   * every free nonlinear parameter the search provides it; with one, LM runs from the given
+   * start and the search only checks that no lower χ² exists (else converged: false).
+   * false: LM from the start (or the model's guess) alone — for callers that pass a start
+   * known to be close, e.g. from a neighbouring window.
+   */
+  readonly globalSearch?: boolean;
 }
 
 export interface FitWindow {
@@ -105,7 +118,7 @@ export function fitHeatCapacity(data: HeatCapacityInput, options: HeatCapacityFi
   const sigma = all.sigma ? Float64Array.from(idx, (i) => all.sigma![i]) : null;
   const spec = options.model ?? "sommerfeld";
   const setup = typeof spec === "string" ? registrySetup(getModel(spec), { temperatureK: x, heatCapacity: y }, options) : expressionSetup(spec.expression, options);
-  const fit = fitCore(setup.core, x, y, sigma, { ...setup, scaleErrors: options.scaleErrors ?? false });
+  const fit = setup.run(x, y, sigma, { ...setup, scaleErrors: options.scaleErrors ?? false });
   const warnings = heatCapacityWarnings(fit, { modelName: setup.core.label, temperatureK: x, heatCapacity: y, r, scaleErrors: options.scaleErrors ?? false });
   return Object.freeze({
     ...fit,
@@ -138,7 +151,33 @@ function registrySetup(model: HeatCapacityModel, data: { temperatureK: Float64Ar
   });
   const lower = Float64Array.from(model.parameters, (p) => options.bounds?.[p.name]?.[0] ?? p.lower);
   const upper = Float64Array.from(model.parameters, (p) => options.bounds?.[p.name]?.[1] ?? p.upper);
-  return { core: registryCore(model, { r: options.r }), start, fixed, lower, upper };
+  model.parameters.forEach((p, j) => {
+    const v = options.fixed?.[p.name] ?? options.start?.[p.name];
+    if (v !== undefined && !(Number.isFinite(v) && v >= lower[j] && v <= upper[j])) throw new InputError(`invalid ${p.name}: ${v} (${p.description} must lie in [${lower[j]}, ${upper[j]}] ${p.unit})`, { field: p.name });
+  });
+  const core = registryCore(model, { r: options.r });
+  const search = options.globalSearch === false ? null : registrySearch(model, data, options, fixed, lower, upper, start);
+  const run = (x: Float64Array, y: Float64Array, sigma: Float64Array | null, opt: CoreOptions) => (search ? fitGlobal(core, x, y, sigma, opt, search) : fitCore(core, x, y, sigma, opt));
+  return { core, start, fixed, lower, upper, run };
+}
+
+/** The global search of a nonlinear registry model, or null when it has no separable spec. */
+function registrySearch(model: HeatCapacityModel, data: { temperatureK: Float64Array; heatCapacity: Float64Array }, options: HeatCapacityFitOptions, fixed: boolean[], lower: Float64Array, upper: Float64Array, start: Float64Array): GlobalSearch | null {
+  const spec = model.separable;
+  if (model.linear || !spec) return null;
+  const names = model.parameters.map((p) => p.name);
+  const free = names.map((_, j) => j).filter((j) => !fixed[j]);
+  const linear = free.filter((j) => spec.linear.includes(names[j]));
+  const nonlinear = free.filter((j) => !linear.includes(j));
+  const ranges = spec.ranges(data, { r: options.r });
+  if (nonlinear.length === 0 || nonlinear.some((j) => !ranges[names[j]])) return null;
+  const axes = nonlinear.map((j) => {
+    const [lo, hi] = ranges[names[j]];
+    return { lo: Math.max(lo, lower[j]), hi: Math.min(hi, upper[j]) };
+  });
+  if (axes.some((a) => !(a.hi > a.lo))) return null;
+  const given = nonlinear.every((j) => options.start?.[names[j]] !== undefined);
+  return { linear, nonlinear, axes, extraStarts: [start], budget: 4000, startsOnly: given };
 }
 
 function expressionSetup(text: string, options: HeatCapacityFitOptions) {
@@ -147,9 +186,8 @@ function expressionSetup(text: string, options: HeatCapacityFitOptions) {
   checkNames(names, options);
   const fixed = names.map((n) => options.fixed?.[n] !== undefined);
   const start = Float64Array.from(names, (n) => options.fixed?.[n] ?? options.start?.[n] ?? NaN);
-  const missing = names.filter((_, j) => !Number.isFinite(start[j]));
-  if (missing.length && !compiled.linear) throw new InputError(`start value needed for ${missing.join(", ")} (the expression is nonlinear)`, { field: missing[0] });
   const lower = Float64Array.from(names, (n) => options.bounds?.[n]?.[0] ?? -Infinity);
   const upper = Float64Array.from(names, (n) => options.bounds?.[n]?.[1] ?? Infinity);
-  return { core: expressionCore(compiled), start, fixed, lower, upper };
+  const run = (x: Float64Array, y: Float64Array, sigma: Float64Array | null, opt: CoreOptions) => fitExpression(compiled, x, y, sigma, opt);
+  return { core: { label: compiled.text }, start, fixed, lower, upper, run };
 }

@@ -1,4 +1,4 @@
-/** Fitting: Levenberg–Marquardt, the shared fit core, general regression and the result type. */
+/** Fitting: Levenberg–Marquardt, separable global starts, the shared fit core, general regression and the result type. */
 export { levenbergMarquardt } from "./lm";
 export { weightedJacobian, weightedResiduals, type LeastSquaresProblem, type LevenbergMarquardtOptions, type LevenbergMarquardtResult } from "./problem";
 export { fitCore, type ModelCore, type CoreOptions } from "./core";
@@ -7,3 +7,6 @@ export { buildFitResult, type FitResult, type FitParameter, type NamedMatrix } f
 export { fitHeatCapacity, registryCore, type HeatCapacityInput, type HeatCapacityFitOptions, type HeatCapacityFitResult, type FitWindow } from "./heatCapacity";
 export { heatCapacityWarnings, type WarningContext } from "./warnings";
 export { runsTest, type RunsTestResult } from "./runsTest";
+export { fitGlobal, multiStartThetas, type GlobalSearch } from "./global";
+export { solveAmplitudes, projected, gridSearch, reducedFit, type SeparableProblem, type Candidate, type Axis } from "./separable";
+export { fitExpression, searchBudget, localFitLimit } from "./expressionFit";

@@ -17,6 +17,10 @@ export interface Format {
   decimalComma: boolean;
   /** Most common cell count of the numeric lines. */
   columnCount: number;
+  /** Summed per-line number fractions of this reading (its detection score). */
+  score: number;
+  /** The best reading with the other decimal mark, when one found numeric lines. */
+  runnerUp?: { delimiter: Delimiter; decimalComma: boolean; columnCount: number; score: number };
 }
 
 const CANDIDATES: readonly [Delimiter, boolean][] = [
@@ -65,6 +69,7 @@ export function detectFormat(
   }
   let best: Format | null = null;
   let bestScore = 0;
+  const bestByMark: (Format | null)[] = [null, null];
   for (const [delimiter, decimalComma] of CANDIDATES) {
     if (wanted.delimiter !== "auto" && wanted.delimiter !== delimiter) continue;
     if (wanted.decimalComma !== "auto" && wanted.decimalComma !== decimalComma) continue;
@@ -74,8 +79,10 @@ export function detectFormat(
       if (cells) counts.set(cells.length, (counts.get(cells.length) ?? 0) + numberFraction(cells, decimalComma));
     }
     for (const [columnCount, score] of counts) {
+      const mark = decimalComma ? 1 : 0;
+      if (score > (bestByMark[mark]?.score ?? 0)) bestByMark[mark] = { delimiter, decimalComma, columnCount, score };
       if (score > bestScore) {
-        best = { delimiter, decimalComma, columnCount };
+        best = { delimiter, decimalComma, columnCount, score };
         bestScore = score;
       }
     }
@@ -83,5 +90,6 @@ export function detectFormat(
   if (!best) {
     throw new InputError("no numeric data found: expected lines with two or more delimited numeric columns", { file });
   }
-  return best;
+  const other = bestByMark[best.decimalComma ? 0 : 1];
+  return other ? { ...best, runnerUp: { delimiter: other.delimiter, decimalComma: other.decimalComma, columnCount: other.columnCount, score: other.score } } : best;
 }

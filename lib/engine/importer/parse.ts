@@ -6,6 +6,7 @@ import { describeBadCell, parseNumber, splitCells, splitLines } from "./cells";
 import { detectFormat, trimTrailingEmpty } from "./detect";
 import { buildColumns } from "./header";
 import { findLayout, startsWithAny } from "./layout";
+import { findAmbiguity } from "./ambiguity";
 import { DEFAULT_COMMENT_PREFIXES, MAX_ISSUES } from "./types";
 import type { ColumnInfo, Delimiter, ImportIssue, ParseOptions, ParsedTable } from "./types";
 
@@ -25,6 +26,11 @@ const DELIMITERS: readonly (Delimiter | "auto")[] = [",", ";", "\t", "whitespace
  * an issue; a bad, empty or NaN cell becomes NaN with an issue naming line, column and column
  * name; a wrong cell count is an issue (missing cells are NaN, extra cells ignored).
  *
+ * Ambiguity: with delimiter and decimal mark both on "auto", a file that reads two ways (a
+ * header whose cell count differs from the data's — typically a decimal comma inside a
+ * comma-delimited file — or two readings with different decimal marks that fit about equally)
+ * carries `ambiguity`; the caller must ask, not guess (ambiguity.ts).
+ *
  * Throws InputError for a non-string input, bad options, or text without any numeric data line
  * of two or more columns. Everything else is reported in `issues`, never thrown.
  */
@@ -42,6 +48,9 @@ export function parseDelimited(text: string, options: ParseOptions = {}): Parsed
   const layout = findLayout(lines, format, commentPrefixes);
   const columns = buildColumns(format.columnCount, layout.names, layout.units);
   const body = readRows(lines, layout.dataStart, columns, format.delimiter, format.decimalComma, commentPrefixes);
+  const ambiguity = wantedDelimiter === "auto" && wantedComma === "auto"
+    ? findAmbiguity(lines, format, layout, (l) => startsWithAny(l, commentPrefixes))
+    : undefined;
   return {
     ...(file !== undefined ? { fileName: file } : {}),
     columns,
@@ -55,6 +64,7 @@ export function parseDelimited(text: string, options: ParseOptions = {}): Parsed
     preamble: layout.preamble,
     issues: body.issues,
     issueCount: body.issueCount,
+    ...(ambiguity ? { ambiguity } : {}),
   };
 }
 

@@ -33,6 +33,17 @@ export interface ImportIssue {
   message: string;
 }
 
+/**
+ * A file that reads two ways: the caller must ask which (never guess). `line` is the 1-based
+ * line that shows it; `kind` says which case (decimal comma inside a comma-delimited file, a
+ * header whose cell count differs from the data's, two readings that fit about equally well).
+ */
+export interface Ambiguity {
+  kind: "decimal-comma" | "header-count" | "two-readings";
+  line: number;
+  message: string;
+}
+
 /** Result of `parseDelimited`. */
 export interface ParsedTable {
   fileName?: string;
@@ -53,6 +64,8 @@ export interface ParsedTable {
   /** At most MAX_ISSUES issues are kept; issueCount counts all of them. */
   issues: ImportIssue[];
   issueCount: number;
+  /** Present when delimiter and decimal mark were both left to detection and the file reads two ways. */
+  ambiguity?: Ambiguity;
 }
 
 /** Cap on stored issues, so a wholly broken 100 000-line file stays cheap to report. */

@@ -7,7 +7,7 @@
  */
 import { alphaModelReducedHeatCapacity } from "./alphaFunction";
 import { BCS_GAP_RATIO } from "./bcsGap";
-import { BETA, param, type HeatCapacityModel, type Params } from "./types";
+import { BETA, param, temperatureSpan, type HeatCapacityModel, type Params } from "./types";
 import { guessGammaBeta } from "./linearGuess";
 
 export const alphaModel: HeatCapacityModel = Object.freeze<HeatCapacityModel>({
@@ -21,7 +21,8 @@ export const alphaModel: HeatCapacityModel = Object.freeze<HeatCapacityModel>({
     BETA,
   ],
   linear: false,
-  evaluate: (T: number, p: Params) => p.gammaN * p.tc * alphaModelReducedHeatCapacity(T / p.tc, p.alpha) + p.beta * T ** 3,
+  // the integral is skipped when γ_n = 0 (the global search reads the β column that way)
+  evaluate: (T: number, p: Params) => (p.gammaN === 0 ? 0 : p.gammaN * p.tc * alphaModelReducedHeatCapacity(T / p.tc, p.alpha)) + p.beta * T ** 3,
   guess: (data) => {
     let tc = data.temperatureK[0];
     let best = -Infinity;
@@ -34,4 +35,6 @@ export const alphaModel: HeatCapacityModel = Object.freeze<HeatCapacityModel>({
     const { gamma, beta } = guessGammaBeta(sub);
     return { gammaN: Math.max(gamma, 1e-6), tc, alpha: BCS_GAP_RATIO, beta };
   },
+  // T_c within the data (a transition outside it cannot be located), α over 0.5–5
+  separable: { linear: ["gammaN", "beta"], ranges: (data) => { const { tMin, tMax } = temperatureSpan(data); return { tc: [tMin, tMax], alpha: [0.5, 5] }; } },
 });

@@ -6,7 +6,7 @@
  * b·k_BT_c estimates the gap Δ(0)). Reference: Bardeen, Cooper & Schrieffer, Phys. Rev.
  * 108 (1957) 1175; Tinkham, Introduction to Superconductivity (2nd ed.) §3.
  */
-import { BETA, param, type HeatCapacityModel, type Params } from "./types";
+import { BETA, param, temperatureSpan, type HeatCapacityModel, type Params } from "./types";
 
 export const GAMMA_N = param("gammaN", "J/(mol*K^2)", "mJ/(mol*K^2)", 1e3, "normal-state Sommerfeld coefficient γ_n", [-Infinity, Infinity], "required");
 export const TC = param("tc", "K", "K", 1, "superconducting transition temperature T_c", [1e-6, 1e3], "required");
@@ -23,4 +23,7 @@ export const bcs: HeatCapacityModel = Object.freeze<HeatCapacityModel>({
     return { gammaN: p.tc * p.a * e, tc: p.gammaN * p.a * e * (1 - (p.b * p.tc) / T), a: p.gammaN * p.tc * e, b: (-p.gammaN * p.tc * p.a * e * p.tc) / T, beta: T ** 3 };
   },
   guess: () => ({ a: 8.5, b: 1.44, beta: 1e-5 }),
+  // b = Δ(0)/(k_B T_c) over 0.05–20 (weak coupling 1.76, strong coupling up to ~2.5, anisotropic
+  // gaps lower); T_c, when freed, from the lowest to twice the highest temperature
+  separable: { linear: ["a", "beta"], ranges: (data) => { const { tMin, tMax } = temperatureSpan(data); return { b: [0.05, 20], tc: [tMin, 2 * tMax] }; } },
 });

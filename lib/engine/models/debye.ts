@@ -6,7 +6,7 @@
  */
 import { GAS_CONSTANT_J_PER_MOL_K as R } from "../constants";
 import { debyeHeatCapacity, debyeHeatCapacityDThetaD } from "./debyeFunction";
-import { GAMMA, param, type HeatCapacityModel, type ModelOptions, type Params } from "./types";
+import { GAMMA, param, temperatureSpan, type HeatCapacityModel, type ModelOptions, type Params } from "./types";
 import { guessGammaBeta } from "./linearGuess";
 
 export const THETA_D = param("thetaD", "K", "K", 1, "Debye temperature Θ_D", [1e-3, 1e5]);
@@ -28,4 +28,6 @@ export const debye: HeatCapacityModel = Object.freeze<HeatCapacityModel>({
     const { gamma, beta } = guessGammaBeta(data);
     return { gamma, thetaD: Math.min(Math.max(debyeTemperatureFromBeta(beta, o?.r ?? 1), 10), 2000) };
   },
+  // Θ_D from half the lowest temperature (C_D near Dulong–Petit) to 500 × the highest (T³ regime)
+  separable: { linear: ["gamma"], ranges: (data) => { const { tMin, tMax } = temperatureSpan(data); return { thetaD: [Math.max(1e-3, tMin / 2), Math.min(1e5, 500 * tMax)] }; } },
 });

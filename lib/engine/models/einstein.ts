@@ -6,7 +6,7 @@
  * Reference: Einstein, Ann. Phys. 22 (1907) 180.
  */
 import { GAS_CONSTANT_J_PER_MOL_K as R } from "../constants";
-import { BETA, GAMMA, param, type HeatCapacityModel, type Params } from "./types";
+import { BETA, GAMMA, param, temperatureSpan, type HeatCapacityModel, type Params } from "./types";
 import { guessGammaBeta } from "./linearGuess";
 
 /** Einstein heat capacity of n_E oscillators per formula unit [J mol⁻¹ K⁻¹]. */
@@ -30,4 +30,6 @@ export const einstein: HeatCapacityModel = Object.freeze<HeatCapacityModel>({
     const t = Array.from(data.temperatureK).sort((a, b) => a - b);
     return { ...guessGammaBeta(data), nE: 0.01, thetaE: 5 * t[Math.floor(t.length / 2)] };
   },
+  // Θ_E/T from 1/5 of the lowest T (mode saturated) to 40 × the highest (mode frozen, e^{−40})
+  separable: { linear: ["gamma", "beta", "nE"], ranges: (data) => { const { tMin, tMax } = temperatureSpan(data); return { thetaE: [Math.max(1e-3, tMin / 5), Math.min(1e5, 40 * tMax)] }; } },
 });

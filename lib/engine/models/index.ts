@@ -1,6 +1,8 @@
 /** Heat-capacity models (one file per physical concept) and their registry. */
 export { MODELS, getModel } from "./registry";
-export type { HeatCapacityModel, ParameterSpec, ModelOptions, HeatCapacityData, Params } from "./types";
+export { evaluateHeatCapacity, checkModelParameters } from "./evaluate";
+export type { HeatCapacityModel, ParameterSpec, ModelOptions, HeatCapacityData, Params, SeparableSpec } from "./types";
+export { temperatureSpan } from "./types";
 export { sommerfeld, sommerfeldT5, sommerfeldT7 } from "./sommerfeld";
 export { nuclear } from "./nuclear";
 export { magnon } from "./magnon";

@@ -7,7 +7,7 @@
  * Specific Heats at Low Temperatures (1966), ch. 4.
  */
 import { GAS_CONSTANT_J_PER_MOL_K as R } from "../constants";
-import { BETA, GAMMA, param, type HeatCapacityModel, type Params } from "./types";
+import { BETA, GAMMA, param, temperatureSpan, type HeatCapacityModel, type Params } from "./types";
 import { guessGammaBeta } from "./linearGuess";
 
 /** Two-level Schottky heat capacity per mole of formula units [J mol⁻¹ K⁻¹]. */
@@ -43,4 +43,7 @@ export const schottky: HeatCapacityModel = Object.freeze<HeatCapacityModel>({
     }
     return { ...gb, n: best > 0 ? best / (0.44 * R) : 1e-3, gap: 2.4 * tAt, g: 1 };
   },
+  // Δ from 1/20 of the lowest T (only the 1/T² tail in the data) to 40 × the highest (frozen out);
+  // g, when freed, over 0.05–20
+  separable: { linear: ["gamma", "beta", "n"], ranges: (data) => { const { tMin, tMax } = temperatureSpan(data); return { gap: [Math.max(1e-6, tMin / 20), Math.min(1e5, 40 * tMax)], g: [0.05, 20] }; } },
 });

@@ -46,6 +46,29 @@ export interface HeatCapacityModel {
   gradient?(temperatureK: number, params: Params, options?: ModelOptions): Params;
   /** Starting values from the data (nonlinear models; linear ones need none but give some). */
   guess(data: HeatCapacityData, options?: ModelOptions): Params;
+  /** Nonlinear models: which parameters are amplitudes, and where to search the others. */
+  readonly separable?: SeparableSpec;
+}
+
+/**
+ * The structure the global start uses (fit/global.ts): C is affine in the `linear`
+ * parameters once the others are fixed; `ranges` gives a physically sensible search interval
+ * for each nonlinear parameter from the data (searched log-spaced when both ends are > 0).
+ */
+export interface SeparableSpec {
+  readonly linear: readonly string[];
+  ranges(data: HeatCapacityData, options?: ModelOptions): Readonly<Record<string, readonly [number, number]>>;
+}
+
+/** Lowest and highest temperature of the data [K]. */
+export function temperatureSpan(data: HeatCapacityData): { tMin: number; tMax: number } {
+  let tMin = Infinity;
+  let tMax = -Infinity;
+  for (let i = 0; i < data.temperatureK.length; i++) {
+    tMin = Math.min(tMin, data.temperatureK[i]);
+    tMax = Math.max(tMax, data.temperatureK[i]);
+  }
+  return { tMin, tMax };
 }
 
 /** Parameter spec helper. */

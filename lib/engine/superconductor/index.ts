@@ -10,3 +10,4 @@ export type { ResidualGamma } from "./residual";
 export { residualGamma } from "./residual";
 export type { NormalStateSource, JumpInput, JumpResult } from "./jump";
 export { analyzeJump } from "./jump";
+export { analyseGammaField, type GammaFieldInput, type GammaFieldLaw, type GammaFieldResult } from "./gammaField";

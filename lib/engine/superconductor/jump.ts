@@ -38,7 +38,7 @@ export interface JumpInput {
   readonly window?: Partial<Windows>;
   /** Degree of the superconducting-branch polynomial; default 2. */
   readonly branchDegree?: 1 | 2;
-  /** γ_r from T ≤ fraction × T_c; default 0.15 (the gapped C_es/T must be negligible there). */
+  /** γ_r from the fits of residual.ts (gapped form or line in T², by AICc) at T ≤ fraction × T_c; default 0.4. */
   readonly residualBelowFraction?: number;
 }
 
@@ -134,15 +134,15 @@ function noiseErrors(c: ReturnType<typeof construct>, T: readonly number[], sigm
 }
 
 function residualPart(input: JumpInput, T: readonly number[], y: readonly number[], sigmaY: number[] | undefined, tcK: number, gammaN: number, ratio: number) {
-  const upTo = (input.residualBelowFraction ?? 0.15) * tcK;
-  const r = residualGamma(T, y, upTo, sigmaY);
-  if (!r) return { gammaR: null, fraction: null, corrected: null, warnings: [`γ_r not estimated: fewer than 3 points below ${upTo.toPrecision(3)} K`] };
+  const upTo = (input.residualBelowFraction ?? 0.4) * tcK;
+  const r = residualGamma(T, y, upTo, sigmaY, tcK);
+  if (!r) return { gammaR: null, fraction: null, corrected: null, warnings: [`γ_r not estimated: the gapped fit below ${upTo.toPrecision(3)} K needs at least 6 points and must converge`] };
   const cov = covariance2(r.stdError, Math.sqrt(varianceOf(input.gammaN)));
   const frac = propagate(([a, b]) => a / b, [r.gammaR, gammaN], cov);
   const corr = propagate(([a, b]) => (ratio * gammaN) / (b - a), [r.gammaR, gammaN], cov);
   const warnings = r.gammaR < -2 * r.stdError ? [`negative residual γ_r = ${(r.gammaR * 1e3).toPrecision(3)} mJ mol^-1 K^-2: check β, the addenda, or a nuclear tail at the lowest T`] : [];
   return {
-    gammaR: quantity("gammaResidual", "γ_r", r.gammaR * 1e3, r.stdError * 1e3, "mJ mol^-1 K^-2", `C_el/T vs T² extrapolated to 0 from ${r.nPoints} points ≤ ${upTo.toPrecision(3)} K`),
+    gammaR: quantity("gammaResidual", "γ_r", r.gammaR * 1e3, r.stdError * 1e3, "mJ mol^-1 K^-2", r.method),
     fraction: quantity("nonSuperconductingFraction", "γ_r/γ_n", frac.value, frac.stdError, "1", "non-superconducting fraction"),
     corrected: quantity("jumpRatioSuperconductingPart", "ΔC/((γ_n − γ_r) T_c)", corr.value, corr.stdError, "1", "jump of the superconducting part alone"),
     warnings,

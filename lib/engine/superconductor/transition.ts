@@ -1,10 +1,11 @@
 /**
  * Locating the superconducting transition in C_el/T data and choosing the windows of the
  * equal-area construction. Heuristics (common practice, documented here): the peak of a
- * 3-point moving average of C_el/T; the half-height point T_½ above it; a width
- * w = max(2(T_½ − T_peak), 2 × median spacing); the integration window
- * [T_peak − 2w, T_½ + 2w]; the superconducting branch fitted on [lower − 2w, lower]
- * (at least 6 points).
+ * 3-point moving average of C_el/T; above it, the first points where the average falls below
+ * 90 %, 50 % (T_½) and 10 % of the jump height over γ_n; a width w = 3σ_T of a Gaussian-
+ * broadened step, σ_T = (T_10 − T_90)/2.56, but at least 2 × the median spacing; the
+ * integration window [T_½ − 2w, T_½ + 2w] (capped at the last point); the superconducting
+ * branch fitted on [lower − 2w, lower], widened to the last 6 points below `lower` if fewer.
  */
 import { invalid } from "../errors";
 

@@ -8,5 +8,5 @@ export type { AnalysisSummary, RevisionInfo, NotebookView, RevisionStateName } f
 export { addStep, updateStep, removeStep, moveStep } from "./steps";
 export { computeRevisionSteps, type StepView, type StoredOutput, type ComputeResult } from "./compute";
 export { loadContext, loadSample, loadMeasurements, inputHashes, referencedMeasurements } from "./context";
-export { listThreads, createThread, replyToThread, setThreadState, type ThreadView, type CommentView } from "./threads";
+export { listThreads, createThread, replyToThread, setThreadState, mentionedHandles, type ThreadView, type CommentView } from "./threads";
 export { notify, EVENT_CHANNEL, type NotebookEvent } from "./events";

@@ -71,19 +71,32 @@ export async function listThreads(db: Db, member: Member, analysisId: string): P
 
 type Tx = Parameters<Parameters<Db["$transaction"]>[0]>[0];
 
-async function noticeMentions(tx: Tx, member: Member, body: string, link: string, title: string): Promise<void> {
-  const handles = [...body.matchAll(/@([\w.\-]+)/g)].map((m) => m[1]!.toLowerCase());
-  if (!handles.length) return;
-  const members = await tx.membership.findMany({ where: { groupId: member.group.id }, include: { user: { select: { id: true, email: true, name: true } } } });
-  for (const m of members) {
-    const local = m.user.email.split("@")[0]!.toLowerCase();
-    const compact = m.user.name.replace(/\s+/g, "").toLowerCase();
-    if (m.user.id !== member.userId && (handles.includes(local) || handles.includes(compact)))
-      await tx.notice.create({ data: { userId: m.user.id, groupId: member.group.id, kind: "mention", message: `You were mentioned in a discussion on "${title}"`, link } });
-  }
+/** The @handles written in a comment body, lower-cased, each once, in order. */
+export function mentionedHandles(body: string): string[] {
+  return [...new Set([...body.matchAll(/(?:^|[^\w@.])@([A-Za-z0-9][\w.\-]*)/g)].map((m) => m[1]!.replace(/[.\-]+$/, "").toLowerCase()))];
 }
 
-export async function createThread(db: Db, member: Member, analysisId: string, input: unknown): Promise<{ threadId: string }> {
+/**
+ * Notify the members a comment mentions: by their handle in the group (members page), or as
+ * before by the e-mail's name part or the name without spaces. Returns the handles that match
+ * nobody, so the writer is told at once that they reached no one.
+ */
+async function noticeMentions(tx: Tx, member: Member, body: string, link: string, title: string): Promise<string[]> {
+  const handles = mentionedHandles(body);
+  if (!handles.length) return [];
+  const members = await tx.membership.findMany({ where: { groupId: member.group.id }, include: { user: { select: { id: true, email: true, name: true } } } });
+  const matched = new Set<string>();
+  for (const m of members) {
+    const names = [m.handle.toLowerCase(), m.user.email.split("@")[0]!.toLowerCase(), m.user.name.replace(/\s+/g, "").toLowerCase()];
+    const hit = handles.filter((h) => names.includes(h));
+    hit.forEach((h) => matched.add(h));
+    if (hit.length && m.user.id !== member.userId)
+      await tx.notice.create({ data: { userId: m.user.id, groupId: member.group.id, kind: "mention", message: `You were mentioned in a discussion on "${title}"`, link } });
+  }
+  return handles.filter((h) => !matched.has(h));
+}
+
+export async function createThread(db: Db, member: Member, analysisId: string, input: unknown): Promise<{ threadId: string; unmatchedMentions: string[] }> {
   authorise(member, "comment.write");
   const req = parseInput(newThreadSchema, input);
   const a = await analysisOf(db, member, analysisId);
@@ -96,9 +109,9 @@ export async function createThread(db: Db, member: Member, analysisId: string, i
       data: { groupId: member.group.id, analysisId: a.id, stepId: req.stepId, anchor: req.anchor ?? undefined, createdById: member.userId, comments: { create: { authorId: member.userId, body: req.body } } },
     });
     await recordAudit(tx, { groupId: member.group.id, actorId: member.userId, action: "thread.create", objectType: "thread", objectId: t.id, detail: { analysisId: a.id, stepId: req.stepId, anchored: !!req.anchor } });
-    await noticeMentions(tx, member, req.body, `/g/${member.group.slug}/analyses/${a.id}#thread-${t.id}`, a.title);
+    const unmatchedMentions = await noticeMentions(tx, member, req.body, `/g/${member.group.slug}/analyses/${a.id}#thread-${t.id}`, a.title);
     await notify(tx, { groupId: member.group.id, analysisId: a.id, ...(req.stepId ? { stepId: req.stepId } : {}), kind: "comment", actorId: member.userId });
-    return { threadId: t.id };
+    return { threadId: t.id, unmatchedMentions };
   });
 }
 
@@ -109,17 +122,18 @@ async function threadOf(db: Db, member: Member, analysisId: string, threadId: st
   return { a, t };
 }
 
-export async function replyToThread(db: Db, member: Member, analysisId: string, threadId: string, input: unknown): Promise<void> {
+export async function replyToThread(db: Db, member: Member, analysisId: string, threadId: string, input: unknown): Promise<{ unmatchedMentions: string[] }> {
   authorise(member, "comment.write");
   const { body } = parseInput(replySchema, input);
   const { a, t } = await threadOf(db, member, analysisId, threadId);
-  await db.$transaction(async (tx) => {
+  return db.$transaction(async (tx) => {
     const c = await tx.comment.create({ data: { threadId: t.id, authorId: member.userId, body } });
     await recordAudit(tx, { groupId: member.group.id, actorId: member.userId, action: "comment.create", objectType: "comment", objectId: c.id, detail: { threadId: t.id, analysisId: a.id } });
     const others = await tx.comment.findMany({ where: { threadId: t.id, authorId: { not: member.userId } }, select: { authorId: true }, distinct: ["authorId"] });
     for (const o of others) await tx.notice.create({ data: { userId: o.authorId, groupId: member.group.id, kind: "reply", message: `New reply in a discussion on "${a.title}"`, link: `/g/${member.group.slug}/analyses/${a.id}#thread-${t.id}` } });
-    await noticeMentions(tx, member, body, `/g/${member.group.slug}/analyses/${a.id}#thread-${t.id}`, a.title);
+    const unmatchedMentions = await noticeMentions(tx, member, body, `/g/${member.group.slug}/analyses/${a.id}#thread-${t.id}`, a.title);
     await notify(tx, { groupId: member.group.id, analysisId: a.id, kind: "comment", actorId: member.userId });
+    return { unmatchedMentions };
   });
 }
 

@@ -26,6 +26,7 @@ export { compareJson, type Comparison } from "./compare";
 export { diffRevisions, configChanges, type RevisionDiff, type StepDiff, type ResultMove, type FieldChange } from "./diff";
 export { stepResults, chainResults, type ResultValue } from "./results";
 export { awaitingMyReview, sentBackToMe, type QueueItem, type ReturnedItem } from "./queues";
+export { queueFigures, type QueueFigures } from "./queueFigures";
 export { listNotices, setNoticeRead, markAllNoticesRead, sendNotices, type NoticeView } from "./notices";
 export { reviewStatus, type ReviewStatus } from "./status";
 export { lockViolation, isLockViolation } from "./lockError";

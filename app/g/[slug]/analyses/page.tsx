@@ -22,6 +22,7 @@ export default async function AnalysesPage({ params, searchParams }: { params: P
   const [analyses, samples] = await Promise.all([listAnalyses(db, member, { archived, ...(sp.sample ? { sampleId: sp.sample } : {}) }), listSamples(db, member)]);
   const write = can(member.role, "analysis.write");
   const api = `${p.api}/analyses`;
+  const forSample = sp.sample ? samples.find((s) => s.id === sp.sample) ?? null : null;
   return (
     <>
       <h1>Analyses</h1>
@@ -33,9 +34,12 @@ export default async function AnalysesPage({ params, searchParams }: { params: P
         </section>
       )}
       <section className="sheet" aria-labelledby="list">
-        <h2 id="list">{archived ? "Archived analyses" : "Analyses of the group"}</h2>
-        <p className="small">{archived ? <Link href={`${p.home}/analyses`}>Show current analyses</Link> : <Link href={`${p.home}/analyses?archived=1`}>Show archived analyses</Link>}</p>
-        {analyses.length === 0 ? <p className="muted">No analyses {archived ? "archived" : "yet"}.</p> : (
+        <h2 id="list">{archived ? "Archived analyses" : forSample ? `Analyses of ${forSample.label}` : "Analyses of the group"}</h2>
+        <p className="small">
+          {forSample && <><Link href={`${p.home}/analyses`}>Show the whole group&apos;s analyses</Link> · </>}
+          {archived ? <Link href={`${p.home}/analyses`}>Show current analyses</Link> : <Link href={`${p.home}/analyses?archived=1`}>Show archived analyses</Link>}
+        </p>
+        {analyses.length === 0 ? <p className="muted">{archived ? "No archived analyses." : forSample ? `No analyses of ${forSample.label} yet.` : "No analyses yet."}</p> : (
           <div className="table-scroll">
             <table data-testid="analyses-list">
               <thead><tr><th>Title</th><th>Sample</th><th>Newest revision</th><th>Sealed</th><th>Changed</th>{write && <th><span className="sr-only">Actions</span></th>}</tr></thead>

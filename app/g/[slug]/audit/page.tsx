@@ -4,6 +4,7 @@ import { pageMember } from "@/app/_server/guard";
 import { listAuditEvents } from "@/lib/server/review";
 import { verifyAuditChain } from "@/lib/server/audit";
 import { can } from "@/lib/server/permissions";
+import { auditObjectNames, OBJECT_KIND_WORD } from "@/lib/server/auditNames";
 import { when } from "@/app/components/review/labels";
 import "@/app/components/review/review.css";
 
@@ -21,6 +22,7 @@ export default async function AuditPage({ params, searchParams }: { params: Prom
   if (!can(member.role, "audit.read")) return (<><h1>Audit trail</h1><p className="notice-info">Only the group&apos;s owners read the audit trail.</p></>);
   const beforeId = before && /^\d{1,19}$/.test(before) ? before : undefined;
   const [events, chain] = await Promise.all([listAuditEvents(db, member, { take: 100, ...(beforeId ? { before: beforeId } : {}) }), verifyAuditChain(db)]);
+  const names = await auditObjectNames(db, member, events);
   return (
     <>
       <h1>Audit trail</h1>
@@ -40,7 +42,13 @@ export default async function AuditPage({ params, searchParams }: { params: Prom
                 <td className="small">{when(e.at)}</td>
                 <td>{e.actorName ?? <span className="muted">system</span>}</td>
                 <td className="mono small">{e.action}</td>
-                <td className="small">{e.objectType} <span className="mono muted">{e.objectId.slice(0, 8)}</span></td>
+                <td className="small" data-testid="audit-object">
+                  {(() => {
+                    const n = names.get(`${e.objectType}:${e.objectId}`);
+                    if (!n) return <>{OBJECT_KIND_WORD[e.objectType] ?? "record"} <span className="muted">(no longer in the group)</span> <span className="mono muted" title={e.objectId}>{e.objectId.slice(0, 8)}</span></>;
+                    return n.href ? <Link href={n.href}>{n.label}</Link> : n.label;
+                  })()}
+                </td>
                 <td className="mono small">{short(e.beforeHash)} → {short(e.afterHash)}</td>
                 <td className="mono small" title={`previous ${e.prevHash}\nthis ${e.hash}`}>{short(e.hash)}</td>
               </tr>

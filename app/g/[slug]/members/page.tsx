@@ -38,12 +38,13 @@ export default async function MembersPage({ params }: { params: Promise<{ slug: 
         <h2 id="member-list">Members</h2>
         <table data-testid="members">
           <thead>
-            <tr><th>Name</th><th>E-mail</th><th>Role</th><th>Member since</th>{manage && <th><span className="muted">Actions</span></th>}</tr>
+            <tr><th>Name</th><th>Handle</th><th>E-mail</th><th>Role</th><th>Member since</th>{manage && <th><span className="muted">Actions</span></th>}</tr>
           </thead>
           <tbody>
             {members.map((m) => (
               <tr key={m.userId}>
                 <td>{m.name}{m.userId === member.userId && <span className="muted"> (you)</span>}</td>
+                <td className="mono" data-testid="member-handle">@{m.handle}</td>
                 <td>{m.email}</td>
                 <td>
                   {manage ? <MemberRoleSelect apiBase={p.api} userId={m.userId} name={m.name || m.email} role={m.role} /> : <span className="role">{m.role}</span>}

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { pageMember } from "@/app/_server/guard";
-import { awaitingMyReview, sentBackToMe } from "@/lib/server/review";
+import { awaitingMyReview, queueFigures, sentBackToMe, type QueueFigures } from "@/lib/server/review";
 import { can } from "@/lib/server/permissions";
 import { when } from "@/app/components/review/labels";
 import "@/app/components/review/review.css";
@@ -15,6 +15,7 @@ export default async function ReviewQueuesPage({ params }: { params: Promise<{ s
   const { db, user, member } = await pageMember(slug, `/g/${encodeURIComponent(slug)}/review`);
   const [awaiting, back] = await Promise.all([awaitingMyReview(db, user.id, member.group.id), sentBackToMe(db, user.id, member.group.id)]);
   const reviews = can(member.role, "analysis.review");
+  const figures = await queueFigures(db, [...awaiting, ...back]);
   return (
     <>
       <h1>Review</h1>
@@ -29,6 +30,7 @@ export default async function ReviewQueuesPage({ params }: { params: Promise<{ s
                 <li key={q.revisionId}>
                   <Link href={q.link}><strong>{q.title}</strong></Link> <span className="small muted">revision {q.number} · {q.sampleLabel}</span>
                   <div className="small">sent by {q.submittedBy ?? "—"}, {when(q.submittedAt)}</div>
+                  <Figures f={figures.get(q.revisionId)} />
                 </li>
               ))}
             </ul>
@@ -42,6 +44,7 @@ export default async function ReviewQueuesPage({ params }: { params: Promise<{ s
                 <li key={q.revisionId}>
                   <Link href={q.link}><strong>{q.title}</strong></Link> <span className="small muted">revision {q.number} · {q.sampleLabel}</span>
                   <div className="small">{q.returnedBy ?? "a reviewer"} asked for changes, {when(q.returnedAt)}</div>
+                  <Figures f={figures.get(q.revisionId)} />
                   {q.comment && <blockquote>{q.comment}</blockquote>}
                 </li>
               ))}
@@ -50,5 +53,20 @@ export default async function ReviewQueuesPage({ params }: { params: Promise<{ s
         </section>
       </div>
     </>
+  );
+}
+
+/** The revision's key numbers and its open threads, as a reviewer wants them before opening it. */
+function Figures({ f }: { f: QueueFigures | undefined }) {
+  if (!f) return null;
+  return (
+    <dl className="rv-figures small" data-testid="queue-figures">
+      {f.gamma && <><dt>γ</dt><dd>{f.gamma}</dd></>}
+      {f.beta && <><dt>β</dt><dd>{f.beta}</dd></>}
+      {f.thetaD && <><dt>Θ<sub>D</sub></dt><dd>{f.thetaD}</dd></>}
+      {f.model && <><dt>model</dt><dd>{f.model}</dd></>}
+      {f.window && <><dt>window</dt><dd>{f.window}</dd></>}
+      <dt>discussion</dt><dd>{f.openThreads === 0 ? "no open threads" : `${f.openThreads} open thread${f.openThreads === 1 ? "" : "s"}`}</dd>
+    </dl>
   );
 }

@@ -48,6 +48,7 @@ export default async function AnalysisPage({ params, searchParams }: { params: P
         measurements={choices}
         meId={user.id}
         members={Object.fromEntries(members.map((m) => [m.userId, m.name || m.email]))}
+        mentionables={members.map((m) => ({ handle: m.handle, name: m.name || m.email }))}
         canComment={can(member.role, "comment.write")}
         revisionId={revision ?? null}
       />

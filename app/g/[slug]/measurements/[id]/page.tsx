@@ -7,6 +7,7 @@ import { groupPaths } from "@/app/_lib/paths";
 import { Formula } from "@/app/components/Formula";
 import { fmtBytes, fmtDate, fmtNumber } from "@/app/_lib/format";
 import { MeasurementCharts } from "@/app/components/MeasurementCharts";
+import { reduceMeasurementForScreen } from "@/lib/charts/reduce";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Measurement" };
@@ -21,7 +22,9 @@ export default async function MeasurementPage({ params }: { params: Promise<{ sl
   const { db, member } = await pageMember(slug, p.measurement(id));
   const m = await orNotFound(() => getMeasurement(db, member, id));
   const sample = await orNotFound(() => getSample(db, member, m.sampleId));
-  const series = { temperatureK: m.temperatureK, heatCapacity: m.heatCapacity, sigma: m.sigma, sourceLines: m.sourceLines, basis: m.basis };
+  // A large curve is sent to the browser reduced per pixel column (its shape kept); fits and exports use every point.
+  const screen = reduceMeasurementForScreen({ temperatureK: m.temperatureK, heatCapacity: m.heatCapacity, sigma: m.sigma, sourceLines: m.sourceLines, basis: m.basis });
+  const sigmaPercent = (m.columnMapping as Record<string, number>).sigmaPercentOfC;
   return (
     <>
       <div className="crumbs">
@@ -32,7 +35,7 @@ export default async function MeasurementPage({ params }: { params: Promise<{ sl
         {m.kind === "addenda" ? "Addenda (empty platform and grease)" : "Sample measurement"} of {sample.label} (<Formula text={sample.formula} />),
         {" "}{m.pointCount} points from {fmtNumber(m.tMinK, 4)} K to {fmtNumber(m.tMaxK, 4)} K{m.fieldT ? ` in ${fmtNumber(m.fieldT, 4)} T` : " in zero field"}.
       </p>
-      <MeasurementCharts series={series} />
+      <MeasurementCharts series={screen.series} drawn={screen.drawn} total={screen.total} />
       <section className="sheet" aria-labelledby="meta">
         <h2 id="meta">Stored data</h2>
         <dl className="facts" data-testid="measurement-facts">
@@ -41,7 +44,7 @@ export default async function MeasurementPage({ params }: { params: Promise<{ sl
             {m.fileName} ({fmtBytes(m.sizeBytes)}) — <a href={`${p.api}/measurements/${m.id}/original`} download>download the original, byte for byte</a>
           </dd>
           <dt>SHA-256</dt><dd className="mono">{m.sha256}</dd>
-          <dt>Points</dt><dd>{m.pointCount}{m.sigma ? ", each with σ" : ", no σ column"}</dd>
+          <dt>Points</dt><dd>{m.pointCount}{sigmaPercent !== undefined ? `, each with σ = ${sigmaPercent} % of C (set at import)` : m.sigma ? ", each with σ" : ", no σ column"}</dd>
           <dt>Temperature range</dt><dd>{fmtNumber(m.tMinK, 5)} K – {fmtNumber(m.tMaxK, 5)} K</dd>
           <dt>Kind</dt><dd>{m.kind}</dd>
           <dt>Applied field</dt><dd>{fmtNumber(m.fieldT, 4)} T</dd>

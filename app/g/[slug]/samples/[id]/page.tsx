@@ -10,6 +10,7 @@ import { fmtDate, fmtNumber } from "@/app/_lib/format";
 import { SampleEditForm } from "@/app/components/SampleEditForm";
 import { ArchiveSampleButton } from "@/app/components/ArchiveSampleButton";
 import { ImportPanel } from "@/app/components/ImportPanel";
+import { MeasurementOverlay } from "@/app/components/MeasurementOverlay";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Sample" };
@@ -74,6 +75,7 @@ export default async function SamplePage({ params }: { params: Promise<{ slug: s
           )}
         </section>
       </div>
+      <MeasurementOverlay apiBase={p.api} choices={measurements.map((m) => ({ id: m.id, label: m.label, kind: m.kind, fieldT: m.fieldT, basis: m.basis, pointCount: m.pointCount, tMinK: m.tMinK, tMaxK: m.tMaxK }))} />
       {writeMeasurement && !sample.archived && (
         <section className="sheet" aria-labelledby="import">
           <h2 id="import">Import a C(T) file</h2>

@@ -10,8 +10,8 @@ type Ctx = { params: Promise<{ slug: string; id: string; threadId: string }> };
 export const POST = route(async (req, { params }: Ctx) => {
   const { slug, id, threadId } = await params;
   const { db, member } = await inGroup(req, slug);
-  await replyToThread(db, member, id, threadId, await jsonBody(req));
-  return NextResponse.json({ ok: true }, { status: 201 });
+  const { unmatchedMentions } = await replyToThread(db, member, id, threadId, await jsonBody(req));
+  return NextResponse.json({ ok: true, unmatchedMentions }, { status: 201 });
 });
 
 /** Resolve or reopen: {state: "resolved" | "open"}. */
