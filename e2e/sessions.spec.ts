@@ -37,6 +37,9 @@ test("sign out ends the session: the old cookie then gets 401 and the pages send
   const cookie = await sessionCookie(page);
   const device = (await page.context().cookies(`${baseURL}/api/auth/signin`)).find((c) => c.name.startsWith("hb-device-"));
   expect(device, "device cookie after a password sign-in").toMatchObject({ path: "/api/auth", httpOnly: true, sameSite: "Lax" });
+  // A settled page first: the menu of the page the sign-in redirected through may be replaced while it opens.
+  await page.goto("/account");
+  await expect(page.getByRole("heading", { name: "Account" })).toBeVisible();
   await page.getByTestId("user-menu").locator("summary").click();
   await page.getByRole("button", { name: "Sign out" }).click();
   await expect(page).toHaveURL(`${baseURL}/`);
