@@ -11,7 +11,7 @@ import { NextResponse, type NextRequest } from "next/server";
 import { newNonce, pageContentSecurityPolicy } from "./lib/server/csp";
 
 const SESSION_COOKIES = ["next-auth.session-token", "__Secure-next-auth.session-token"];
-const SIGNED_IN_ONLY = /^\/(groups|g)(\/|$)/;
+const SIGNED_IN_ONLY = /^\/(groups|g|account)(\/|$)/;
 
 function hasSessionCookie(req: NextRequest): boolean {
   return req.cookies.getAll().some((c) => SESSION_COOKIES.some((name) => c.name === name || c.name.startsWith(`${name}.`)));

@@ -10,6 +10,7 @@ const parts: Record<string, () => Promise<string>> = {
   notebook: async () => (await import("./notebook")).runNotebookBench(),
   browser: async () => (await import("./browser")).runBrowserBench(),
   cli: async () => (await import("./cli")).runCliBench(),
+  auth: async () => (await import("./authCost")).runAuthBench(),
 };
 
 const wanted = process.argv.slice(2).filter((a) => !a.startsWith("-"));

@@ -12,8 +12,8 @@ import { apiSignIn, DEMO } from "./helpers";
 /** viewer: the status a viewer gets when it is not the default (200 for reads, 403 for writes). */
 interface RouteCase { method: "GET" | "POST" | "PATCH" | "DELETE"; path: string; body?: unknown; multipart?: boolean; viewer?: number }
 
-/** Routes that are not group data: sign-in machinery, sign-up, the caller's own group list and creation, invitation acceptance by token, the load balancer's health check (tests/server/health.test.ts). */
-const NOT_GROUP_DATA = new Set(["/api/auth/[...nextauth]", "/api/signup", "/api/groups", "/api/invitations/[token]/accept", "/api/health"]);
+/** Routes that are not group data: sign-in machinery, sign-up, the caller's own group list and creation, invitation acceptance by token, the caller's own sessions (tests/server/auth-sessions.test.ts, e2e/sessions.spec.ts), the load balancer's health check (tests/server/health.test.ts). */
+const NOT_GROUP_DATA = new Set(["/api/auth/[...nextauth]", "/api/signup", "/api/groups", "/api/invitations/[token]/accept", "/api/account/sessions", "/api/account/sessions/end-all", "/api/health"]);
 
 function routeFiles(dir: string, prefix = ""): { route: string; methods: string[] }[] {
   const out: { route: string; methods: string[] }[] = [];
@@ -95,6 +95,7 @@ function cases(): RouteCase[] {
     { method: "GET", path: `${g}/tokens` },
     { method: "POST", path: `${g}/tokens`, body: { name: "viewer's script", scope: "read" }, viewer: 201 },
     { method: "DELETE", path: `${g}/tokens/${NO_SUCH_ID}`, viewer: 404 },
+    { method: "POST", path: `${g}/tokens/${NO_SUCH_ID}/renew`, body: {}, viewer: 404 },
     { method: "GET", path: `${g}/jobs` },
     { method: "POST", path: `${g}/jobs`, body: { kind: "refit-series", seriesId: ids.seriesId } },
     { method: "GET", path: `${g}/jobs/${NO_SUCH_ID}`, viewer: 404 },

@@ -5,7 +5,11 @@ import { useState, type FormEvent } from "react";
 import { callJson, errorFor, type ApiResult } from "@/app/_lib/api";
 import { FieldError, invalidProps } from "./FieldError";
 
-/** Sign-up (POST /api/signup), then sign in with the same credentials. Errors sit under the field the server names. */
+/**
+ * Sign-up (POST /api/signup), then sign in with the same credentials. The server answers alike
+ * for a new address and one that already has an account; if signing in then fails, the form
+ * says so without telling which it was. Errors sit under the field the server names.
+ */
 export function SignUpForm({ callbackUrl }: { callbackUrl: string }) {
   const router = useRouter();
   const [result, setResult] = useState<ApiResult<unknown> | null>(null);
@@ -16,17 +20,17 @@ export function SignUpForm({ callbackUrl }: { callbackUrl: string }) {
     const form = new FormData(e.currentTarget);
     const body = { name: String(form.get("name") ?? ""), email: String(form.get("email") ?? ""), password: String(form.get("password") ?? "") };
     setBusy(true);
-    const res = await callJson<{ user: unknown }>("/api/signup", "POST", body);
+    const res = await callJson<{ message: string }>("/api/signup", "POST", body);
     if (!res.ok) {
-      // An existing account (409) is about the e-mail field even though the server names none.
-      setResult(res.status === 409 && !res.field ? { ...res, field: "email" } : res);
+      setResult(res);
       setBusy(false);
       return;
     }
     const login = await signIn("password", { email: body.email, password: body.password, redirect: false });
     if (!login || login.error) {
       setBusy(false);
-      setResult({ ...res, ok: false, error: `account created, but signing in failed: ${login?.error ?? "no answer"}`, field: null });
+      const why = login?.error && login.error !== "CredentialsSignin" ? ` (${login.error})` : "";
+      setResult({ ...res, ok: false, error: `Signing in with this address and password did not work${why}. If the address already had an account, sign in with its own password.`, field: null });
       return;
     }
     router.push(callbackUrl);
@@ -50,7 +54,7 @@ export function SignUpForm({ callbackUrl }: { callbackUrl: string }) {
       <div className="field">
         <label htmlFor="signup-password">Password</label>
         <input id="signup-password" name="password" type="password" autoComplete="new-password" required aria-describedby="signup-password-hint" {...invalidProps("signup-password", err("password"))} />
-        <span className="hint" id="signup-password-hint">At least 10 characters.</span>
+        <span className="hint" id="signup-password-hint">At least 12 characters; common passwords are refused.</span>
         <FieldError id="signup-password-error" message={err("password")} />
       </div>
       {general && <p className="form-error" role="alert">{general}</p>}

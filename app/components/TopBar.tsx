@@ -30,6 +30,7 @@ export async function TopBar() {
               <div className="usermenu-panel">
                 <p className="who small">Signed in as {user.email}</p>
                 <Link href="/groups">My groups</Link>
+                <Link href="/account">Account and sessions</Link>
                 <SignOutButton />
               </div>
             </details>

@@ -2,7 +2,8 @@
 import { z } from "zod";
 import { randomBytes } from "node:crypto";
 import type { Db } from "./db/client";
-import { ConflictError, InputError, NotFoundError } from "../engine/errors";
+import { ConflictError, ForbiddenError, InputError, NotFoundError } from "../engine/errors";
+import { normaliseEmail } from "./users";
 import { recordAudit } from "./audit";
 import { authorise, type GroupInfo, type Member } from "./access";
 import { ROLES, type Role } from "./permissions";
@@ -129,16 +130,28 @@ export async function previewInvitation(db: Db, token: string): Promise<Invitati
   return { groupName: inv.group.name, role: inv.role, email: inv.email, usable: !why, ...(why ? { why } : {}) };
 }
 
-/** Accept with the signed-in account (any e-mail: the link is the credential). */
-export async function acceptInvitation(db: Db, userId: string, token: string): Promise<GroupInfo> {
+/**
+ * Accept with the signed-in account. Only the account whose e-mail is the invited address may
+ * (403 for any other: holding the link is not enough). The invitation is used up by the same
+ * transaction that adds the membership, with a conditional UPDATE (not accepted, not revoked,
+ * not expired): of two parallel accepts one wins, the other gets 409.
+ */
+export async function acceptInvitation(db: Db, user: { id: string; email: string }, token: string): Promise<GroupInfo> {
   const inv = await findInvitation(db, token);
   if (!inv) throw new NotFoundError("invitation");
-  if (inv.acceptedAt || inv.revokedAt || inv.expiresAt < new Date()) throw new ConflictError("this invitation can no longer be used");
+  if (normaliseEmail(inv.email) !== normaliseEmail(user.email)) {
+    throw new ForbiddenError(`this invitation was sent to another address: sign in with ${inv.email} to accept it, or ask the group owner to invite ${user.email}`);
+  }
   return db.$transaction(async (tx) => {
-    const existing = await tx.membership.findUnique({ where: { userId_groupId: { userId, groupId: inv.groupId } } });
-    if (!existing) await tx.membership.create({ data: { userId, groupId: inv.groupId, role: inv.role } });
-    await tx.invitation.update({ where: { id: inv.id }, data: { acceptedAt: new Date(), acceptedById: userId } });
-    await recordAudit(tx, { groupId: inv.groupId, actorId: userId, action: "member.join", objectType: "membership", objectId: userId, detail: { role: inv.role } });
+    const now = new Date();
+    const used = await tx.invitation.updateMany({
+      where: { id: inv.id, acceptedAt: null, revokedAt: null, expiresAt: { gt: now } },
+      data: { acceptedAt: now, acceptedById: user.id },
+    });
+    if (used.count !== 1) throw new ConflictError("this invitation can no longer be used");
+    const existing = await tx.membership.findUnique({ where: { userId_groupId: { userId: user.id, groupId: inv.groupId } } });
+    if (!existing) await tx.membership.create({ data: { userId: user.id, groupId: inv.groupId, role: inv.role } });
+    await recordAudit(tx, { groupId: inv.groupId, actorId: user.id, action: "member.join", objectType: "membership", objectId: user.id, detail: { role: inv.role } });
     const g = inv.group;
     return { id: g.id, slug: g.slug, name: g.name, allowSelfApproval: g.allowSelfApproval };
   });

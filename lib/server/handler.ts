@@ -3,7 +3,8 @@
  * route's slug, multipart file reading with a size cap, and the same-origin check on writes.
  */
 import { getDb, sqlRows, type Db } from "./db/client";
-import { requireUser, sessionUserId } from "./session";
+import { requireUser, sessionClaims } from "./session";
+import { liveSessionSql } from "./auth/sessions";
 import { groupWhere, type Member } from "./access";
 import type { Role } from "./permissions";
 import { uuidOrNone } from "./ids";
@@ -48,24 +49,38 @@ export type GroupScopedSql = (group: string, param: (k: number) => string) => st
 type MemberRow = { role: Role; id: string; slug: string; name: string; allowSelfApproval: boolean; email: string; userName: string };
 
 /**
+ * The text of inGroupWith's one statement: $1 the user, $2 the group's id (byId) or slug, $3–$6
+ * the session (liveSessionSql), $7… the extra's parameters. Columns: live (the session is live
+ * and the user's), member (JSON or NULL), extra.
+ */
+export function memberStatement(byId: boolean, extra?: GroupScopedSql): string {
+  const live = liveSessionSql(3);
+  return `WITH ${live.sql},
+    mem AS (
+      SELECT m."role"::text AS "role", g."id"::text AS "id", g."slug", g."name", g."allowSelfApproval", u."email", u."name" AS "userName"
+      FROM "Membership" m JOIN "Group" g ON g."id" = m."groupId" JOIN "User" u ON u."id" = m."userId"
+      WHERE m."userId" = $1::uuid AND m."userId" = (SELECT "userId" FROM sess) AND ${byId ? `g."id" = $2::uuid` : `g."slug" = $2`})
+    SELECT EXISTS (SELECT 1 FROM sess WHERE "userId" = $1::uuid) AS "live", (SELECT row_to_json(mem)::text FROM mem) AS "member"${extra ? `, (${extra(`(SELECT "id"::uuid FROM mem)`, (k) => `$${k + 7}`)}) AS "extra"` : ""}`;
+}
+
+/**
  * The signed-in user and their membership of the route's group, with the user row, in one
  * statement — and, if `extra` is given, the value it reads, in that same statement (one round
- * trip: on this path a query's cost is mostly the round trip). No membership: 401 if the user
- * no longer exists, else 404. Bare pg on the client's pool: every request runs this.
+ * trip: on this path a query's cost is mostly the round trip). The same statement checks the
+ * session row (lib/server/auth/sessions.ts): ended, idle or expired → 401. No membership: 401
+ * if the user no longer exists, else 404. Bare pg on the client's pool: every request runs this.
  */
 export async function inGroupWith(req: Request, slug: string, extra?: { sql: GroupScopedSql; values: readonly unknown[] }): Promise<GroupContext & { extra: string | null }> {
   if (req.method !== "GET" && req.method !== "HEAD") assertSameOrigin(req);
-  const userId = await sessionUserId();
-  if (!userId) throw new UnauthenticatedError();
+  const claims = await sessionClaims();
+  if (!claims) throw new UnauthenticatedError();
+  const userId = claims.uid;
   const db = getDb();
   const where = groupWhere(slug);
-  const text = `WITH mem AS (
-      SELECT m."role"::text AS "role", g."id"::text AS "id", g."slug", g."name", g."allowSelfApproval", u."email", u."name" AS "userName"
-      FROM "Membership" m JOIN "Group" g ON g."id" = m."groupId" JOIN "User" u ON u."id" = m."userId"
-      WHERE m."userId" = $1::uuid AND ${"id" in where ? `g."id" = $2::uuid` : `g."slug" = $2`})
-    SELECT (SELECT row_to_json(mem)::text FROM mem) AS "member"${extra ? `, (${extra.sql(`(SELECT "id"::uuid FROM mem)`, (k) => `$${k + 3}`)}) AS "extra"` : ""}`;
-  const [row] = await sqlRows<{ member: string | null; extra?: string | null }>(db, text, [uuidOrNone(userId), "id" in where ? where.id : where.slug, ...(extra?.values ?? [])]);
-  const m = row?.member ? (JSON.parse(row.member) as MemberRow) : null;
+  const text = memberStatement("id" in where, extra?.sql);
+  const [row] = await sqlRows<{ live: boolean; member: string | null; extra?: string | null }>(db, text, [uuidOrNone(userId), "id" in where ? where.id : where.slug, ...liveSessionSql(3).values(claims.sid), ...(extra?.values ?? [])]);
+  if (!row?.live) throw new UnauthenticatedError();
+  const m = row.member ? (JSON.parse(row.member) as MemberRow) : null;
   if (!m) {
     if (!(await db.user.findUnique({ where: { id: uuidOrNone(userId) }, select: { id: true } }))) throw new UnauthenticatedError();
     throw new NotFoundError("group");

@@ -7,12 +7,18 @@
  * token that a route handler or server component cannot even send back (in the App Router only
  * /api/auth/session refreshes the cookie). A decoded token is remembered by its exact text
  * until its own expiry: the text is unforgeable, so a hit is as good as a fresh decryption.
+ *
+ * The token names a server-side session (`sid`, lib/server/auth/sessions.ts); the session row is
+ * checked on EVERY request, so sign-out, "sign out everywhere" and the idle and absolute limits
+ * take effect at once. Routes of a group fold that check into their membership statement
+ * (inGroupWith); everything else calls sessionUserId, one statement.
  */
 import { cookies } from "next/headers";
 import { decode } from "next-auth/jwt";
 import { getDb } from "./db/client";
 import { UnauthenticatedError } from "../engine/errors";
 import type { UserInfo } from "./users";
+import { liveSessionUser, liveSessionUserRow } from "./auth/sessions";
 
 /** next-auth's cookie name: with the __Secure- prefix when the public URL is https. */
 function sessionCookieName(): string {
@@ -20,7 +26,17 @@ function sessionCookieName(): string {
 }
 
 const TOKEN_CACHE_SIZE = 2000;
-const decoded = new Map<string, { uid: string | null; expMs: number; via: string | null; authAtMs: number | null }>();
+const decoded = new Map<string, { claims: SessionClaims | null; expMs: number }>();
+
+/** What the cookie says: the user, the server-side session it belongs to, and how and when they signed in. */
+export interface SessionClaims {
+  uid: string;
+  sid: string;
+  /** "password" or "institution" (OpenID Connect); null for tokens that do not say. */
+  via: string | null;
+  /** When the sign-in happened (ms since the epoch), if the token says. */
+  authAtMs: number | null;
+}
 
 /** The session token of the request: the cookie, or its chunks name.0, name.1, … joined in order. */
 async function sessionToken(): Promise<string | null> {
@@ -33,13 +49,17 @@ async function sessionToken(): Promise<string | null> {
   return chunks.sort((a, b) => Number(a.name.slice(name.length + 1)) - Number(b.name.slice(name.length + 1))).map((c) => c.value).join("");
 }
 
-/** The request's decoded session: user id, how they signed in ("password", "institution") and when. */
-async function sessionClaims(): Promise<{ uid: string | null; via: string | null; authAtMs: number | null } | null> {
+/**
+ * The claims of the request's session cookie, or null (no cookie, bad or expired token, or a
+ * token from before server-side sessions). NOT a check of the session row: callers must check
+ * it (sessionUserId, or inGroupWith's statement).
+ */
+export async function sessionClaims(): Promise<SessionClaims | null> {
   const token = await sessionToken();
   if (!token) return null;
   const now = Date.now();
   const hit = decoded.get(token);
-  if (hit && hit.expMs > now) return hit;
+  if (hit && hit.expMs > now) return hit.claims;
   const secret = process.env.NEXTAUTH_SECRET ?? process.env.AUTH_SECRET;
   if (!secret) return null;
   let payload: Awaited<ReturnType<typeof decode>>;
@@ -48,18 +68,22 @@ async function sessionClaims(): Promise<{ uid: string | null; via: string | null
   } catch {
     return null;
   }
-  const uid = typeof payload?.uid === "string" ? payload.uid : null;
+  const claims = typeof payload?.uid === "string" && typeof payload.sid === "string"
+    ? { uid: payload.uid, sid: payload.sid, via: typeof payload.via === "string" ? payload.via : null, authAtMs: typeof payload.authAt === "number" ? payload.authAt * 1000 : null }
+    : null;
   const exp = typeof payload?.exp === "number" ? payload.exp * 1000 : now;
-  const claims = { uid, expMs: exp, via: typeof payload?.via === "string" ? payload.via : null, authAtMs: typeof payload?.authAt === "number" ? payload.authAt * 1000 : null };
   decoded.delete(token);
-  decoded.set(token, claims);
+  decoded.set(token, { claims, expMs: exp });
   while (decoded.size > TOKEN_CACHE_SIZE) decoded.delete(decoded.keys().next().value!);
   return claims;
 }
 
-/** The user id in the request's session, or null (no cookie, bad or expired token). */
+/** The user id of the request's live session, or null (no cookie, bad token, session ended or expired). */
 export async function sessionUserId(): Promise<string | null> {
-  return (await sessionClaims())?.uid ?? null;
+  const claims = await sessionClaims();
+  if (!claims) return null;
+  const uid = await liveSessionUser(getDb(), claims.sid);
+  return uid === claims.uid ? uid : null;
 }
 
 /** When the session's institutional (OpenID Connect) sign-in happened; null for other sessions. */
@@ -68,11 +92,12 @@ export async function institutionSignInAt(): Promise<Date | null> {
   return c?.via === "institution" && c.authAtMs !== null ? new Date(c.authAtMs) : null;
 }
 
+/** The signed-in user (live session and user row in one statement), or null. */
 export async function currentUser(): Promise<UserInfo | null> {
-  const id = await sessionUserId();
-  if (!id) return null;
-  const user = await getDb().user.findUnique({ where: { id }, select: { id: true, email: true, name: true } });
-  return user ?? null;
+  const claims = await sessionClaims();
+  if (!claims) return null;
+  const user = await liveSessionUserRow(getDb(), claims.sid);
+  return user && user.id === claims.uid ? user : null;
 }
 
 export async function requireUser(): Promise<UserInfo> {

@@ -8,7 +8,7 @@ import { makeAnalysis } from "../server/apiFixtures";
 import { createSample } from "../../lib/server/samples";
 import { createToken } from "../../lib/server/tokens";
 import { createSeries } from "../../lib/server/series";
-import { setApiLimiter, TokenBucketLimiter } from "../../lib/server/api";
+import { setApiLimiter, PgTokenBucketLimiter } from "../../lib/server/api";
 import * as sampleMeasurements from "../../app/api/v1/samples/[id]/measurements/route";
 import * as seriesOne from "../../app/api/v1/series/[id]/route";
 import * as analysisOne from "../../app/api/v1/analyses/[id]/route";
@@ -75,7 +75,7 @@ describe("heatbook push and pull against the v1 route handlers (integration)", (
   beforeAll(async () => {
     t = await freshDatabase();
     process.env.DATABASE_URL = t.url;
-    setApiLimiter(new TokenBucketLimiter({ capacity: 1000, refillPerSecond: 1000 }));
+    setApiLimiter(new PgTokenBucketLimiter(t.db, { capacity: 1000, refillPerSecond: 1000 }));
     A = await makeGroup(t.db, "CLI group");
     token = (await createToken(t.db, A.members.analyst, { name: "cli", scope: "read_write" })).token;
   });

@@ -1,9 +1,8 @@
 /**
- * Sign-in throttling and upload limits through the real code paths: authenticate() refuses
- * after 5 failed attempts for an e-mail within 15 minutes even with the right password (the
- * throttle counts in PostgreSQL, so it holds across app instances); the import routes refuse
- * a file over MAX_UPLOAD_BYTES (20 MiB) with 413 naming the field "file" — declared by
- * Content-Length or not — and store nothing (tests/security/requests.test.ts: bodies counted as they arrive).
+ * Upload limits through the real code paths (sign-in throttling: tests/server/auth-signin.test.ts):
+ * the import routes refuse a file over MAX_UPLOAD_BYTES (20 MiB) with 413 naming the field
+ * "file" — declared by Content-Length or not — and store nothing (tests/security/requests.test.ts:
+ * bodies counted as they arrive).
  */
 import { describe, it, expect, beforeAll, afterAll, vi } from "vitest";
 import { freshDatabase, type TestDatabase } from "../helpers/db";
@@ -13,8 +12,6 @@ import { createSample } from "../../lib/server/samples";
 const session = vi.hoisted(() => ({ userId: null as string | null }));
 vi.mock("next/headers", async () => (await import("../helpers/session")).headersFor(session));
 
-import { authenticate, signUp } from "../../lib/server/users";
-import { THROTTLE } from "../../lib/server/auth/throttle";
 import { MAX_UPLOAD_BYTES } from "../../lib/server/measurements";
 import * as measurements from "../../app/api/groups/[slug]/samples/[id]/measurements/route";
 import * as imports from "../../app/api/groups/[slug]/samples/[id]/imports/route";
@@ -32,25 +29,6 @@ beforeAll(async () => {
   session.userId = g.members.analyst.userId;
 });
 afterAll(async () => t.drop());
-
-describe("authenticate() throttling", () => {
-  it("authenticate refuses the right password after 5 wrong ones for the same e-mail", async () => {
-    await signUp(t.db, { email: "throttle@example.org", name: "T", password: "a-long-enough-password" });
-    for (let i = 0; i < THROTTLE.perEmail; i++) expect((await authenticate(t.db, "throttle@example.org", "wrong-password", `10.0.0.${i}`)).ok).toBe(false);
-    const outcome = await authenticate(t.db, "Throttle@Example.org", "a-long-enough-password", "10.0.0.99");
-    expect(outcome).toEqual({ ok: false, reason: "throttled" });
-  });
-
-  it("authenticate of another e-mail from the same address is not throttled by it", async () => {
-    await signUp(t.db, { email: "other@example.org", name: "O", password: "a-long-enough-password" });
-    expect((await authenticate(t.db, "other@example.org", "a-long-enough-password", "10.0.0.1")).ok).toBe(true);
-  });
-
-  it("authenticate refuses every e-mail from one address after 30 failures from it", async () => {
-    for (let i = 0; i < THROTTLE.perIp; i++) await authenticate(t.db, `nobody-${i}@example.org`, "x", "192.0.2.7");
-    expect(await authenticate(t.db, "other@example.org", "a-long-enough-password", "192.0.2.7")).toEqual({ ok: false, reason: "throttled" });
-  });
-});
 
 function bigForm(bytes: number): FormData {
   const form = new FormData();

@@ -6,7 +6,7 @@ import { makeAnalysis } from "./apiFixtures";
 import { call } from "./apiHelpers";
 import { createSample } from "../../lib/server/samples";
 import { createToken } from "../../lib/server/tokens";
-import { setApiLimiter, TokenBucketLimiter } from "../../lib/server/api";
+import { setApiLimiter, PgTokenBucketLimiter } from "../../lib/server/api";
 import { addSeriesMembers, createSeries, latexFormula, latexNumber, latexText, removeSeriesMember, seriesCsv, seriesLatex, seriesView, updateSeries } from "../../lib/server/series";
 import { formatValue } from "../../lib/display";
 import { fitTrend } from "../../lib/engine/series";
@@ -40,7 +40,7 @@ beforeAll(async () => {
   await addSeriesMembers(t.db, A.members.analyst, seriesId, { sampleIds: ids.slice(3) });
 });
 afterAll(() => t.drop());
-beforeEach(() => setApiLimiter(new TokenBucketLimiter({ capacity: 1000, refillPerSecond: 1000 })));
+beforeEach(() => setApiLimiter(new PgTokenBucketLimiter(t.db, { capacity: 1000, refillPerSecond: 1000 })));
 
 describe("series records", () => {
   it("createSeries refuses a viewer, a duplicate name and another group's sample", async () => {

@@ -2,7 +2,7 @@ import { describe, it, expect, beforeAll, afterAll, beforeEach } from "vitest";
 import { freshDatabase, type TestDatabase } from "../helpers/db";
 import { makeGroup, type GroupFixture } from "./fixtures";
 import { createToken, revokeToken } from "../../lib/server/tokens";
-import { setApiLimiter, TokenBucketLimiter } from "../../lib/server/api";
+import { setApiLimiter, PgTokenBucketLimiter } from "../../lib/server/api";
 import { createSample } from "../../lib/server/samples";
 import { call } from "./apiHelpers";
 import * as samples from "../../app/api/v1/samples/route";
@@ -26,7 +26,7 @@ beforeAll(async () => {
   tok.b = (await createToken(t.db, B.members.owner, { name: "b", scope: "read_write" })).token;
 });
 afterAll(() => t.drop());
-beforeEach(() => setApiLimiter(new TokenBucketLimiter({ capacity: 1000, refillPerSecond: 1000 })));
+beforeEach(() => setApiLimiter(new PgTokenBucketLimiter(t.db, { capacity: 1000, refillPerSecond: 1000 })));
 
 const CU = { label: "Cu ref", formula: "Cu", massMg: 12.5, densityGPerCm3: 8.96 };
 
@@ -134,7 +134,7 @@ describe("v1 pagination", () => {
 
 describe("v1 rate limit", () => {
   it("the third request within a burst of 2 answers 429 with Retry-After", async () => {
-    setApiLimiter(new TokenBucketLimiter({ capacity: 2, refillPerSecond: 0.5 }));
+    setApiLimiter(new PgTokenBucketLimiter(t.db, { capacity: 2, refillPerSecond: 0.5 }));
     expect((await call(samples.GET, "/samples", { token: tok.read })).status).toBe(200);
     expect((await call(samples.GET, "/samples", { token: tok.read })).status).toBe(200);
     const r = await call(samples.GET, "/samples", { token: tok.read });
@@ -143,15 +143,15 @@ describe("v1 rate limit", () => {
     expect(r.body.error).toMatch(/rate limit/);
     expect((await call(samples.GET, "/samples", { token: tok.b })).status).toBe(200);
   });
-  it("TokenBucketLimiter refills at its rate", () => {
-    let now = 0;
-    const l = new TokenBucketLimiter({ capacity: 1, refillPerSecond: 2 }, () => now);
-    expect(l.take("k").allowed).toBe(true);
-    expect(l.take("k").allowed).toBe(false);
-    now = 499;
-    expect(l.take("k").allowed).toBe(false);
-    now = 1000;
-    expect(l.take("k").allowed).toBe(true);
+  it("PgTokenBucketLimiter refills at its rate", async () => {
+    let now = Date.UTC(2026, 11, 4, 12, 0, 0);
+    const l = new PgTokenBucketLimiter(t.db, { capacity: 1, refillPerSecond: 2 }, () => now);
+    expect((await l.take("refill-k")).allowed).toBe(true);
+    expect((await l.take("refill-k")).allowed).toBe(false);
+    now += 499;
+    expect((await l.take("refill-k")).allowed).toBe(false);
+    now += 501;
+    expect((await l.take("refill-k")).allowed).toBe(true);
   });
 });
 

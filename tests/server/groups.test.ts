@@ -5,6 +5,7 @@ import { makeGroup, makeUser } from "./fixtures";
 import { acceptInvitation, changeRole, inviteMember, listMembers, previewInvitation, removeMember, listMyGroups } from "../../lib/server/groups";
 import { memberOf } from "../../lib/server/access";
 import { verifyAuditChain } from "../../lib/server/audit";
+import { ConflictError, ForbiddenError, NotFoundError } from "../../lib/engine/errors";
 
 let t: TestDatabase;
 beforeAll(async () => { t = await freshDatabase(); });
@@ -16,10 +17,33 @@ describe("groups", () => {
     const invitee = await makeUser(t.db, "invitee");
     const { token } = await inviteMember(t.db, g.members.owner, { email: invitee.email, role: "reviewer" });
     expect((await previewInvitation(t.db, token)).usable).toBe(true);
-    await acceptInvitation(t.db, invitee.id, token);
+    await acceptInvitation(t.db, invitee, token);
     expect((await memberOf(t.db, invitee.id, g.slug)).role).toBe("reviewer");
     expect((await previewInvitation(t.db, token)).why).toBe("already accepted");
-    await expect(acceptInvitation(t.db, invitee.id, token)).rejects.toThrow(/no longer be used/);
+    await expect(acceptInvitation(t.db, invitee, token)).rejects.toThrow(/no longer be used/);
+  });
+
+  it("acceptInvitation by a signed-in account of another address is refused and leaves the invitation usable", async () => {
+    const g = await makeGroup(t.db);
+    const invitee = await makeUser(t.db, "invitee");
+    const holder = await makeUser(t.db, "link-holder");
+    const { token } = await inviteMember(t.db, g.members.owner, { email: invitee.email, role: "analyst" });
+    await expect(acceptInvitation(t.db, holder, token)).rejects.toMatchObject({ constructor: ForbiddenError, message: expect.stringContaining(`sign in with ${invitee.email}`) });
+    await expect(memberOf(t.db, holder.id, g.slug)).rejects.toThrow(NotFoundError);
+    expect((await previewInvitation(t.db, token)).usable).toBe(true);
+    await acceptInvitation(t.db, { id: invitee.id, email: invitee.email.toUpperCase() }, token);
+    expect((await memberOf(t.db, invitee.id, g.slug)).role).toBe("analyst");
+  });
+
+  it("acceptInvitation twice in parallel: one accept wins, the other is refused, one membership and one join row", async () => {
+    const g = await makeGroup(t.db);
+    const invitee = await makeUser(t.db, "racer");
+    const { token } = await inviteMember(t.db, g.members.owner, { email: invitee.email, role: "viewer" });
+    const results = await Promise.allSettled([acceptInvitation(t.db, invitee, token), acceptInvitation(t.db, invitee, token), acceptInvitation(t.db, invitee, token)]);
+    expect(results.filter((r) => r.status === "fulfilled")).toHaveLength(1);
+    for (const r of results.filter((r) => r.status === "rejected")) expect((r as PromiseRejectedResult).reason).toBeInstanceOf(ConflictError);
+    expect(await t.db.membership.count({ where: { userId: invitee.id, groupId: g.groupId } })).toBe(1);
+    expect(await t.db.auditEvent.count({ where: { action: "member.join", objectId: invitee.id } })).toBe(1);
   });
 
   it("inviteMember by a non-owner is refused", async () => {

@@ -67,11 +67,11 @@ describe("password-set links", () => {
     expect((await describePasswordLink(t.db, token)).state).toBe("valid");
     const first = await use(token, "a-new-password-1");
     expect(first).toMatchObject({ status: 200, body: { email: u.email } });
-    expect((await authenticate(t.db, u.email, "a-new-password-1", "")).ok).toBe(true);
+    expect((await authenticate(t.db, u.email, "a-new-password-1")).ok).toBe(true);
     const second = await use(token, "another-password-2");
     expect(second.status).toBe(409);
     expect(second.body.error).toMatch(/already used/);
-    expect((await authenticate(t.db, u.email, "another-password-2", "")).ok).toBe(false);
+    expect((await authenticate(t.db, u.email, "another-password-2")).ok).toBe(false);
     expect((await describePasswordLink(t.db, token)).state).toBe("used");
     const audit = await t.db.auditEvent.findMany({ where: { objectId: u.id }, orderBy: { id: "asc" } });
     expect(audit.map((e) => e.action)).toEqual(["user.password-link.issue", "user.password-set"]);

@@ -14,7 +14,7 @@ import { SIGN } from "./fixtures";
 import { fullChain, makeAnalysis, makeReviewFixture, writeSteps, type ReviewFixture } from "./reviewFixtures";
 import { reviewTransition, verifyRevision, verifySealedRevisions, type RevisionSnapshot } from "../../lib/server/review";
 import { createSeries, seriesCsv, seriesView } from "../../lib/server/series";
-import { getApiAnalysis, setApiLimiter, TokenBucketLimiter } from "../../lib/server/api";
+import { getApiAnalysis, setApiLimiter, PgTokenBucketLimiter } from "../../lib/server/api";
 import { createToken } from "../../lib/server/tokens";
 import { exportGroup, restoreGroup } from "../../lib/server/backup";
 import { updateSample } from "../../lib/server/samples";
@@ -78,7 +78,7 @@ const fitGamma = (output: any) => output.result.fit.parameters.find((p: any) => 
 beforeAll(async () => {
   t = await freshDatabase();
   process.env.DATABASE_URL = t.url;
-  setApiLimiter(new TokenBucketLimiter({ capacity: 1000, refillPerSecond: 1000 }));
+  setApiLimiter(new PgTokenBucketLimiter(t.db, { capacity: 1000, refillPerSecond: 1000 }));
   f = await makeReviewFixture(t.db);
   r = await makeAnalysis(t.db, f, f.sampleId, f.measurementId, "tamper target");
   await writeSteps(t.db, f.groupId, f.sampleId, r.revisionId, fullChain(f.measurementId));

@@ -6,8 +6,9 @@ import { assertSameOrigin } from "@/lib/server/handler";
 
 export const dynamic = "force-dynamic";
 
+/** Sign up {email, name, password}. The same 202 answer whether or not the address had an account (lib/server/users.ts). */
 export const POST = route(async (req) => {
   assertSameOrigin(req);
-  const user = await signUp(getDb(), await jsonBody(req));
-  return NextResponse.json({ user }, { status: 201 });
+  const answer = await signUp(getDb(), await jsonBody(req));
+  return NextResponse.json(answer, { status: 202 });
 });

@@ -9,7 +9,7 @@ import { AcceptInvitationButton } from "@/app/components/AcceptInvitationButton"
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Invitation" };
 
-/** An invitation link: which group and role; sign in or sign up first (the token rides along), then accept. */
+/** An invitation link: which group and role; sign in or sign up first (the token rides along), then accept — only with the invited address. */
 export default async function InvitePage({ params }: { params: Promise<{ token: string }> }) {
   const { token } = await params;
   const invite = await orNotFound(() => previewInvitation(getDb(), token));
@@ -35,11 +35,15 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
             <Link className="button quiet" href={`/signup?callbackUrl=${back}`}>Create an account</Link>
           </div>
         </>
+      ) : user.email.toLowerCase() !== invite.email.toLowerCase() ? (
+        <p className="form-error" role="alert">
+          You are signed in as <strong>{user.email}</strong>, but this invitation was sent to <strong>{invite.email}</strong>. Only that
+          address can accept it: sign out and sign in with it (or create an account with it), or ask the group owner to invite {user.email}.
+        </p>
       ) : (
         <>
           <p>
             You are signed in as <strong>{user.email}</strong>.
-            {user.email.toLowerCase() !== invite.email.toLowerCase() && " The invitation was sent to another address; the link itself is what counts."}
           </p>
           <AcceptInvitationButton token={token} />
         </>

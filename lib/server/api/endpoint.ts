@@ -94,7 +94,7 @@ export function v1<S extends EndpointSpec>(spec: S, handler: (ctx: V1Context<S>)
     try {
       const db = getDb();
       const principal = await authenticateToken(db, bearer(req));
-      const take = apiLimiter().take(principal.tokenId);
+      const take = await apiLimiter(db).take(principal.tokenId);
       if (!take.allowed) throw new RateLimited(take);
       if (spec.access === "write" && principal.scope !== "read_write") throw new ForbiddenError("this API token is read-only: create a read_write token to change data");
       authorise(principal.member, spec.action);

@@ -1,15 +1,18 @@
 /**
- * Per-token rate limit for /api/v1: a token bucket kept IN MEMORY, PER PROCESS.
+ * Per-token rate limit for /api/v1: a token bucket kept in PostgreSQL, so it holds across every
+ * app instance (N instances allow the same rate as one) and survives restarts.
  *
  * Each token has a bucket of `capacity` requests that refills at `refillPerSecond`; a request
  * takes one, and an empty bucket answers 429 with Retry-After (seconds until one is back).
- * Consequence of keeping it in memory: with N app instances behind a load balancer a token may
- * make up to N× the rate, and a restart refills every bucket. That is the intended trade-off
- * (no database write per request); a strict cluster-wide limit would move the bucket into a
- * PostgreSQL row updated with one `UPDATE … RETURNING` per request.
+ * One statement per request: an INSERT … ON CONFLICT DO UPDATE on the token's row computes the
+ * refill, takes a request if there is one, and returns the result; PostgreSQL's row lock makes
+ * parallel requests (from any instance) take turns, so the bucket is never overdrawn. The time
+ * is the database's clock (`clock_timestamp()`), one clock for all instances.
  * Defaults: 120 requests burst, 2 per second sustained; HEATBOOK_API_BURST and
- * HEATBOOK_API_RATE_PER_MINUTE override them.
+ * HEATBOOK_API_RATE_PER_MINUTE override them. README "Scaling out" has the measured cost.
  */
+import type { Db } from "../db/client";
+import { sqlRows } from "../db/client";
 
 export interface BucketOptions {
   readonly capacity: number;
@@ -24,37 +27,34 @@ export interface TakeResult {
   readonly retryAfterSeconds: number;
 }
 
-interface Bucket {
-  tokens: number;
-  at: number;
+export interface RateLimiter {
+  take(key: string): Promise<TakeResult>;
 }
 
-const MAX_KEYS = 10_000;
+// $1 key, $2 capacity, $3 refill per second, $4 the time (NULL: the database's clock). On an
+// existing row, LEVEL is the bucket after refill up to EXCLUDED."at" (this request's time),
+// before taking; the VALUES row is a fresh, full bucket less this request.
+const LEVEL = `LEAST($2::float8, b."tokens" + GREATEST(0, EXTRACT(EPOCH FROM (EXCLUDED."at" - b."at")))::float8 * $3::float8)`;
+const TAKE_SQL = `
+INSERT INTO "ApiRateBucket" AS b ("key", "tokens", "at", "allowed") VALUES ($1, $2::float8 - 1, COALESCE($4::timestamptz, clock_timestamp()), true)
+ON CONFLICT ("key") DO UPDATE SET
+  "tokens" = CASE WHEN ${LEVEL} >= 1 THEN ${LEVEL} - 1 ELSE ${LEVEL} END,
+  "at" = GREATEST(b."at", EXCLUDED."at"),
+  "allowed" = ${LEVEL} >= 1
+RETURNING b."tokens" AS "tokens", b."allowed" AS "allowed"`;
 
-export class TokenBucketLimiter {
-  private readonly buckets = new Map<string, Bucket>();
-  constructor(readonly options: BucketOptions, private readonly now: () => number = Date.now) {}
+/** The shared limiter: one bucket row per key in ApiRateBucket. */
+export class PgTokenBucketLimiter implements RateLimiter {
+  /** `now` (tests) replaces the database's clock. */
+  constructor(private readonly db: Db, readonly options: BucketOptions, private readonly now?: () => number) {}
 
-  /** Take one request from `key`'s bucket. */
-  take(key: string): TakeResult {
+  async take(key: string): Promise<TakeResult> {
     const { capacity, refillPerSecond } = this.options;
-    const t = this.now();
-    const b = this.buckets.get(key) ?? { tokens: capacity, at: t };
-    b.tokens = Math.min(capacity, b.tokens + ((t - b.at) / 1000) * refillPerSecond);
-    b.at = t;
-    this.buckets.set(key, b);
-    if (this.buckets.size > MAX_KEYS) this.prune(t);
-    if (b.tokens >= 1) {
-      b.tokens -= 1;
-      return { allowed: true, limit: capacity, remaining: Math.floor(b.tokens), retryAfterSeconds: 0 };
-    }
-    return { allowed: false, limit: capacity, remaining: 0, retryAfterSeconds: Math.max(1, Math.ceil((1 - b.tokens) / refillPerSecond)) };
-  }
-
-  /** Drop buckets that have refilled completely (they are equivalent to a fresh one). */
-  private prune(t: number): void {
-    const { capacity, refillPerSecond } = this.options;
-    for (const [k, b] of this.buckets) if (b.tokens + ((t - b.at) / 1000) * refillPerSecond >= capacity) this.buckets.delete(k);
+    const at = this.now ? new Date(this.now()).toISOString() : null;
+    const [row] = await sqlRows<{ tokens: number; allowed: boolean }>(this.db, TAKE_SQL, [key, capacity, refillPerSecond, at]);
+    const tokens = Number(row!.tokens);
+    if (row!.allowed) return { allowed: true, limit: capacity, remaining: Math.floor(tokens), retryAfterSeconds: 0 };
+    return { allowed: false, limit: capacity, remaining: 0, retryAfterSeconds: Math.max(1, Math.ceil((1 - tokens) / refillPerSecond)) };
   }
 }
 
@@ -63,15 +63,22 @@ function envNumber(name: string, fallback: number): number {
   return Number.isFinite(v) && v > 0 ? v : fallback;
 }
 
-let shared: TokenBucketLimiter | undefined;
-
-/** The process-wide limiter used by the v1 handlers. */
-export function apiLimiter(): TokenBucketLimiter {
-  shared ??= new TokenBucketLimiter({ capacity: envNumber("HEATBOOK_API_BURST", 120), refillPerSecond: envNumber("HEATBOOK_API_RATE_PER_MINUTE", 120) / 60 });
-  return shared;
+export function apiLimitOptions(): BucketOptions {
+  return { capacity: envNumber("HEATBOOK_API_BURST", 120), refillPerSecond: envNumber("HEATBOOK_API_RATE_PER_MINUTE", 120) / 60 };
 }
 
-/** Replace the process-wide limiter (tests). */
-export function setApiLimiter(limiter: TokenBucketLimiter | undefined): void {
-  shared = limiter;
+let override: RateLimiter | undefined;
+const byDb = new WeakMap<Db, RateLimiter>();
+
+/** The limiter used by the v1 handlers (over the app's database). */
+export function apiLimiter(db: Db): RateLimiter {
+  if (override) return override;
+  let l = byDb.get(db);
+  if (!l) byDb.set(db, (l = new PgTokenBucketLimiter(db, apiLimitOptions())));
+  return l;
+}
+
+/** Replace the limiter (tests); undefined goes back to the shared PostgreSQL one. */
+export function setApiLimiter(limiter: RateLimiter | undefined): void {
+  override = limiter;
 }

@@ -66,8 +66,9 @@ export async function checkSignerIdentity(db: Db, member: Member, password: stri
   if (!user) throw new ForbiddenError("your account no longer exists");
   if (user.passwordHash) {
     if (!password) throw new InputError("enter your password to sign the approval", { field: "password" });
-    const outcome = await authenticate(db, user.email, password, session.ip ?? "");
-    if (!outcome.ok) throw new InputError(outcome.reason === "throttled" ? "too many wrong passwords: wait 15 minutes; nothing was sealed" : "the password is wrong; nothing was sealed", { field: "password" });
+    // Counted and backed off like a sign-in (lib/server/auth/throttle.ts), per account and address.
+    const outcome = await authenticate(db, user.email, password, { address: session.ip ?? null, deviceId: null });
+    if (!outcome.ok) throw new InputError(outcome.reason === "throttled" ? `too many wrong passwords: wait ${Math.ceil(outcome.retryAfterMs / 1000)} s; nothing was sealed` : "the password is wrong; nothing was sealed", { field: "password" });
     return { method: "password", name: user.name, email: user.email };
   }
   const at = session.institutionSignInAt;

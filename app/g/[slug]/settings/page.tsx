@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { pageMember } from "@/app/_server/guard";
-import { listTokens } from "@/lib/server/tokens";
+import { defaultTokenDays, listTokens } from "@/lib/server/tokens";
 import { can } from "@/lib/server/permissions";
 import { GroupSettingsForm } from "@/app/components/settings/GroupSettingsForm";
 import { TokenPanel } from "@/app/components/settings/TokenPanel";
@@ -25,10 +25,11 @@ export default async function SettingsPage({ params }: { params: Promise<{ slug:
       ) : (
         <p className="small muted">Group settings are kept by its owners. Approving one&apos;s own submission is {member.group.allowSelfApproval ? "allowed" : "not allowed"} in this group.</p>
       )}
+      <p className="small">Your sign-in sessions (and &ldquo;Sign out everywhere&rdquo;) are on your <a href="/account">account page</a>.</p>
       <section className="sheet" aria-labelledby="tokens">
         <h2 id="tokens">Personal access tokens</h2>
-        <p className="small muted">For your own scripts and the <code>heatbook</code> command (HEATBOOK_TOKEN). A token acts as you, in this group only, with read or read-write access; your current role still applies. Heatbook keeps only its hash: the secret is shown once.</p>
-        <TokenPanel apiBase={apiBase} tokens={tokens} />
+        <p className="small muted">For your own scripts and the <code>heatbook</code> command (HEATBOOK_TOKEN). A token acts as you, in this group only, with read or read-write access; your current role still applies. Heatbook keeps only its hash: the secret is shown once. A token stops working when it expires; Renew gives it {defaultTokenDays()} more days from today.</p>
+        <TokenPanel apiBase={apiBase} tokens={tokens} now={new Date().toISOString()} defaultDays={defaultTokenDays()} />
       </section>
     </>
   );

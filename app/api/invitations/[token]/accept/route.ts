@@ -8,6 +8,6 @@ type Ctx = { params: Promise<{ token: string }> };
 
 export const POST = route(async (req, { params }: Ctx) => {
   const { db, user } = await signedIn(req);
-  const group = await acceptInvitation(db, user.id, (await params).token);
+  const group = await acceptInvitation(db, user, (await params).token);
   return NextResponse.json({ group });
 });
