@@ -145,6 +145,7 @@ export const ACTIVITY_ACTIONS: Readonly<Record<string, Term>> = Object.freeze({
   "series.members.remove": { label: "removed samples from the series" },
   "token.create": { label: "created an API token" },
   "token.revoke": { label: "revoked an API token" },
+  "token.renew": { label: "renewed an API token" },
 });
 
 /** Step configuration fields (the step schemas' keys, and keys nested in them), as markup. */

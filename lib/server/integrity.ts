@@ -18,6 +18,8 @@ export interface IntegrityScope {
   groupIds: string[] | null;
   /** Chain heads from a checkpoint kept outside the database, if one was given. */
   checkpoint?: Map<string | null, CheckpointHead>;
+  /** Re-run the engine on sealed revisions (default true; restore compares stored data only). */
+  engine?: boolean;
 }
 
 export interface IntegrityFinding {
@@ -57,13 +59,13 @@ export const sealedRevisionsCheck: IntegrityCheck = {
   name: "sealed revisions",
   async run(scope) {
     const groups = scope.groupIds ?? [undefined];
-    const all = await Promise.all(groups.map((groupId) => verifySealedRevisions(scope.db, { ...(groupId ? { groupId } : {}), engine: true })));
+    const all = await Promise.all(groups.map((groupId) => verifySealedRevisions(scope.db, { ...(groupId ? { groupId } : {}), engine: scope.engine ?? true })));
     const checked = all.reduce((n, r) => n + r.checked, 0);
     const mismatches = all.flatMap((r) => r.mismatches);
     const notes = all.flatMap((r) => r.contextChanged);
     const ok = mismatches.length === 0;
     const summary = ok
-      ? `sealed revisions verified: ${checked} checked against their snapshots (stored steps, measurements, files, seal events, engine re-run)${notes.length ? `; ${notes.length} with the sample record changed since sealing (sealed numbers unchanged)` : ""}`
+      ? `sealed revisions verified: ${checked} checked against their snapshots (stored steps, measurements, files, seal events${scope.engine ?? true ? ", engine re-run" : ""})${notes.length ? `; ${notes.length} with the sample record changed since sealing (sealed numbers unchanged)` : ""}`
       : `sealed revisions NOT verified: ${mismatches.length} ${mismatches.length === 1 ? "mismatch" : "mismatches"} in ${checked} sealed revisions; first: ${describeMismatch(mismatches[0]!)}`;
     return { check: this.name, ok, summary, problems: mismatches.map((m) => ({ where: `analysis ${m.analysisId} revision ${m.number}`, message: m.what })), detail: { checked, mismatches, contextChanged: notes } };
   },

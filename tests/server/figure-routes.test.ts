@@ -6,6 +6,7 @@
 import { describe, it, expect, beforeAll, afterAll, vi } from "vitest";
 import { freshDatabase, type TestDatabase } from "../helpers/db";
 import { fullChain, makeAnalysis, makeReviewFixture, writeSteps, type ReviewFixture } from "./reviewFixtures";
+import { SIGN } from "./fixtures";
 import { reviewTransition } from "../../lib/server/review";
 import { pdfText } from "../helpers/pdfText";
 
@@ -68,7 +69,7 @@ describe("GET figures/[figure] of a sealed report", () => {
   it("answers the report's fit figure once the revision is sealed, 404 before (no sealed revision)", async () => {
     expect((await call(reportFigure.GET, "format=pdf&column=single", { figure: "fit-3" })).status).toBe(404);
     await reviewTransition(t.db, f.members.analyst, r.analysisId, r.revisionId, { action: "submit", version: 1 });
-    await reviewTransition(t.db, f.members.reviewer, r.analysisId, r.revisionId, { action: "approve", version: 2 });
+    await reviewTransition(t.db, f.members.reviewer, r.analysisId, r.revisionId, { action: "approve", version: 2, comment: "window checked", ...SIGN });
     const res = await call(reportFigure.GET, "format=pdf&column=single", { figure: "fit-3" });
     expect(res.status).toBe(200);
     expect(await mediaWidth(res)).toBeCloseTo(8.5 * CM, 1);

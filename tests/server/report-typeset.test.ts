@@ -10,6 +10,7 @@ import { renderToStaticMarkup } from "react-dom/server";
 import { createElement } from "react";
 import { freshDatabase, type TestDatabase } from "../helpers/db";
 import { fullChain, makeAnalysis, makeReviewFixture, writeSteps, type ReviewFixture } from "./reviewFixtures";
+import { SIGN } from "./fixtures";
 import { buildReport, renderReportPdf, reviewTransition, type RevisionReport } from "../../lib/server/review";
 import { describeCorrection } from "../../lib/server/review/report";
 import { reportFigures, figureSvg } from "../../lib/server/figures/reportFigures";
@@ -48,7 +49,7 @@ beforeAll(async () => {
   const r = await makeAnalysis(t.db, f, f.sampleId, f.measurementId, "report typeset");
   await writeSteps(t.db, f.groupId, f.sampleId, r.revisionId, fullChain(f.measurementId));
   await reviewTransition(t.db, f.members.analyst, r.analysisId, r.revisionId, { action: "submit", version: 1 });
-  await reviewTransition(t.db, f.members.reviewer, r.analysisId, r.revisionId, { action: "approve", version: 2, comment: "window checked" });
+  await reviewTransition(t.db, f.members.reviewer, r.analysisId, r.revisionId, { action: "approve", version: 2, comment: "window checked", ...SIGN });
   report = await buildReport(t.db, f.members.viewer, r.analysisId);
   pdf = readable((await pdfText(await renderReportPdf(report))).text);
   const figures = reportFigures(report, { widthPt: 640, fontSize: 11 }).map((g) => ({ id: g.id, position: g.position, caption: g.caption, svg: chartSvg(g.options, { fontSize: 11 }), exports: [] }));

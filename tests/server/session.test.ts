@@ -12,7 +12,7 @@ import { sessionClaims } from "../../lib/server/session";
 const SECRET = "session-test-secret";
 const UID = "5b0c3a52-8e0f-4a43-9d59-3c2f4f8c1a11";
 const SID = "0d7e0c52-1f0f-4b43-8d59-3c2f4f8c1a22";
-const CLAIMS = { uid: UID, sid: SID };
+const CLAIMS = { uid: UID, sid: SID, via: null, authAtMs: null };
 
 beforeEach(() => {
   process.env.NEXTAUTH_SECRET = SECRET;

@@ -33,10 +33,11 @@ const FLAGS: Record<string, FlagSpec> = {
   group: { kind: "string", meta: "SLUG", help: "only this group's chain and records" },
   out: { kind: "string", meta: "FILE", help: "checkpoint: the file to write" },
   json: { kind: "boolean", help: "print one JSON object" },
+  "skip-engine": { kind: "boolean", help: "do not re-run the engine on sealed revisions (stored rows, files and seal events are still compared with each snapshot)" },
   help: { kind: "boolean", help: "show this help" },
 };
 
-const USAGE = () => `usage: heatbook audit verify [--url URL | --data-dir DIR] [--checkpoint FILE] [--group SLUG] [--json]
+const USAGE = () => `usage: heatbook audit verify [--url URL | --data-dir DIR] [--checkpoint FILE] [--group SLUG] [--skip-engine] [--json]
        heatbook audit checkpoint --out FILE [--url URL | --data-dir DIR] [--group SLUG]
 
 ${formatFlagHelp(FLAGS)}
@@ -113,7 +114,7 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
       if (!g) throw new UsageError(`no group with slug ${JSON.stringify(slug)}`);
       groupIds = [g.id];
     }
-    const result = await runIntegrityChecks({ db, key: t.key, groupIds, ...(checkpoint ? { checkpoint } : {}) });
+    const result = await runIntegrityChecks({ db, key: t.key, groupIds, engine: !getBoolean(args, "skip-engine"), ...(checkpoint ? { checkpoint } : {}) });
     if (sub === "checkpoint") {
       if (!result.ok) {
         io.err(`${name}: not written, verification failed:\n${report(result.findings)}`);
