@@ -90,8 +90,12 @@ describe("npm run worker × 2 on one queue", () => {
     for (const j of all.filter((x) => x.id !== victim.id)) expect(j.attempts.length).toBe(1);
     // Both workers took part, and pg-boss itself holds every job as completed.
     expect(new Set(all.flatMap((j) => j.attempts.map((x) => x.worker)))).toEqual(new Set(["worker-a", "worker-b"]));
-    const { rows } = await jobPool(t.url).query(`SELECT id::text, state::text FROM pgboss.job WHERE id = ANY($1::uuid[])`, [queued]);
-    expect(rows.map((r: { state: string }) => r.state)).toEqual(Array(JOBS).fill("completed"));
+    // pg-boss marks its row completed after our handler returns (after our done mark): wait for it.
+    const rows = await until("pg-boss holds every job as completed", async () => {
+      const r = (await jobPool(t.url).query(`SELECT id::text, state::text FROM pgboss.job WHERE id = ANY($1::uuid[])`, [queued])).rows as { state: string }[];
+      return r.length === JOBS && r.every((x) => x.state === "completed" || x.state === "failed") ? r : null;
+    }, 60);
+    expect(rows.map((r) => r.state)).toEqual(Array(JOBS).fill("completed"));
     // Nothing was lost: every aged step of every analysis is computed by today's engine.
     const steps = await t.db.step.findMany({ where: { revisionId: { in: f.analyses.map((x) => x.revisionId) } } });
     expect(steps.length).toBe(20);

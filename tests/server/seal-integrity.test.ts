@@ -215,6 +215,17 @@ describe("renaming and archiving an analysis with a sealed revision", () => {
   });
 });
 
+describe("the sample record changed behind the app's back", () => {
+  it("verifySealedRevisions names a sample formula changed by SQL as a context mismatch, where an audited edit is only a note", async () => {
+    const before = await verifySealedRevisions(t.db);
+    expect(before.mismatches.filter((m) => m.check === "context")).toEqual([]);
+    await asOwnerWithoutTriggers(`UPDATE "Sample" SET formula = 'Au' WHERE id = $1`, [f.sampleId]);
+    const after = await verifySealedRevisions(t.db);
+    expect(after.mismatches.find((m) => m.check === "context")?.what).toMatch(/formula Cu → Au.*differs from what its last audited edit recorded/);
+    await asOwnerWithoutTriggers(`UPDATE "Sample" SET formula = 'Ag' WHERE id = $1`, [f.sampleId]);
+  });
+});
+
 describe("pinnedContext of a snapshot sealed before composition was pinned (format 1)", () => {
   it("pinnedContext keeps the chain's fields, leaves composition unknown and says so; contextChanges compares only what was pinned", async () => {
     const snap = (await t.db.analysisRevision.findUniqueOrThrow({ where: { id: r.revisionId } })).snapshot as unknown as RevisionSnapshot;

@@ -77,7 +77,10 @@ function residualStdDev(fit: FitResult): { value: number; unit: string } | null 
 }
 
 function fitText(fit: HeatCapacityFitResult, data: LoadedHeatCapacity): string {
-  const lines = [`${data.file}: model ${fit.modelName}, ${fit.window.nPoints} points in [${fit.window.tMinK ?? "min"}, ${fit.window.tMaxK ?? "max"}] K, fit variable C, ${describeWeighting(data.weighting)}`];
+  // The window as the points used span it (the requested edges may lie outside the data).
+  const used = fit.window.indices.map((i) => data.temperatureK[i]!);
+  const span = used.length ? `${Number(Math.min(...used).toPrecision(6))}–${Number(Math.max(...used).toPrecision(6))} K` : "no points";
+  const lines = [`${data.file}: model ${fit.modelName}, ${fit.window.nPoints} points from ${span}, fit variable C, ${describeWeighting(data.weighting)}`];
   if (data.basis.given === "specific") lines.push(`  C converted from ${data.columns.cUnit} with M = ${data.basis.molarMassGPerMol} g/mol${data.basis.formula ? ` (${data.basis.formula})` : ""}: per mole formula unit`);
   for (const p of displayParameters(fit)) lines.push(`  ${p.name.padEnd(8)} ${num(p.value, 8).padStart(14)} ± ${num(p.stdError, 3).padEnd(10)} ${p.unit}${p.fixed ? " (fixed)" : ""}${p.atBound ? " (at bound)" : ""}`);
   const th = thetaFromBeta(fit);

@@ -15,6 +15,7 @@
  * it: the context is pinned in the snapshot); it is reported separately as a context change.
  */
 import type { Db } from "../db/client";
+import { toSampleInfo } from "../samples";
 import { canonicalJson } from "../../engine/canonical";
 import { contentHash, sha256Hex } from "../hash";
 import { unpackFloat64 } from "../packing";
@@ -23,7 +24,7 @@ import { contextChanges, describeContextChanges, pinnedContext, type ContextChan
 import type { RevisionSnapshot } from "./snapshot";
 import { reproduceSnapshot, reproduceSnapshotOffThread, type StepVerification } from "./verify";
 
-export type MismatchCheck = "content-hash" | "audit-seal" | "seal-record" | "step-row" | "measurement" | "file" | "engine";
+export type MismatchCheck = "content-hash" | "audit-seal" | "seal-record" | "step-row" | "measurement" | "file" | "engine" | "context";
 
 export interface SealMismatch {
   revisionId: string;
@@ -104,6 +105,25 @@ async function measurementMismatches(db: Db, s: RevisionSnapshot, push: (c: Mism
   return files;
 }
 
+/**
+ * A sample record may change after sealing (the sealed context is pinned), but only through the
+ * app, which audits every edit: a change with no audited edit of the sample after the seal, or a
+ * record that differs from what its last audited edit recorded, was made behind the app's back.
+ */
+async function unauditedContextChange(db: Db, rev: SealedRevisionRow, sample: Parameters<typeof toSampleInfo>[0], what: string, push: (check: MismatchCheck, what: string) => void): Promise<void> {
+  const events = await db.auditEvent.findMany({
+    where: { objectType: "sample", objectId: sample.id, action: { in: ["sample.create", "sample.update", "sample.archive", "sample.restore"] } },
+    orderBy: { id: "desc" }, select: { action: true, at: true, afterHash: true },
+  });
+  const sealedAt = rev.sealedAt?.getTime() ?? 0;
+  if (!events.some((e) => e.action === "sample.update" && e.at.getTime() >= sealedAt)) {
+    push("context", `the sample record differs from the sealed context (${what}) but no audited edit of the sample followed the seal`);
+    return;
+  }
+  const last = events[0]!;
+  if (last.action === "sample.update" && last.afterHash !== contentHash(toSampleInfo(sample))) push("context", `the sample record (${what}) differs from what its last audited edit recorded`);
+}
+
 /** Every check of one sealed (or replaced) revision; see the module comment. */
 export async function checkSealedRevision(db: Db, rev: SealedRevisionRow, opts: { engine?: boolean; offThread?: boolean } = {}): Promise<SealedRevisionCheck> {
   const mismatches: SealMismatch[] = [];
@@ -133,6 +153,7 @@ export async function checkSealedRevision(db: Db, rev: SealedRevisionRow, opts: 
   }
   const analysis = await db.analysis.findUnique({ where: { id: rev.analysisId }, select: { sample: true } });
   const changes = analysis ? contextChanges(pinnedContext(s), { ...analysis.sample, valences: analysis.sample.valences }) : [];
+  if (analysis && changes.length) await unauditedContextChange(db, rev, analysis.sample, describeContextChanges(changes) ?? "", push);
   return { mismatches, steps, contextChanges: changes, files };
 }
 
