@@ -9,7 +9,7 @@
  */
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import pg from "pg";
-import { opsDatabase, opsFixture, startApp, signIn, inventedCsv, IMPORT_OPTIONS, storeMeasurement, until, type OpsDatabase, type OpsFixture, type AppServer } from "./harness";
+import { PASSWORD, opsDatabase, opsFixture, startApp, signIn, inventedCsv, IMPORT_OPTIONS, storeMeasurement, until, type OpsDatabase, type OpsFixture, type AppServer } from "./harness";
 import { fullChain, writeSteps } from "../server/reviewFixtures";
 import { reviewTransition } from "../../lib/server/review";
 
@@ -121,7 +121,7 @@ describe("SIGKILL of next start in the middle of a write", () => {
       target = { analysisId: a.id, revisionId: rev.id };
       app = await startApp(d.url);
       const { cookie } = await signIn(app.base, f.reviewer.email);
-      const request = fetch(`${app.base}/api/groups/${f.slug}/analyses/${a.id}/review`, { method: "POST", headers: { cookie, "content-type": "application/json" }, body: JSON.stringify({ revisionId: rev.id, action: "approve", version: 2 }) });
+      const request = fetch(`${app.base}/api/groups/${f.slug}/analyses/${a.id}/review`, { method: "POST", headers: { cookie, "content-type": "application/json" }, body: JSON.stringify({ revisionId: rev.id, action: "approve", version: 2, meaning: "internal", comment: "checked after the restart", password: PASSWORD }) });
       landed = await killMidTransaction(request);
       await settledDatabase();
       expect(await consistency()).toEqual(CLEAN);
@@ -132,7 +132,7 @@ describe("SIGKILL of next start in the middle of a write", () => {
     expect(landed).toBe(true);
     app = await startApp(d.url);
     const { cookie } = await signIn(app.base, f.reviewer.email);
-    const res = await fetch(`${app.base}/api/groups/${f.slug}/analyses/${target!.analysisId}/review`, { method: "POST", headers: { cookie, "content-type": "application/json" }, body: JSON.stringify({ revisionId: target!.revisionId, action: "approve", version: 2 }) });
+    const res = await fetch(`${app.base}/api/groups/${f.slug}/analyses/${target!.analysisId}/review`, { method: "POST", headers: { cookie, "content-type": "application/json" }, body: JSON.stringify({ revisionId: target!.revisionId, action: "approve", version: 2, meaning: "internal", comment: "checked after the restart", password: PASSWORD }) });
     expect(res.status).toBe(200);
     const rev = await d.db.analysisRevision.findUniqueOrThrow({ where: { id: target!.revisionId } });
     expect(rev.state).toBe("sealed");
