@@ -13,7 +13,7 @@ import { apiSignIn, DEMO } from "./helpers";
 interface RouteCase { method: "GET" | "POST" | "PATCH" | "DELETE"; path: string; body?: unknown; multipart?: boolean; viewer?: number }
 
 /** Routes that are not group data: sign-in machinery, sign-up, the caller's own group list and creation, invitation acceptance by token, the caller's own sessions (tests/server/auth-sessions.test.ts, e2e/sessions.spec.ts), the load balancer's health check (tests/server/health.test.ts). */
-const NOT_GROUP_DATA = new Set(["/api/auth/[...nextauth]", "/api/signup", "/api/groups", "/api/invitations/[token]/accept", "/api/account/sessions", "/api/account/sessions/end-all", "/api/health"]);
+const NOT_GROUP_DATA = new Set(["/api/auth/[...nextauth]", "/api/signup", "/api/groups", "/api/invitations/[token]/accept", "/api/account/sessions", "/api/account/sessions/end-all", "/api/health", "/api/password-links/[token]"]);
 
 function routeFiles(dir: string, prefix = ""): { route: string; methods: string[] }[] {
   const out: { route: string; methods: string[] }[] = [];
@@ -30,7 +30,7 @@ function routeFiles(dir: string, prefix = ""): { route: string; methods: string[
 
 /** "/api/groups/lab/samples/<uuid>" → "/api/groups/[slug]/samples/[id]" */
 function template(path: string): string {
-  return path.split("?")[0]!.replace(/^\/api\/groups\/[^/]+/, "/api/groups/[slug]").replace(/\/[0-9a-f]{8}-[0-9a-f-]{27}/g, "/[id]");
+  return path.split("?")[0]!.replace(/^\/api\/groups\/[^/]+/, "/api/groups/[slug]").replace(/\/[0-9a-f]{8}-[0-9a-f-]{27}/g, "/[id]").replace(/\/figures\/[^/]+$/, "/figures/[figure]");
 }
 
 const NO_SUCH_ID = "0f0f0f0f-0f0f-4f0f-8f0f-0f0f0f0f0f0f";
@@ -78,6 +78,10 @@ function cases(): RouteCase[] {
     { method: "GET", path: `${g}/analyses/${ids.analysisId}/review/verify?revision=${ids.revisionId}` },
     { method: "GET", path: `${g}/analyses/${ids.analysisId}/review/diff?a=${ids.revisionId}&b=${ids.revisionId}` },
     { method: "GET", path: `${g}/analyses/${ids.analysisId}/report.pdf?revision=${ids.revisionId}` },
+    { method: "GET", path: `${g}/analyses/${ids.analysisId}/figures/no-such-figure?revision=${ids.revisionId}`, viewer: 404 },
+    { method: "GET", path: `${g}/analyses/${ids.analysisId}/steps/${ids.stepId}/figure`, viewer: 404 },
+    { method: "GET", path: `${g}/analyses/${ids.analysisId}/review/preview?revision=${ids.revisionId}`, viewer: 403 },
+    { method: "POST", path: `${g}/members/${ids.memberId}/password-link`, body: {} },
     { method: "GET", path: `${g}/notices` },
     { method: "POST", path: `${g}/notices`, body: { action: "read-all" }, viewer: 200 },
     { method: "PATCH", path: `${g}/notices/${NO_SUCH_ID}`, body: { read: true }, viewer: 404 },
