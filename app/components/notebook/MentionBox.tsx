@@ -28,7 +28,8 @@ export function MentionBox({ id, value, onChange, members, rows, placeholder, bo
     return members.filter((m) => m.handle.toLowerCase().startsWith(at.query) || m.name.toLowerCase().startsWith(at.query)).slice(0, 6);
   }, [at?.query, at?.start, members]); // eslint-disable-line react-hooks/exhaustive-deps
   const open = !closed && options.length > 0;
-  const unknown = unknownMentions(value, members).filter((h) => !(at && at.query === h));
+  // The handle being typed is not flagged while completions for it are still offered.
+  const unknown = unknownMentions(value, members).filter((h) => !(at && at.query === h && options.length > 0));
 
   function complete(m: Mentionable) {
     if (!at) return;
