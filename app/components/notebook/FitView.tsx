@@ -34,6 +34,8 @@ const RANGES = [{ value: "auto", label: "T ≤ 1.5 × window Tmax" }, { value: "
 export function FitView({ step, result: r, ctx, save }: Props) {
   const [range, setRange] = useState("auto");
   const [mode, setMode] = useState<"window" | "comment">("window");
+  // A user expression's parameters keep the names the user gave them (g is not the registry's g₁/g₀).
+  const userModel = (step.config as { model?: string }).model === "expression";
   const [pending, setPending] = useState<{ tMinK: number; tMaxK: number; n: number } | null>(null);
   const [xDomain, setXDomain] = useState<[number, number] | null>(null);
   const maxTK = range === "auto" ? defaultMaxTK(r) : range === "all" ? null : Number(range);
@@ -106,7 +108,7 @@ export function FitView({ step, result: r, ctx, save }: Props) {
                 const d = displayOf(ctx.models, f.modelName, p.name, p.unit);
                 return (
                   <tr key={p.name} title={d.description}>
-                    <td><Sym m={paramSymbol(p.name)} /></td>
+                    <td><Sym m={userModel ? p.name : paramSymbol(p.name)} /></td>
                     <td className="num" data-testid={`param-${p.name}`}>{compact(p.value * d.factor, p.stdError === null ? null : p.stdError * d.factor)}</td>
                     <td className="nb-unit">{d.unit}</td>
                     <td className="num">{p.stdError !== null && p.value !== 0 ? `${num((100 * p.stdError) / Math.abs(p.value), 2)} %` : "—"}</td>
@@ -134,7 +136,7 @@ export function FitView({ step, result: r, ctx, save }: Props) {
           <section aria-label="Correlation matrix">
             <h4>Correlations</h4>
             <table className="nb-compact nb-corr">
-              <thead><tr><th />{f.correlation.names.map((n) => <th key={n} className="num"><Sym m={paramSymbol(n)} /></th>)}</tr></thead>
+              <thead><tr><th />{f.correlation.names.map((n) => <th key={n} className="num"><Sym m={userModel ? n : paramSymbol(n)} /></th>)}</tr></thead>
               <tbody>{f.correlation.matrix.map((row, i) => (
                 <tr key={i}><th><Sym m={paramSymbol(f.correlation!.names[i]!)} /></th>{row.map((c, j) => <td key={j} className={`num${i !== j && c !== null && Math.abs(c) > 0.98 ? " nb-bad" : ""}`}>{c === null ? "—" : c.toFixed(3)}</td>)}</tr>
               ))}</tbody>

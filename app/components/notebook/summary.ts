@@ -13,7 +13,8 @@ const q = (v: { value: number; stdError: number | null } | null | undefined, k =
 const qs = (v: { value: number; stdError: number | null } | null | undefined, syst: number | null | undefined, k = 1) =>
   v && typeof syst === "number" ? `${formatStatSyst(v.value * k, v.stdError === null ? null : v.stdError * k, syst * k)}` : q(v, k);
 
-function fit(r: FitStepResult): string {
+/** `userModel`: parameters of a user expression are shown by the names the user gave them, not the registry's symbols. */
+function fit(r: FitStepResult, userModel = false): string {
   const p = (name: string) => r.fit.parameters.find((x) => x.name === name);
   const g = p("gamma"), b = p("beta");
   const parts: string[] = [];
@@ -21,7 +22,7 @@ function fit(r: FitStepResult): string {
   if (g) parts.push(`γ = ${qs(g, rec?.gammaSystematicError, 1e3)} mJ mol⁻¹ K⁻²`);
   if (b) parts.push(`β = ${qs(b, rec?.betaSystematicError, 1e3)} mJ mol⁻¹ K⁻⁴`);
   if (rec) parts.push("(stat)(syst), recommended model and window");
-  if (!g && !b) parts.push(r.fit.parameters.slice(0, 3).map((x) => `${symbolOf(x.name)} = ${q(x)}${x.unit ? ` ${unitText(x.unit)}` : ""}`).join(" · "));
+  if (!g && !b) parts.push(r.fit.parameters.slice(0, 3).map((x) => `${userModel ? x.name : symbolOf(x.name)} = ${q(x)}${x.unit ? ` ${unitText(x.unit)}` : ""}`).join(" · "));
   parts.push(`${formatCount(r.window.nPoints, "point")} in ${formatRange(r.window.tMinK, r.window.tMaxK, "K")}`);
   const sigmaKnown = r.weighting?.sigmaKnown ?? r.fit.weighted;
   if (sigmaKnown && r.fit.reducedChiSquare !== null) parts.push(`χ²_red = ${num(r.fit.reducedChiSquare, 3)}`);
@@ -63,7 +64,7 @@ export function summaryLine(step: StepView): string | null {
       const moles = r.moles as number | null;
       return `${BASIS_LABEL[r.per as string]} · ${r.formula}, M = ${num(r.molarMassGPerMol as number, 6)} g mol⁻¹${moles ? ` · ${num(r.massMg as number, 5)} mg = ${num(moles * 1e3, 5)} mmol` : ""}`;
     }
-    case "fit": return fit(r as unknown as FitStepResult);
+    case "fit": return fit(r as unknown as FitStepResult, (step.config as { model?: string }).model === "expression");
     case "derive": return derive(r as unknown as DeriveStepResult);
     case "transition": {
       const t = r as unknown as TransitionStepResult;
