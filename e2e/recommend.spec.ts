@@ -22,6 +22,9 @@ test("fit step: recommend model and window shows the model, γ with statistical 
   const fit = page.getByTestId("step-fit").first();
 
   await fit.getByTestId("edit-step").click();
+  // Other specs may have narrowed this step's window (the notebook spec brushes one): scan the whole range.
+  await fit.getByTestId("fit-tmin").fill("");
+  await fit.getByTestId("fit-tmax").fill("");
   await fit.getByLabel("Recommend model and window").check();
   await fit.getByTestId("save-step").click();
   const rec = fit.getByTestId("recommendation");
