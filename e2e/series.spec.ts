@@ -21,7 +21,7 @@ test("demo series: trend with uncertainty, axis switch x ↔ e/a, CSV export wit
   await expect(chart.locator('svg g[aria-label="area"] path')).toHaveCount(1); // the ±1σ band
   const trend = page.getByTestId("trend-summary");
   await expect(trend).toContainText("Linear trend");
-  await expect(trend).toContainText(/a1 = -?\d[\d.]*\(\d+(\.\d+)?\)/); // slope with its standard error
+  await expect(trend).toContainText(/a1 = [-−]?\d[\d.]*\(\d+(\.\d+)?\)/); // slope with its standard error
   await expect(page.getByTestId("series-table-all").locator("tbody tr")).toHaveCount(6);
 
   await page.getByTestId("axis-ea").click();

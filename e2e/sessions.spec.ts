@@ -41,7 +41,7 @@ test("sign out ends the session: the old cookie then gets 401 and the pages send
   await page.goto("/account");
   await expect(page.getByRole("heading", { name: "Account" })).toBeVisible();
   await page.getByTestId("user-menu").locator("summary").click();
-  await page.getByRole("button", { name: "Sign out" }).click();
+  await page.getByRole("button", { name: "Sign out", exact: true }).click();
   await expect(page).toHaveURL(`${baseURL}/`);
 
   const replay = await playwright.request.newContext({ baseURL, extraHTTPHeaders: { cookie: `${cookie.name}=${cookie.value}` } });
