@@ -142,7 +142,7 @@ function finish(points: readonly TrendPoint[], options: TrendOptions, weighting:
   const warnings: string[] = [];
   if (weighting === "unweighted" && points.some((q) => q.sigma !== null)) warnings.push("some points have no σ: the trend is unweighted and its errors come from the scatter");
   if (dof === 0) warnings.push("as many parameters as points: the trend passes through every point and has no scatter estimate");
-  if (weighting === "absolute" && red !== null && dof >= 3 && (red > 3 || red < 0.2)) warnings.push(`χ²_red = ${red.toPrecision(3)}: the points scatter ${red > 1 ? "more" : "less"} than their σ say`);
+  if (weighting === "absolute" && red !== null && dof >= 3 && (red > 3 || red < 0.2)) warnings.push(`χ²_red = ${red >= 1000 ? String(Math.round(red)) : String(Number(red.toPrecision(3)))}: the points scatter ${red > 1 ? "more" : "less"} than their σ say`);
   if (outliers.length) warnings.push(`${outliers.length} ${outliers.length === 1 ? "point lies" : "points lie"} more than ${outlierSigma}σ from the trend`);
   const fit = { parameters, covariance };
   return {
