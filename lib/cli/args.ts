@@ -42,7 +42,8 @@ function parseAssignments(flag: string, text: string): Record<string, number> {
   for (const part of text.split(",")) {
     const eq = part.indexOf("=");
     const name = part.slice(0, eq).trim();
-    if (eq <= 0 || !/^[A-Za-z_][A-Za-z0-9_]*$/.test(name)) {
+    // name, or name#k for one measurement of a joint fit
+    if (eq <= 0 || !/^[A-Za-z_][A-Za-z0-9_]*(#[1-9][0-9]*)?$/.test(name)) {
       throw new InputError(`invalid --${flag}: ${JSON.stringify(part)} (expected name=value)`, { field: flag });
     }
     if (name in out) throw new InputError(`invalid --${flag}: ${name} given twice`, { field: flag });

@@ -6,22 +6,26 @@
  * Output γ in mJ/(mol K²), β in mJ/(mol K⁴) (display units of each parameter); --fix and
  * --start take the same display units for registered models (SI for expressions) and are
  * checked against the model's parameter bounds.
+ * Several files (or --field): a joint fit, see fitJoint.ts.
  * Exit 0 success, 1 the fit failed (reason printed), 2 bad usage or input (what and where).
  */
 import type { CliIo } from "../io";
-import { formatFlagHelp, getAssignments, getBoolean, getNumber, getString, parseArgs, type FlagSpec, reportFailure } from "../args";
+import { formatFlagHelp, getAssignments, getBoolean, getList, getNumber, getString, parseArgs, type FlagSpec, reportFailure } from "../args";
 import { InputError } from "../../engine/errors";
 import { DATA_FLAGS, describeWeighting, findColumn, loadHeatCapacity, readTable, type LoadedHeatCapacity } from "../data";
 import { checkParameterValues } from "../modelParams";
-import { fitHeatCapacity, type FitResult, type HeatCapacityFitResult } from "../../engine/fit";
+import { fitHeatCapacity, JOINT_MODELS, type FitResult, type HeatCapacityFitResult } from "../../engine/fit";
+import { perFile, runJoint } from "./fitJoint";
 import { MODELS, debyeTemperatureFromBeta } from "../../engine/models";
 import type { Recommendation } from "../../engine/scan";
 import { recommendationJson, recommendationText, recommendedModel, recommendedStart, runRecommendation } from "./fitScan";
 
 const FLAGS: Record<string, FlagSpec> = {
-  model: { kind: "string", meta: "NAME|EXPR", help: `model name (${Object.keys(MODELS).join(", ")}) or a mathjs expression in T; default sommerfeld` },
-  "t-min": { kind: "number", meta: "K", help: "lower window edge, inclusive" },
-  "t-max": { kind: "number", meta: "K", help: "upper window edge, inclusive" },
+  model: { kind: "string", meta: "NAME|EXPR", help: `model name (${Object.keys(MODELS).join(", ")}; with --field also ${Object.keys(JOINT_MODELS).join(", ")}) or a mathjs expression in T (and H, R, kB, muB, NA with --field); default sommerfeld` },
+  "t-min": { kind: "list", meta: "K[,K…]", help: "lower window edge, inclusive (several files: one for all, or one per file)" },
+  "t-max": { kind: "list", meta: "K[,K…]", help: "upper window edge, inclusive (several files: one for all, or one per file)" },
+  field: { kind: "list", meta: "T,…", help: "applied field of each file in tesla, in file order: fits the files jointly (required with several files)" },
+  shared: { kind: "string", meta: "p,q,…", help: "joint fit: parameters shared by all files (default: the model's; γ, β for most); the others are fitted per file as name#k" },
   scan: { kind: "boolean", help: "recommend a model and window (candidates Sommerfeld, +T⁵, +A/T², +Schottky and --model), with statistical and systematic σ; fit them" },
   ...DATA_FLAGS,
   r: { kind: "number", meta: "N", help: "atoms per formula unit for Θ_D and lattice models (default: from --formula, else 1)" },
@@ -31,7 +35,7 @@ const FLAGS: Record<string, FlagSpec> = {
   json: { kind: "boolean", help: "print one JSON object" },
   help: { kind: "boolean", help: "show this help" },
 };
-const USAGE = `usage: heatbook fit FILE [options]\n\n${formatFlagHelp(FLAGS)}`;
+const USAGE = `usage: heatbook fit FILE [options]\n       heatbook fit FILE1 FILE2 … --field H1,H2,… --model NAME|EXPR [--shared p,q] [options]\n\nSeveral files (or --field) fit one model to all of them jointly: shared parameters once, the\nothers per file (JSON keys name#k, k = the file's position from 1), SI in --json.\n\n${formatFlagHelp(FLAGS)}`;
 
 /** Re-exported for the commands that read tables the same way (regress). */
 export { findColumn, readTable };
@@ -103,14 +107,17 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
       io.out(USAGE);
       return 0;
     }
-    if (args.positionals.length !== 1) throw new InputError(args.positionals.length ? `unexpected argument ${JSON.stringify(args.positionals[1])}` : "missing FILE");
+    if (args.positionals.length === 0) throw new InputError("missing FILE");
+    if (args.positionals.length > 1 || getList(args, "field") !== undefined) return runJoint(args, args.positionals, io);
+    if (getString(args, "shared") !== undefined) throw new InputError("--shared applies to a joint fit: give --field (one value per file)", { field: "shared" });
+    if (Object.hasOwn(JOINT_MODELS, getString(args, "model") ?? "")) throw new InputError(`model ${getString(args, "model")} needs the field: give --field in tesla`, { field: "field" });
     const data = loadHeatCapacity(args, io);
     const modelArg = getString(args, "model") ?? "sommerfeld";
     const model = Object.hasOwn(MODELS, modelArg) ? modelArg : { expression: modelArg };
     const r = getNumber(args, "r") ?? data.atomsPerFormulaUnit ?? undefined;
     if (r !== undefined && !(r > 0)) throw new InputError(`invalid --r: ${r} (atoms per formula unit, must be > 0)`, { field: "r" });
-    let tMinK = getNumber(args, "t-min");
-    let tMaxK = getNumber(args, "t-max");
+    let tMinK = perFile(args, "t-min", 1)[0];
+    let tMaxK = perFile(args, "t-max", 1)[0];
     let scan: Recommendation | null = null;
     let fitModel = model;
     const toSi = (values: Record<string, number> | undefined, flag: string) => {

@@ -10,8 +10,8 @@
  * χ², dof and AICc over all points (result.ts). Linear models: QR. Nonlinear ones get a global
  * start: the amplitudes (γ, β, n, a …) solved exactly on a grid over the nonlinear parameters
  * (named and registry models: ranges from the data; at most 3 axes), or a deterministic
- * multi-start (expressions); with more per-measurement nonlinear parameters than the grid
- * takes, first a fit with them tied (shared), whose end point starts the untied search. Then
+ * multi-start (expressions); with per-measurement nonlinear parameters, first a fit with them
+ * tied (shared), whose end point is one more start of the untied search. Then
  * Levenberg–Marquardt on the stacked problem. A fit that ends above a χ² the search met is
  * `converged: false`. With one measurement the result equals fitHeatCapacity's.
  *
@@ -263,19 +263,23 @@ function runFit(model: LocalModel, layout: Layout, data: Stacked, opt: CoreOptio
   const axes = model.ranges ? searchAxes(model, layout, data, series, nonlinear, opt) : null;
   if (model.kind === "registry") opt = { ...opt, start: registryStart(model, layout, series, opt) };
   const guessStart = opt.start.every(Number.isFinite) ? [new Float64Array(opt.start)] : [];
-  if (axes && (axes.length <= 3 || startsGiven)) return fitGlobal(core, x, data.y, data.sigma, opt, { linear, nonlinear, axes, extraStarts: startsGiven ? [opt.start] : guessStart, budget: GRID_BUDGET, startsOnly: startsGiven });
+  const grid = axes !== null && axes.length <= 3;
   const scale = absSpan(data.T);
   const sep = { core, linearParameters: layout.keys.filter((_, j) => model.linearNames.includes(layout.names[j])), derivativeTerms: model.derivativeTerms, xScale: scale };
+  if (startsGiven) return axes ? fitGlobal(core, x, data.y, data.sigma, opt, { linear, nonlinear, axes, extraStarts: [opt.start], budget: GRID_BUDGET, startsOnly: true }) : fitSeparableCore(sep, x, data.y, data.sigma, opt);
+  if (perNonlinear.length > 0 && series.length > 1) {
+    // tie the per-measurement nonlinear parameters, fit, and start the untied search from there too
+    const tiedLayout = buildLayout(model, new Set([...layout.shared, ...perNonlinear.map((j) => layout.names[j])]), series.length);
+    const tied = runFit(model, tiedLayout, data, tieOptions(layout, tiedLayout, opt), series, options);
+    const at = (key: string, name: string) => tied.parameters[tiedLayout.keys.includes(key) ? tiedLayout.keys.indexOf(key) : tiedLayout.keys.indexOf(name)].value;
+    const untied = Float64Array.from(layout.keys, (key, j) => (opt.fixed[j] ? opt.start[j] : at(key, layout.names[j])));
+    const budget = grid ? GRID_BUDGET : Math.max(300, Math.min(40000, Math.floor(4e7 / (data.T.length * (model.derivativeTerms + 8)))));
+    const fit = fitGlobal(core, x, data.y, data.sigma, opt, { linear, nonlinear, axes: grid ? axes : null, extraStarts: [untied], budget, xScale: scale });
+    return checkAgainstTied(fit, tied, [...new Set(perNonlinear.map((j) => layout.names[j]))]);
+  }
+  if (grid) return fitGlobal(core, x, data.y, data.sigma, opt, { linear, nonlinear, axes, extraStarts: guessStart, budget: GRID_BUDGET });
   if (model.kind === "registry" && !axes) return fitCore(core, x, data.y, data.sigma, opt);
-  if (startsGiven || perNonlinear.length === 0 || series.length === 1) return fitSeparableCore(sep, x, data.y, data.sigma, opt);
-  // tie the per-measurement nonlinear parameters, fit, untie from that end point
-  const tiedLayout = buildLayout(model, new Set([...layout.shared, ...perNonlinear.map((j) => layout.names[j])]), series.length);
-  const tiedOpt = tieOptions(layout, tiedLayout, opt);
-  const tied = runFit(model, tiedLayout, data, tiedOpt, series, options);
-  const untied = Float64Array.from(layout.keys, (key, j) => (opt.fixed[j] ? opt.start[j] : tied.parameters[tiedLayout.keys.indexOf(key) >= 0 ? tiedLayout.keys.indexOf(key) : tiedLayout.keys.indexOf(layout.names[j])].value));
-  const budget = axes ? GRID_BUDGET : Math.max(300, Math.min(40000, Math.floor(4e7 / (data.T.length * (model.derivativeTerms + 8)))));
-  const fit = fitGlobal(core, x, data.y, data.sigma, opt, { linear, nonlinear, axes: null, extraStarts: [untied], budget, xScale: scale });
-  return checkAgainstTied(fit, tied);
+  return fitSeparableCore(sep, x, data.y, data.sigma, opt);
 }
 
 function absSpan(T: Float64Array): [number, number] {
@@ -328,9 +332,9 @@ function tieOptions(layout: Layout, tied: Layout, opt: CoreOptions): CoreOptions
 }
 
 /** The untied problem contains the tied one: ending above its χ² is not a minimum. */
-function checkAgainstTied(fit: FitResult, tied: FitResult): FitResult {
+function checkAgainstTied(fit: FitResult, tied: FitResult, names: readonly string[]): FitResult {
   const [a, b] = [fit.chiSquare ?? Infinity, tied.chiSquare ?? Infinity];
-  if (!(a > b * (1 + 1e-9) + 1e-300)) return fit;
+  if (!(a > b * (1 + 1e-9) + 1e-300)) return Object.freeze({ ...fit, evaluations: fit.evaluations + tied.evaluations, message: `${fit.message}; one more start from the fit with ${names.join(", ")} shared (χ² = ${b.toPrecision(6)})` });
   const why = `ended at χ² = ${a.toPrecision(6)} although the fit with the per-measurement nonlinear parameters tied met χ² = ${b.toPrecision(6)}: not the global minimum`;
   return Object.freeze({ ...fit, converged: false, message: `${fit.message}; ${why}`, warnings: Object.freeze([...fit.warnings, `not converged: ${why}`]) });
 }

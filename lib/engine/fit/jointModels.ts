@@ -72,10 +72,10 @@ function p(spec: Spec): JointParameterSpec {
 const GAMMA = p({ name: "gamma", unit: "J/(mol*K^2)", displayUnit: "mJ/(mol*K^2)", displayFactor: 1e3, symbol: "γ", label: "Sommerfeld coefficient", description: "Sommerfeld coefficient γ" });
 const BETA = p({ name: "beta", unit: "J/(mol*K^4)", displayUnit: "mJ/(mol*K^4)", displayFactor: 1e3, symbol: "β", label: "lattice T³ coefficient", description: "lattice T³ coefficient β" });
 const DELTA = p({ name: "delta", unit: "J/(mol*K^6)", displayUnit: "mJ/(mol*K^6)", displayFactor: 1e3, symbol: "δ", label: "T⁵ dispersion coefficient", description: "T⁵ dispersion coefficient δ" });
-const N = p({ name: "n", unit: "1", displayUnit: "1", displayFactor: 1, symbol: "n_S", label: "two-level centres per formula unit", description: "two-level centres per formula unit", lower: 0 });
+const N = p({ name: "n", unit: "1", displayUnit: "1", displayFactor: 1, symbol: "n", label: "two-level centres per formula unit", description: "two-level centres per formula unit", lower: 0 });
 const G = p({ name: "g", unit: "1", displayUnit: "1", displayFactor: 1, symbol: "g", label: "g-factor of the doublet", description: "effective g-factor of the split doublet", lower: 0, upper: 100 });
-const DELTA0 = p({ name: "delta0", unit: "K", displayUnit: "K", displayFactor: 1, symbol: "Δ_0/k_B", label: "zero-field splitting", description: "zero-field splitting Δ₀/k_B", lower: 0, upper: 1e5 });
-const A_FIELD = p({ name: "a", unit: "J*K/(mol*T^2)", displayUnit: "mJ*K/(mol*T^2)", displayFactor: 1e3, symbol: "a_N", label: "nuclear tail per field²", description: "nuclear tail coefficient per field², A(H) = a H²" });
+const DELTA0 = p({ name: "delta0", unit: "K", displayUnit: "K", displayFactor: 1, symbol: "Δ_0", label: "zero-field splitting Δ₀/k_B", description: "zero-field splitting Δ₀/k_B", lower: 0, upper: 1e5 });
+const A_FIELD = p({ name: "a", unit: "J*K/(mol*T^2)", displayUnit: "mJ*K/(mol*T^2)", displayFactor: 1e3, symbol: "a", label: "nuclear tail per field²", description: "nuclear tail coefficient per field², A(H) = a H²" });
 const A_ZERO = p({ name: "A0", unit: "J*K/mol", displayUnit: "mJ*K/mol", displayFactor: 1e3, symbol: "A_0", label: "zero-field nuclear tail", description: "zero-field nuclear tail coefficient A₀" });
 
 /** μ_B/k_B [K/T] for the g range. */
