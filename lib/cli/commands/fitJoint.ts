@@ -157,8 +157,10 @@ export function jointText(fit: JointFitResult, loaded: readonly LoadedHeatCapaci
   lines.push(...table([header, ...rows]));
   const red = fit.weighted ? `χ²_red = ${formatNumber(fit.reducedChiSquare)}` : `residual s.d. = ${formatNumber(Math.sqrt(fit.chiSquare / fit.dof) * 1e3)} mJ mol⁻¹ K⁻¹ (unweighted: no χ²_red)`;
   lines.push(`  χ² = ${formatNumber(fit.chiSquare)}, dof = ${fit.dof}, ${red}, AICc = ${formatNumber(fit.aicc)}`);
-  lines.push(`  ${fit.converged ? "converged" : "NOT converged"}: ${fit.message}`);
-  for (const w of fit.warnings) lines.push(`  warning: ${w}`);
+  // the engine's sentences name per-file parameters by key (g#2): say which file instead
+  const named = (text: string) => text.replace(/\b([A-Za-z_]\w*)#(\d+)\b/g, (key, name: string, k: string) => (loaded[Number(k) - 1] ? `${displayOf(fit.model, name).symbol} of ${loaded[Number(k) - 1].file}` : key));
+  lines.push(`  ${fit.converged ? "converged" : "NOT converged"}: ${named(fit.message)}`);
+  for (const w of fit.warnings) lines.push(`  warning: ${named(w)}`);
   for (const d of loaded) for (const n of d.notes) lines.push(`  note (${d.file}): ${n}`);
   return lines.join("\n");
 }

@@ -178,7 +178,7 @@ function stack(series: readonly CheckedMeasurement[]): Stacked {
   const weighted = series.map((s) => s.sigma !== null);
   const some = weighted.indexOf(true);
   const none = weighted.indexOf(false);
-  if (some >= 0 && none >= 0) throw new InputError(`measurements[${none}].sigma: missing while measurements[${some}] has σ (give σ for every measurement or for none)`, { field: `measurements[${none}].sigma` });
+  if (some >= 0 && none >= 0) throw new InputError(`σ missing for measurements[${none}] while measurements[${some}] has σ (give σ for every measurement or for none)`, { field: `measurements[${none}].sigma` });
   return {
     T: Float64Array.from(all, ([k, i]) => series[k].T[i]),
     y: Float64Array.from(all, ([k, i]) => series[k].C[i]),
@@ -270,12 +270,13 @@ function runFit(model: LocalModel, layout: Layout, data: Stacked, opt: CoreOptio
   if (perNonlinear.length > 0 && series.length > 1) {
     // tie the per-measurement nonlinear parameters, fit, and start the untied search from there too
     const tiedLayout = buildLayout(model, new Set([...layout.shared, ...perNonlinear.map((j) => layout.names[j])]), series.length);
-    const tied = runFit(model, tiedLayout, data, tieOptions(layout, tiedLayout, opt), series, options);
+    const tie = tieOptions(layout, tiedLayout, opt);
+    const tied = runFit(model, tiedLayout, data, tie.opt, series, options);
     const at = (key: string, name: string) => tied.parameters[tiedLayout.keys.includes(key) ? tiedLayout.keys.indexOf(key) : tiedLayout.keys.indexOf(name)].value;
     const untied = Float64Array.from(layout.keys, (key, j) => (opt.fixed[j] ? opt.start[j] : at(key, layout.names[j])));
     const budget = grid ? GRID_BUDGET : Math.max(300, Math.min(40000, Math.floor(4e7 / (data.T.length * (model.derivativeTerms + 8)))));
     const fit = fitGlobal(core, x, data.y, data.sigma, opt, { linear, nonlinear, axes: grid ? axes : null, extraStarts: [untied], budget, xScale: scale });
-    return checkAgainstTied(fit, tied, [...new Set(perNonlinear.map((j) => layout.names[j]))]);
+    return tie.nested ? checkAgainstTied(fit, tied, [...new Set(perNonlinear.map((j) => layout.names[j]))]) : fit;
   }
   if (grid) return fitGlobal(core, x, data.y, data.sigma, opt, { linear, nonlinear, axes, extraStarts: guessStart, budget: GRID_BUDGET });
   if (model.kind === "registry" && !axes) return fitCore(core, x, data.y, data.sigma, opt);
@@ -318,16 +319,25 @@ function registryStart(model: LocalModel, layout: Layout, series: readonly Check
   });
 }
 
-/** Options of the tied problem: a tied key takes its first measurement's fixed/start (fixed only when all are). */
-function tieOptions(layout: Layout, tied: Layout, opt: CoreOptions): CoreOptions {
+/**
+ * Options of the tied problem: a tied key is fixed when any of its measurements' keys is (at that
+ * value), else starts from the first given start. `nested` is true when the tied problem is a
+ * special case of the untied one (no two different fixed values tied together).
+ */
+function tieOptions(layout: Layout, tied: Layout, opt: CoreOptions): { opt: CoreOptions; nested: boolean } {
   const from = (key: string) => layout.keys.map((_, j) => j).filter((j) => layout.keys[j] === key || (layout.names[j] === key && layout.measurement[j] !== null));
   const src = tied.keys.map(from);
+  const held = src.map((js) => js.filter((j) => opt.fixed[j]));
+  const nested = held.every((js) => js.every((j) => opt.start[j] === opt.start[js[0]]));
   return {
-    ...opt,
-    start: Float64Array.from(src, (js) => (js.every((j) => opt.fixed[j]) ? opt.start[js[0]] : opt.start[js.find((j) => !opt.fixed[j])!])),
-    fixed: src.map((js) => js.every((j) => opt.fixed[j])),
-    lower: Float64Array.from(src, (js) => opt.lower[js[0]]),
-    upper: Float64Array.from(src, (js) => opt.upper[js[0]]),
+    nested,
+    opt: {
+      ...opt,
+      start: Float64Array.from(src, (js, t) => (held[t].length ? opt.start[held[t][0]] : (js.map((j) => opt.start[j]).find(Number.isFinite) ?? NaN))),
+      fixed: held.map((js) => js.length > 0),
+      lower: Float64Array.from(src, (js) => opt.lower[js[0]]),
+      upper: Float64Array.from(src, (js) => opt.upper[js[0]]),
+    },
   };
 }
 

@@ -74,7 +74,7 @@ const BETA = p({ name: "beta", unit: "J/(mol*K^4)", displayUnit: "mJ/(mol*K^4)",
 const DELTA = p({ name: "delta", unit: "J/(mol*K^6)", displayUnit: "mJ/(mol*K^6)", displayFactor: 1e3, symbol: "δ", label: "T⁵ dispersion coefficient", description: "T⁵ dispersion coefficient δ" });
 const N = p({ name: "n", unit: "1", displayUnit: "1", displayFactor: 1, symbol: "n", label: "two-level centres per formula unit", description: "two-level centres per formula unit", lower: 0 });
 const G = p({ name: "g", unit: "1", displayUnit: "1", displayFactor: 1, symbol: "g", label: "g-factor of the doublet", description: "effective g-factor of the split doublet", lower: 0, upper: 100 });
-const DELTA0 = p({ name: "delta0", unit: "K", displayUnit: "K", displayFactor: 1, symbol: "Δ_0", label: "zero-field splitting Δ₀/k_B", description: "zero-field splitting Δ₀/k_B", lower: 0, upper: 1e5 });
+const DELTA0 = p({ name: "delta0", unit: "K", displayUnit: "K", displayFactor: 1, symbol: "Δ_0", label: "zero-field splitting", description: "zero-field splitting Δ₀/k_B", lower: 0, upper: 1e5 });
 const A_FIELD = p({ name: "a", unit: "J*K/(mol*T^2)", displayUnit: "mJ*K/(mol*T^2)", displayFactor: 1e3, symbol: "a", label: "nuclear tail per field²", description: "nuclear tail coefficient per field², A(H) = a H²" });
 const A_ZERO = p({ name: "A0", unit: "J*K/mol", displayUnit: "mJ*K/mol", displayFactor: 1e3, symbol: "A_0", label: "zero-field nuclear tail", description: "zero-field nuclear tail coefficient A₀" });
 
@@ -141,7 +141,7 @@ export const JOINT_MODELS: Readonly<Record<string, JointModelSpec>> = Object.fre
       define({
         name: "zeeman-schottky",
         title: "γT + βT³ + Zeeman-split two-level Schottky",
-        formula: "C = γT + βT³ + n R x² eˣ/(1 + eˣ)², x = Δ/T, Δ = g μ_B H/k_B",
+        formula: "C = γT + βT³ + n R x² eˣ/(1 + eˣ)², x = Δ/T, Δ = g μB H/kB",
         expression: `gamma*T + beta*T^3 + ${schottkyTerm(ZEEMAN_X)}`,
         parameters: [GAMMA, BETA, N, G],
         ranges: (data) => ({ g: gRange(data) }),
@@ -150,7 +150,7 @@ export const JOINT_MODELS: Readonly<Record<string, JointModelSpec>> = Object.fre
       define({
         name: "zeeman-schottky-internal",
         title: "γT + βT³ + two-level Schottky, zero-field splitting and Zeeman gap in quadrature",
-        formula: "C = γT + βT³ + n R x² eˣ/(1 + eˣ)², x = Δ/T, Δ = √(Δ₀² + (g μ_B H/k_B)²)",
+        formula: "C = γT + βT³ + n R x² eˣ/(1 + eˣ)², x = Δ/T, Δ = √(Δ₀² + (g μB H/kB)²)",
         expression: `gamma*T + beta*T^3 + ${schottkyTerm(ZEEMAN_INTERNAL_X)}`,
         parameters: [GAMMA, BETA, N, G, DELTA0],
         ranges: (data) => ({ g: gRange(data), delta0: gapRange(data) }),
@@ -176,7 +176,7 @@ export const JOINT_MODELS: Readonly<Record<string, JointModelSpec>> = Object.fre
       }),
       define({
         name: "normal-state",
-        title: "normal state γT + βT³ (fields above H_c2)",
+        title: "normal state γT + βT³ (fields above Hc2)",
         formula: "C = γT + βT³",
         expression: "gamma*T + beta*T^3",
         parameters: [GAMMA, BETA],
@@ -184,7 +184,7 @@ export const JOINT_MODELS: Readonly<Record<string, JointModelSpec>> = Object.fre
       }),
       define({
         name: "normal-state-t5",
-        title: "normal state γT + βT³ + δT⁵ (fields above H_c2)",
+        title: "normal state γT + βT³ + δT⁵ (fields above Hc2)",
         formula: "C = γT + βT³ + δT⁵",
         expression: "gamma*T + beta*T^3 + delta*T^5",
         parameters: [GAMMA, BETA, DELTA],
