@@ -21,6 +21,7 @@ import { fitHeatCapacity, levenbergMarquardt, type LeastSquaresProblem } from ".
 import { scanWindows } from "../lib/engine/scan";
 import { debyeHeatCapacity, debyeHeatCapacityDThetaD } from "../lib/engine/models";
 import { recommendRow } from "./recommend";
+import { jointTable } from "./joint";
 
 interface Row { name: string; ours: number; lib: number; oursDigits: number; libDigits: number }
 
@@ -184,6 +185,8 @@ export async function runEngineBench(): Promise<string> {
     "Targets: faster than the library on every row with at least as many digits; 1e4-point linear fit < 1 ms; 400-point scan < 50 ms.",
     "",
     ...recommendTable(),
+    "",
+    ...jointTable(median),
   ];
   return lines.join("\n");
 }

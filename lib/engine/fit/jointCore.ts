@@ -89,7 +89,7 @@ function fromJoint(name: string): LocalModel {
   return fromExpression(m.expression, m.name, m.title, m, m.formula);
 }
 
-/** Registry parameters shared by default in a joint fit: the electronic and lattice series. */
+/** Registry parameters shared by default in a joint fit: the electronic and lattice series (and those held at a default). */
 const REGISTRY_SHARED = ["gamma", "beta", "delta", "epsilon"];
 
 function fromRegistry(model: HeatCapacityModel, r: number): LocalModel {
@@ -107,7 +107,8 @@ function fromRegistry(model: HeatCapacityModel, r: number): LocalModel {
     units: model.parameters.map((q) => q.unit),
     lower: model.parameters.map((q) => q.lower),
     upper: model.parameters.map((q) => q.upper),
-    defaultShared: names.filter((k) => REGISTRY_SHARED.includes(k)),
+    // a parameter held at a default value (Schottky's g₁/g₀) is the same for all: shared
+    defaultShared: model.parameters.filter((q) => REGISTRY_SHARED.includes(q.name) || typeof q.fixedByDefault === "number").map((q) => q.name),
     linearNames: model.linear ? names : (model.separable?.linear ?? []),
     linear: model.linear,
     derivativeTerms: 0,
