@@ -139,9 +139,10 @@ function checkMeasurement(m: JointMeasurement, k: number): CheckedMeasurement {
   const at = `measurements[${k}]`;
   if (!m || typeof m !== "object") throw new InputError(`invalid ${at}: not a measurement`, { field: at });
   if (!(typeof m.fieldT === "number" && Number.isFinite(m.fieldT))) throw new InputError(`invalid ${at}.fieldT: ${String(m.fieldT)} (a finite field in tesla)`, { field: `${at}.fieldT` });
-  if (!Array.isArray(m.temperatureK)) throw new InputError(`invalid ${at}.temperatureK: not a list of numbers`, { field: `${at}.temperatureK` });
-  if (!Array.isArray(m.heatCapacity)) throw new InputError(`invalid ${at}.heatCapacity: not a list of numbers`, { field: `${at}.heatCapacity` });
-  if (m.sigma != null && !Array.isArray(m.sigma)) throw new InputError(`invalid ${at}.sigma: not a list of numbers`, { field: `${at}.sigma` });
+  const list = (v: unknown) => Array.isArray(v) || (ArrayBuffer.isView(v) && !(v instanceof DataView));
+  if (!list(m.temperatureK)) throw new InputError(`invalid ${at}.temperatureK: not a list of numbers`, { field: `${at}.temperatureK` });
+  if (!list(m.heatCapacity)) throw new InputError(`invalid ${at}.heatCapacity: not a list of numbers`, { field: `${at}.heatCapacity` });
+  if (m.sigma != null && !list(m.sigma)) throw new InputError(`invalid ${at}.sigma: not a list of numbers`, { field: `${at}.sigma` });
   let s;
   try {
     s = checkSeries(m.temperatureK, m.heatCapacity, m.sigma ?? undefined, [`${at}.temperatureK`, `${at}.heatCapacity`, `${at}.sigma`]);

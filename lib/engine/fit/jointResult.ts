@@ -29,7 +29,6 @@ export function jointResult(model: LocalModel, layout: Layout, fit: FitResult, s
   const measurements = series.map((s, k) => measurementResult(model, layout, values, parameters, s, k));
   const perMeasurement = model.names.filter((n) => !layout.shared.includes(n));
   const warnings = [...fit.warnings];
-  if (!fit.weighted && fit.dof > 0) warnings.push("no σ given: unweighted fit, standard errors scaled by the residual variance of all curves together");
   return deepFreeze({
     model: model.name,
     title: model.title,
