@@ -13,7 +13,7 @@ import { AddStep } from "./AddStep";
 import { Threads, type Composer } from "./Threads";
 import { RevisionBar } from "./RevisionBar";
 import { ReviewBar } from "@/app/components/review/ReviewBar";
-import { KIND_LABEL } from "./display";
+import { kindLabel } from "./registry";
 import type { Anchor, MeasurementChoice, ModelInfo, NotebookContext, NotebookData, ThreadData } from "./types";
 
 interface Props {
@@ -125,7 +125,7 @@ export function Notebook(props: Props) {
       {flash && <div className="nb-flash" role="status" data-testid="live-notice">{flash}</div>}
       {(nb.computing || progress) && (
         <div className="nb-flash" role="status" data-testid="computing-notice">
-          Computing in the background{progress ? `: step ${progress.position + 1} (${KIND_LABEL[nb.steps[progress.position]?.kind ?? ""] ?? "step"}), ${Math.floor(progress.runningMs / 1000)} s so far` : ""}. The page updates when it ends.
+          Computing in the background{progress ? `: step ${progress.position + 1} (${kindLabel(nb.steps[progress.position]?.kind ?? "step")}), ${Math.floor(progress.runningMs / 1000)} s so far` : ""}. The page updates when it ends.
         </div>
       )}
       {loadError && <p className="form-error" role="alert">The notebook could not be re-read: {loadError}</p>}

@@ -8,6 +8,8 @@ export interface StepOutputView {
   kind: string;
   ok: boolean;
   error: string | null;
+  /** The configuration field at fault when the step was not computed (a schema key, dotted). */
+  field?: string | null;
   warnings: string[];
   result: unknown;
 }

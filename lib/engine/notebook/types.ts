@@ -78,19 +78,9 @@ export interface StepSpec {
   config: unknown;
 }
 
-export type StepKind = "data" | "addenda" | "normalise" | "fit" | "derive" | "transition" | "entropy" | "note";
-
-/** A step's stored output: JSON-safe, with the state it hands down so caching can resume mid-chain. */
-export interface StepOutput {
-  kind: StepKind;
-  ok: boolean;
-  /** Set when the step could not be computed (bad configuration, missing input). */
-  error: string | null;
-  warnings: string[];
-  /** Step-specific result for display (tables, curves). */
-  result: unknown;
-  state: ChainState;
-}
+/** Kinds, configurations, results and outputs come from the registry (one list of kinds). */
+export type { StepKind, StepConfig, StepConfigInput, StepResult, StepOutput, StepOutputOf } from "./registry";
+import type { StepKind } from "./registry";
 
 /** The records a step reads outside the chain: hashed into its input hash. */
 export interface StepDependencies {

@@ -4,7 +4,7 @@
  */
 import { z } from "zod";
 import type { ChainContext, ChainState, Dataset } from "../types";
-import { StepFailure, type StepDefinition } from "./shared";
+import { StepFailure, defineStep } from "./shared";
 
 export const dataConfig = z.object({
   measurementIds: z.array(z.string().min(1)).min(1, "choose at least one measurement"),
@@ -18,7 +18,7 @@ function basisOf(b: "sample" | "molar" | "specific"): Dataset["basis"] {
   return b === "molar" ? "formula-unit" : b;
 }
 
-export const dataStep: StepDefinition<DataConfig> = {
+export const dataStep = defineStep({
   kind: "data",
   title: "Data selection",
   schema: dataConfig,
@@ -70,4 +70,4 @@ export const dataStep: StepDefinition<DataConfig> = {
       state: { dataset, fit: state.fit, fits: state.fits },
     };
   },
-};
+});
