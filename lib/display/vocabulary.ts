@@ -82,6 +82,7 @@ export const STEP_KINDS: Readonly<Record<StepKind, Term>> = Object.freeze({
   derive: { label: "Derived quantities" },
   transition: { label: "Superconducting transition" },
   entropy: { label: "Entropy and enthalpy" },
+  lattice: { label: "Lattice views" },
   note: { label: "Note" },
 });
 

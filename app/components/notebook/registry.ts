@@ -13,6 +13,7 @@ import { fitUi } from "./steps/fit";
 import { deriveUi } from "./steps/derive";
 import { transitionUi } from "./steps/transition";
 import { entropyUi } from "./steps/entropy";
+import { latticeUi } from "./steps/lattice";
 import { noteUi } from "./steps/note";
 
 export const STEP_UI: { readonly [K in StepKind]: StepUi<K> } = {
@@ -23,6 +24,7 @@ export const STEP_UI: { readonly [K in StepKind]: StepUi<K> } = {
   derive: deriveUi,
   transition: transitionUi,
   entropy: entropyUi,
+  lattice: latticeUi,
   note: noteUi,
 };
 

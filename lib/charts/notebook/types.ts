@@ -30,5 +30,6 @@ export type EntropyStepResult = StepResult<"entropy">;
 export type DeriveStepResult = StepResult<"derive">;
 export type NormaliseStepResult = StepResult<"normalise">;
 export type DataStepResult = StepResult<"data">;
+export type LatticeStepResult = StepResult<"lattice">;
 
 export type { Quantity, ScanResult, HeatCapacityFitResult, FitParameter };

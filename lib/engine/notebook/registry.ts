@@ -14,6 +14,7 @@ import { fitStep } from "./steps/fit";
 import { deriveStep } from "./steps/derive";
 import { transitionStep } from "./steps/transition";
 import { entropyStep } from "./steps/entropy";
+import { latticeStep } from "./steps/lattice";
 
 export const STEP_DEFINITIONS = {
   data: dataStep,
@@ -23,6 +24,7 @@ export const STEP_DEFINITIONS = {
   derive: deriveStep,
   transition: transitionStep,
   entropy: entropyStep,
+  lattice: latticeStep,
   note: noteStep,
 } as const satisfies { [K in string]: StepDefinition<K, z.ZodType, unknown> };
 
