@@ -61,3 +61,14 @@ export const CONSTANTS: readonly Constant[] = Object.freeze([
   entry("mu_0", "vacuum magnetic permeability", VACUUM_PERMEABILITY_N_PER_A2, "N A^-2", 0.00000000019e-6),
   entry("a_0", "Bohr radius", BOHR_RADIUS_M, "m", 0.00000000080e-11),
 ]);
+
+/**
+ * The constants a user expression may name when its caller opts in (joint fits): SI values,
+ * CODATA 2018 (R and k_B, N_A exact; μ_B 9.2740100783(28)e-24 J T⁻¹). Never fitted.
+ */
+export const NAMED_CONSTANTS: Readonly<Record<"R" | "kB" | "muB" | "NA", number>> = Object.freeze({
+  R: GAS_CONSTANT_J_PER_MOL_K,
+  kB: BOLTZMANN_J_PER_K,
+  muB: BOHR_MAGNETON_J_PER_T,
+  NA: AVOGADRO_PER_MOL,
+});

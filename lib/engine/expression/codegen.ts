@@ -66,9 +66,23 @@ export function emit(node: MathNode, symbols: ReadonlyMap<string, string>): stri
 /** Vectorised evaluator: out[i] = f(x[i]; p). */
 export type VectorFunction = (x: Float64Array, p: Float64Array, out: Float64Array, offset?: number) => void;
 
-/** Build a VectorFunction for `node` over variable `variable` and parameters `names`. */
-export function compileVector(node: MathNode, variable: string, names: readonly string[]): VectorFunction {
+/** Extra variables (read after the parameters in p) and named constants of a compilation. */
+export interface SymbolContext {
+  readonly extraVariables?: readonly string[];
+  readonly constants?: Readonly<Record<string, number>>;
+}
+
+/** Symbol → JS: the variable X, pi, e, named constants as literals, extra variables p[n + j]. */
+export function baseSymbols(variable: string, nParameters: number, context: SymbolContext = {}): Map<string, string> {
   const symbols = new Map<string, string>([[variable, "X"], ["pi", "Math.PI"], ["e", "Math.E"]]);
+  for (const [name, value] of Object.entries(context.constants ?? {})) symbols.set(name, `(${String(value)})`);
+  (context.extraVariables ?? []).forEach((name, j) => symbols.set(name, `p[${nParameters + j}]`));
+  return symbols;
+}
+
+/** Build a VectorFunction for `node` over variable `variable` and parameters `names`. */
+export function compileVector(node: MathNode, variable: string, names: readonly string[], context: SymbolContext = {}): VectorFunction {
+  const symbols = baseSymbols(variable, names.length, context);
   names.forEach((name, k) => symbols.set(name, `p[${k}]`));
   const body = emit(node, symbols);
   // Safe: `body` is built only from whitelisted node kinds, numeric literals and fixed identifiers.

@@ -1,7 +1,9 @@
 /**
  * Compile a user model y = f(variable; parameters) written in the mathjs language.
  *
- * Parameters are all symbols other than the variable and the constants pi, e. Values come
+ * Parameters are all symbols other than the variable and the constants pi, e (and, when the
+ * caller opts in, extra variables such as the field H and the named CODATA constants R, kB,
+ * muB, NA). Values come
  * from generated JS (codegen.ts); value and Jacobian together from forward-mode automatic
  * differentiation (forward.ts), whose size is linear in the expression and capped. The
  * parameters that enter linearly are found on the tree (linearity.ts): `linearParameters` is a
@@ -18,11 +20,20 @@ import { collectSymbols, CONSTANT_SYMBOLS, parseUserExpression } from "./validat
 import { compileVector, type VectorFunction } from "./codegen";
 import { compileValueAndJacobian, type ValueAndJacobian } from "./forward";
 import { linearParameters } from "./linearity";
+import { NAMED_CONSTANTS } from "../constants";
 
 export interface CompiledExpression {
   readonly text: string;
   readonly variable: string;
   readonly parameters: readonly string[];
+  /**
+   * Extra independent variables (opt-in, e.g. ["H"]), constant over one vector evaluation:
+   * their values follow the parameters in the vector p = [parameters…, variables…] given to
+   * evaluate/valueAndJacobian; the Jacobian has columns for the parameters only.
+   */
+  readonly variables: readonly string[];
+  /** Named physical constants (opt-in) the expression uses, e.g. ["R", "muB"]. */
+  readonly constants: readonly string[];
   /** true when f is affine in every parameter (decided on the tree). */
   readonly linear: boolean;
   /** Parameters in which f is jointly affine (all of them when `linear`). */
@@ -41,6 +52,16 @@ export interface CompiledExpression {
 export interface CompileOptions {
   /** Name of the independent variable; default "T" when used, else "x". */
   readonly variable?: string;
+  /**
+   * Extra independent variables (default none: every other letter is a parameter). Their
+   * values are appended to the parameter vector at evaluation (see CompiledExpression).
+   */
+  readonly extraVariables?: readonly string[];
+  /**
+   * Read R, kB, muB, NA as the CODATA 2018 constants (SI, constants.ts: NAMED_CONSTANTS)
+   * instead of parameters (default false, so existing expressions keep their meaning).
+   */
+  readonly namedConstants?: boolean;
 }
 
 function pickVariable(symbols: string[], requested?: string): string {
@@ -63,16 +84,22 @@ export function compileExpression(text: string, options: CompileOptions = {}): C
   const tree: MathNode = parseUserExpression(text);
   const symbols = collectSymbols(tree);
   const variable = pickVariable(symbols, options.variable);
-  const parameters = symbols.filter((s) => s !== variable && !CONSTANT_SYMBOLS.has(s));
+  const extra = (options.extraVariables ?? []).filter((v) => v !== variable);
+  const named = options.namedConstants ? NAMED_CONSTANTS : {};
+  const isConstant = (s: string) => CONSTANT_SYMBOLS.has(s) || Object.hasOwn(named, s);
+  const parameters = symbols.filter((s) => s !== variable && !isConstant(s) && !extra.includes(s));
   if (parameters.length === 0) throw new InputError(`invalid expression: ${JSON.stringify(text)} has no parameters to fit`, { field: "expression" });
-  const evaluate = compileVector(tree, variable, parameters);
-  const vj = compileValueAndJacobian(tree, variable, parameters);
+  const context = { extraVariables: extra, constants: named };
+  const evaluate = compileVector(tree, variable, parameters, context);
+  const vj = compileValueAndJacobian(tree, variable, parameters, context);
   const lin = linearParameters(tree, parameters);
   const linear = lin.length === parameters.length;
   return Object.freeze({
     text,
     variable,
     parameters: Object.freeze(parameters),
+    variables: Object.freeze([...extra]),
+    constants: Object.freeze(symbols.filter((s) => Object.hasOwn(named, s))),
     linear,
     linearParameters: Object.freeze(lin),
     evaluate,

@@ -14,6 +14,7 @@
  */
 import type { MathNode } from "mathjs";
 import { InputError } from "../errors";
+import { baseSymbols, type SymbolContext } from "./codegen";
 
 /** Limit on derivative terms in the compiled Jacobian (node × parameter pairs). */
 export const MAX_DERIVATIVE_TERMS = 20000;
@@ -152,8 +153,8 @@ function union(a: Emitted, b: Emitted): number[] {
 }
 
 /** Straight-line value + Jacobian code for `node`; `terms` is the derivative-term count. */
-export function compileValueAndJacobian(node: MathNode, variable: string, names: readonly string[]): { fn: ValueAndJacobian; terms: number; lines: number } {
-  const symbols = new Map<string, string>([[variable, "X"], ["pi", "Math.PI"], ["e", "Math.E"]]);
+export function compileValueAndJacobian(node: MathNode, variable: string, names: readonly string[], context: SymbolContext = {}): { fn: ValueAndJacobian; terms: number; lines: number } {
+  const symbols = baseSymbols(variable, names.length, context);
   const params = new Map(names.map((name, k) => [name, k] as const));
   const em = new Emitter(symbols, params);
   const root = em.node(node);

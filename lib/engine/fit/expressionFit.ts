@@ -37,7 +37,7 @@ export function expressionCore(c: CompiledExpression, units?: readonly string[])
 const WORK = 4e7;
 
 /** Model evaluations a search may spend on m points of `c`. */
-export function searchBudget(c: CompiledExpression, m: number): number {
+export function searchBudget(c: Pick<CompiledExpression, "derivativeTerms">, m: number): number {
   return Math.max(300, Math.min(40000, Math.floor(WORK / (m * (c.derivativeTerms + 8)))));
 }
 
@@ -45,20 +45,38 @@ export function searchBudget(c: CompiledExpression, m: number): number {
 const LM_WORK = 2e7;
 
 /** Evaluation limit of each local LM fit of `c` on m points (at most the usual 2 000). */
-export function localFitLimit(c: CompiledExpression, m: number): number {
+export function localFitLimit(c: Pick<CompiledExpression, "derivativeTerms">, m: number): number {
   return Math.max(30, Math.min(2000, Math.floor(LM_WORK / (m * (c.derivativeTerms + 8)))));
 }
 
 /** Fit `c` with start values `opt.start` (NaN = none given). */
 export function fitExpression(c: CompiledExpression, x: Float64Array, y: Float64Array, sigma: Float64Array | null, opt0: CoreOptions): FitResult {
-  const limit = Math.min(opt0.lm?.maxEvaluations ?? 2000, localFitLimit(c, x.length));
+  return fitSeparableCore({ core: expressionCore(c), linearParameters: c.linearParameters, derivativeTerms: c.derivativeTerms }, x, y, sigma, opt0);
+}
+
+/**
+ * A model core with the structure fitExpression uses: the names in which it is jointly affine
+ * (core.linear when that is all of them), its compiled size for the work budget, and
+ * optionally the scale of the independent variable for the multi-start (when x is not it,
+ * e.g. a point index in a joint fit).
+ */
+export interface SeparableCore {
+  readonly core: ModelCore;
+  readonly linearParameters: readonly string[];
+  readonly derivativeTerms: number;
+  readonly xScale?: readonly [number, number];
+}
+
+/** fitExpression's strategy on any SeparableCore (see the module comment). */
+export function fitSeparableCore(model: SeparableCore, x: Float64Array, y: Float64Array, sigma: Float64Array | null, opt0: CoreOptions): FitResult {
+  const limit = Math.min(opt0.lm?.maxEvaluations ?? 2000, localFitLimit(model, x.length));
   const opt: CoreOptions = { ...opt0, lm: { ...opt0.lm, maxEvaluations: limit } };
-  const core = expressionCore(c);
-  if (c.linear) return fitCore(core, x, y, sigma, opt);
-  const free = c.parameters.map((_, j) => j).filter((j) => !opt.fixed[j]);
-  const linear = free.filter((j) => c.linearParameters.includes(c.parameters[j]));
+  const core = model.core;
+  if (core.linear) return fitCore(core, x, y, sigma, opt);
+  const free = core.names.map((_, j) => j).filter((j) => !opt.fixed[j]);
+  const linear = free.filter((j) => model.linearParameters.includes(core.names[j]));
   const nonlinear = free.filter((j) => !linear.includes(j));
-  const search = { linear, nonlinear, axes: null, budget: searchBudget(c, x.length) };
+  const search = { linear, nonlinear, axes: null, budget: searchBudget(model, x.length), xScale: model.xScale };
   const start = new Float64Array(opt.start);
   if (nonlinear.some((j) => !Number.isFinite(start[j]))) return fitGlobal(core, x, y, sigma, opt, { ...search, extraStarts: [start] });
   if (linear.some((j) => !Number.isFinite(start[j]))) {

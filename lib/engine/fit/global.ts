@@ -32,6 +32,8 @@ export interface GlobalSearch {
   readonly budget: number;
   /** LM only from extraStarts (the caller's own start); the search only checks the end point. */
   readonly startsOnly?: boolean;
+  /** Smallest and largest |x| of the independent variable, for the multi-start when x is not it (default: from x). */
+  readonly xScale?: readonly [number, number];
 }
 
 const GRID_POINTS: Record<number, number> = { 1: 121, 2: 31, 3: 11 };
@@ -149,7 +151,7 @@ function scaleOf(x: Float64Array): [number, number] | undefined {
 function multiStart(prob: SeparableProblem, search: GlobalSearch) {
   const q = prob.nonlinear.length;
   const own = search.extraStarts.map((s) => prob.nonlinear.map((j) => s[j])).filter((t) => t.every(Number.isFinite));
-  const thetas = [...own, ...multiStartThetas(q, q <= 3 ? 48 : 64, scaleOf(prob.x))];
+  const thetas = [...own, ...multiStartThetas(q, q <= 3 ? 48 : 64, search.xScale ?? scaleOf(prob.x))];
   const candidates: Candidate[] = [];
   let bestSeen = Infinity;
   let tried = 0;

@@ -10,4 +10,6 @@ export { runsTest, type RunsTestResult } from "./runsTest";
 export { applyWeighting, describeQuality, type WeightingChoice, type AppliedWeighting } from "./weighting";
 export { fitGlobal, multiStartThetas, type GlobalSearch } from "./global";
 export { solveAmplitudes, projected, gridSearch, reducedFit, type SeparableProblem, type Candidate, type Axis } from "./separable";
-export { fitExpression, searchBudget, localFitLimit } from "./expressionFit";
+export { fitExpression, fitSeparableCore, searchBudget, localFitLimit, type SeparableCore } from "./expressionFit";
+export { fitJoint, type JointMeasurement, type JointFitOptions, type JointParameter, type JointFitResult, type JointMeasurementResult } from "./joint";
+export { JOINT_MODELS, compileJointExpression, type JointModelSpec, type JointParameterSpec, type JointRangeData } from "./jointModels";
