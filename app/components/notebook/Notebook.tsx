@@ -22,6 +22,7 @@ interface Props {
   initialThreads: ThreadData[];
   initialNotes: Record<string, string>;
   models: ModelInfo[];
+  jointModels: ModelInfo[];
   measurements: MeasurementChoice[];
   meId: string;
   members: Record<string, string>;
@@ -104,9 +105,9 @@ export function Notebook(props: Props) {
 
   const startThread = useCallback((stepId: string | null, anchor: Anchor | null) => setComposer({ stepId, anchor }), []);
   const ctx: NotebookContext = useMemo(() => ({
-    slug, apiBase, analysisId, editable: nb.editable, canComment: props.canComment, models: props.models, measurements: props.measurements,
+    slug, apiBase, analysisId, editable: nb.editable, canComment: props.canComment, models: props.models, jointModels: props.jointModels, measurements: props.measurements,
     steps: nb.steps, revisionVersion: nb.revision.version, revisionId: nb.revision.id, threads, refresh, startThread, mentionables: props.mentionables,
-  }), [slug, apiBase, analysisId, nb, props.canComment, props.models, props.measurements, threads, refresh, startThread, props.mentionables]);
+  }), [slug, apiBase, analysisId, nb, props.canComment, props.models, props.jointModels, props.measurements, threads, refresh, startThread, props.mentionables]);
 
   const basisAt = (i: number) => {
     for (let k = i - 1; k >= 0; k--) {

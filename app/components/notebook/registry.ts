@@ -14,6 +14,8 @@ import { deriveUi } from "./steps/derive";
 import { transitionUi } from "./steps/transition";
 import { entropyUi } from "./steps/entropy";
 import { latticeUi } from "./steps/lattice";
+import { jointFitUi } from "./steps/jointFit";
+import { gammaFieldUi } from "./steps/gammaField";
 import { noteUi } from "./steps/note";
 
 export const STEP_UI: { readonly [K in StepKind]: StepUi<K> } = {
@@ -21,8 +23,10 @@ export const STEP_UI: { readonly [K in StepKind]: StepUi<K> } = {
   addenda: addendaUi,
   normalise: normaliseUi,
   fit: fitUi,
+  "joint-fit": jointFitUi,
   derive: deriveUi,
   transition: transitionUi,
+  "gamma-field": gammaFieldUi,
   entropy: entropyUi,
   lattice: latticeUi,
   note: noteUi,

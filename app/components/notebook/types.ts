@@ -78,7 +78,7 @@ export interface ModelInfo {
   name: string;
   title: string;
   formula: string;
-  parameters: { name: string; displayUnit: string; displayFactor: number; description: string }[];
+  parameters: { name: string; displayUnit: string; displayFactor: number; description: string; symbol?: string; defaultShared?: boolean }[];
 }
 
 export interface MeasurementChoice {
@@ -100,6 +100,8 @@ export interface NotebookContext {
   editable: boolean;
   canComment: boolean;
   models: ModelInfo[];
+  /** Models for fits across fields (joint fit step). */
+  jointModels: ModelInfo[];
   measurements: MeasurementChoice[];
   steps: StepView[];
   revisionVersion: number;

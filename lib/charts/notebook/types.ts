@@ -31,5 +31,7 @@ export type DeriveStepResult = StepResult<"derive">;
 export type NormaliseStepResult = StepResult<"normalise">;
 export type DataStepResult = StepResult<"data">;
 export type LatticeStepResult = StepResult<"lattice">;
+export type JointFitStepResult = StepResult<"joint-fit">;
+export type GammaFieldStepResult = StepResult<"gamma-field">;
 
 export type { Quantity, ScanResult, HeatCapacityFitResult, FitParameter };

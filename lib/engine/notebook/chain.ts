@@ -47,6 +47,10 @@ export function computeStep(spec: StepSpec, state: ChainState, ctx: ChainContext
       const fit = { ...next.fit, stepId: spec.id };
       next = { ...next, fit, fits: { ...next.fits, [spec.id]: fit } };
     }
+    if (next.jointFit && next.jointFit !== state.jointFit) {
+      const jointFit = { ...next.jointFit, stepId: spec.id };
+      next = { ...next, jointFit, jointFits: { ...(next.jointFits ?? {}), [spec.id]: jointFit } };
+    }
     return { kind: spec.kind, ok: true, error: null, warnings: r.warnings, result: r.result, state: next } as StepOutput;
   } catch (err) {
     if (err instanceof StepFailure || err instanceof InputError) return failed(spec, err.message, err.field, state);

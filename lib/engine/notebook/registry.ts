@@ -15,14 +15,18 @@ import { deriveStep } from "./steps/derive";
 import { transitionStep } from "./steps/transition";
 import { entropyStep } from "./steps/entropy";
 import { latticeStep } from "./steps/lattice";
+import { jointFitStep } from "./steps/jointFit";
+import { gammaFieldStep } from "./steps/gammaField";
 
 export const STEP_DEFINITIONS = {
   data: dataStep,
   addenda: addendaStep,
   normalise: normaliseStep,
   fit: fitStep,
+  "joint-fit": jointFitStep,
   derive: deriveStep,
   transition: transitionStep,
+  "gamma-field": gammaFieldStep,
   entropy: entropyStep,
   lattice: latticeStep,
   note: noteStep,
