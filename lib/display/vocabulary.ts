@@ -206,7 +206,7 @@ export function configPathLabel(path: string): string {
 
 /** A result key of the revision diff, "derive#1:thetaD" → "Derived quantities" (the step, numbered when repeated). */
 export function stepRefLabel(ref: string): string {
-  const m = /^([a-z]+)#(\d+)$/.exec(ref);
+  const m = /^([a-z][a-z-]*)#(\d+)$/.exec(ref);
   if (!m) return words(ref);
   return `${stepKindLabel(m[1]!)}${m[2] !== "1" ? ` ${m[2]}` : ""}`;
 }
