@@ -4,17 +4,19 @@ import { NumField } from "../fields";
 import { BASIS_LABEL, num } from "../display";
 import { DataView } from "../DataView";
 import { formatCount, formatRange } from "@/lib/display";
-import { n, type FormProps, type StepUi } from "./ui";
+import { n, useFault, type FormProps, type StepUi } from "./ui";
 
 function DataForm(p: FormProps<"data">) {
   const chosen = new Set((p.draft.measurementIds as string[] | undefined) ?? []);
   const excluded = (p.draft.excluded as { measurementId: string; index: number; reason: string }[] | undefined) ?? [];
   const mine = p.ctx.measurements.filter((m) => m.kind === "sample");
   const label = new Map(p.ctx.measurements.map((m) => [m.id, m.label]));
+  const fault = useFault("measurementIds");
   return (
     <>
-      <fieldset className="wide nb-fieldset">
+      <fieldset className={`wide nb-fieldset${fault ? " nb-fault" : ""}`}>
         <legend>Measurements of this sample</legend>
+        {fault && <p className="field-error" data-testid="field-fault">{fault}</p>}
         {mine.length === 0 && <p className="muted">This sample has no measurements yet.</p>}
         {mine.map((m) => (
           <label key={m.id} className="checkbox">
