@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { redirect } from "next/navigation";
 import { currentUser } from "@/lib/server/session";
-import { getDb } from "@/lib/server/db/client";
+import { database as getDb } from "@/lib/server/database";
 import { listMyGroups } from "@/lib/server/groups";
 import { groupPaths } from "@/app/_lib/paths";
 

@@ -4,7 +4,7 @@
  * (a group the caller does not belong to does not exist for them).
  */
 import { notFound, redirect } from "next/navigation";
-import { getDb, type Db } from "@/lib/server/db/client";
+import { database as getDb, type Db } from "@/lib/server/database";
 import { currentUser } from "@/lib/server/session";
 import { memberOf, type Member } from "@/lib/server/access";
 import { NotFoundError } from "@/lib/engine/errors";

@@ -4,7 +4,7 @@
  */
 import Link from "next/link";
 import { currentUser } from "@/lib/server/session";
-import { getDb } from "@/lib/server/db/client";
+import { database as getDb } from "@/lib/server/database";
 import { listMyGroups } from "@/lib/server/groups";
 import { listNotices } from "@/lib/server/review";
 import { Logo } from "./Logo";

@@ -9,7 +9,7 @@ import type { PlotOptions, ScaleOptions } from "@observablehq/plot";
 import { fitPlot, residualPlot, fitRows, defaultMaxTK } from "./notebook/fit";
 import { scanPlot } from "./notebook/scan";
 import { seriesPlot, type SeriesPlotOptions } from "./series";
-import type { FitStepResult, ScanResult, MoleBasis } from "./notebook/types";
+import type { FitPlotData, ScanResult, MoleBasis } from "./notebook/types";
 
 export const COLUMN_WIDTHS_CM = Object.freeze({ single: 8.5, double: 17.5 });
 export type ColumnWidth = keyof typeof COLUMN_WIDTHS_CM;
@@ -44,7 +44,7 @@ export function forPaper(options: PlotOptions, fontSize: number, height: number,
  * basis (per mole formula unit or of atoms) belongs in the caption: an axis title that long
  * would not fit the panel's height.
  */
-export function fitFigure(r: FitStepResult, paper: PaperOptions): PlotOptions[] {
+export function fitFigure(r: FitPlotData, paper: PaperOptions): PlotOptions[] {
   const fs = paper.fontSize ?? 8, w = paper.widthPt;
   const maxTK = defaultMaxTK(r);
   const xMax = Math.max(...fitRows(r, maxTK).map((d) => d.x), r.window.tMaxK ** 2);

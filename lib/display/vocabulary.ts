@@ -79,9 +79,12 @@ export const STEP_KINDS: Readonly<Record<StepKind, Term>> = Object.freeze({
   addenda: { label: "Addenda subtraction" },
   normalise: { label: "Normalisation per mole" },
   fit: { label: "Fit" },
+  "joint-fit": { label: "Joint fit across fields" },
   derive: { label: "Derived quantities" },
   transition: { label: "Superconducting transition" },
+  "gamma-field": { label: "γ(H) of a superconductor" },
   entropy: { label: "Entropy and enthalpy" },
+  lattice: { label: "Lattice views" },
   note: { label: "Note" },
 });
 
@@ -203,7 +206,7 @@ export function configPathLabel(path: string): string {
 
 /** A result key of the revision diff, "derive#1:thetaD" → "Derived quantities" (the step, numbered when repeated). */
 export function stepRefLabel(ref: string): string {
-  const m = /^([a-z]+)#(\d+)$/.exec(ref);
+  const m = /^([a-z][a-z-]*)#(\d+)$/.exec(ref);
   if (!m) return words(ref);
   return `${stepKindLabel(m[1]!)}${m[2] !== "1" ? ` ${m[2]}` : ""}`;
 }

@@ -47,11 +47,11 @@ describe("computeChain", () => {
   it("computeChain recovers γ and β within 3σ of the synthetic truth and derives Θ_D from β", () => {
     const out = computeChain(chain, context());
     expect(out.map((o) => o.error)).toEqual([null, null, null, null, null]);
-    const fit = (out[3]!.result as { fit: { parameters: { name: string; value: number; stdError: number }[] } }).fit;
+    const fit = (out[3]!.result as unknown as { fit: { parameters: { name: string; value: number; stdError: number }[] } }).fit;
     const g = fit.parameters.find((p) => p.name === "gamma")!, b = fit.parameters.find((p) => p.name === "beta")!;
     expect(Math.abs(g.value - GAMMA)).toBeLessThan(3 * g.stdError);
     expect(Math.abs(b.value - BETA)).toBeLessThan(3 * b.stdError);
-    const q = (out[4]!.result as { quantities: { name: string; value: number }[] }).quantities;
+    const q = (out[4]!.result as unknown as { quantities: { name: string; value: number }[] }).quantities;
     const thetaD = q.find((x) => x.name === "thetaD")!.value;
     // Analytic identity: Θ_D = (12π⁴R/(5β))^{1/3} with r = 1.
     expectClose(thetaD, Math.cbrt((12 * Math.PI ** 4 * GAS_CONSTANT_J_PER_MOL_K) / (5 * b.value)), { rel: 1e-9 });
@@ -69,7 +69,7 @@ describe("computeChain", () => {
     const out = computeChain(steps, context());
     expect(out[4]!.ok).toBe(true);
     expect(out[5]!.error).toBeNull();
-    expect((out[5]!.result as { fitStepId: string }).fitStepId).toBe("f");
+    expect((out[5]!.result as unknown as { fitStepId: string }).fitStepId).toBe("f");
   });
 
   it("computeChain reports a fit above a missing normalisation as a step error, not an exception", () => {
@@ -91,8 +91,8 @@ describe("computeChain", () => {
 
   it("computeChain with a narrower window changes γ only within its uncertainty", () => {
     const ctx = context();
-    const wide = computeChain(chain, ctx)[3]!.result as { fit: { parameters: { name: string; value: number; stdError: number }[] } };
-    const narrow = computeChain([...chain.slice(0, 3), { id: "f", kind: "fit", config: { model: "sommerfeld", tMinK: 2, tMaxK: 5 } }], ctx)[3]!.result as typeof wide;
+    const wide = computeChain(chain, ctx)[3]!.result as unknown as { fit: { parameters: { name: string; value: number; stdError: number }[] } };
+    const narrow = computeChain([...chain.slice(0, 3), { id: "f", kind: "fit", config: { model: "sommerfeld", tMinK: 2, tMaxK: 5 } }], ctx)[3]!.result as unknown as typeof wide;
     const gw = wide.fit.parameters[0]!, gn = narrow.fit.parameters[0]!;
     expect(gn.value).not.toBe(gw.value);
     expect(Math.abs(gn.value - gw.value)).toBeLessThan(3 * gn.stdError);
@@ -100,7 +100,7 @@ describe("computeChain", () => {
 
   it("computeChain excludes hand-picked points and keeps their reason", () => {
     const out = computeChain([{ id: "d", kind: "data", config: { measurementIds: ["m1"], excluded: [{ measurementId: "m1", index: 3, reason: "heater glitch" }] } }], context());
-    const r = out[0]!.result as { points: number; excluded: { reason: string }[] };
+    const r = out[0]!.result as unknown as { points: number; excluded: { reason: string }[] };
     expect(r.points).toBe(119);
     expect(r.excluded[0]!.reason).toBe("heater glitch");
   });

@@ -35,7 +35,7 @@ describe("fit step with recommend", () => {
   it("fit step with recommend fits the recommended model and window and hands γ with both σ to the derive step", () => {
     const out = computeChain(steps({ recommend: true }), context(true));
     expect(out[1]!.ok, JSON.stringify(out[1]!.error)).toBe(true);
-    const r = out[1]!.result as FitOut;
+    const r = out[1]!.result as unknown as FitOut;
     const rec = r.recommendation!;
     expect(rec.recommended).toBe(true);
     expect(r.fit.modelName).toBe(rec.model);
@@ -44,9 +44,9 @@ describe("fit step with recommend", () => {
     expectClose(g.value, rec.gamma, { rel: 1e-6 });
     expect(Math.abs(g.value - TRUTH.gamma)).toBeLessThanOrEqual(3 * Math.hypot(rec.gammaStdError, rec.gammaSystematicError));
     expect(rec.candidates.map((c) => c.model)).toEqual(["sommerfeld", "sommerfeld-t5", "nuclear", "schottky"]);
-    const stored = (out[1]!.result as { summary: { gamma: { systematicError: number } } }).summary;
+    const stored = (out[1]!.result as unknown as { summary: { gamma: { systematicError: number } } }).summary;
     expect(stored.gamma.systematicError).toBe(rec.gammaSystematicError);
-    const q = (out[2]!.result as { quantities: { name: string; value: number; stdError: number; systematicError?: number }[] }).quantities;
+    const q = (out[2]!.result as unknown as { quantities: { name: string; value: number; stdError: number; systematicError?: number }[] }).quantities;
     const gq = q.find((x) => x.name === "gamma")!;
     expectClose(gq.systematicError!, rec.gammaSystematicError * 1e3, { rel: 1e-9 });
     const th = q.find((x) => x.name === "thetaD")!;
@@ -62,8 +62,8 @@ describe("fit step with recommend", () => {
   });
   it("fit step without recommend leaves the systematic σ out", () => {
     const out = computeChain(steps({ tMinK: 2, tMaxK: 15 }), context(true));
-    expect((out[1]!.result as { summary: { gamma: { systematicError?: number } } }).summary.gamma.systematicError).toBeUndefined();
-    const q = (out[2]!.result as { quantities: { name: string; systematicError?: number }[] }).quantities;
+    expect((out[1]!.result as unknown as { summary: { gamma: { systematicError?: number } } }).summary.gamma.systematicError).toBeUndefined();
+    const q = (out[2]!.result as unknown as { quantities: { name: string; systematicError?: number }[] }).quantities;
     expect(q.find((x) => x.name === "gamma")!.systematicError).toBeUndefined();
   });
 });
@@ -71,7 +71,7 @@ describe("fit step with recommend", () => {
 describe("fit step weighting", () => {
   it("fit step on data without σ: unweighted reports the residual standard deviation, no χ²_red, and says so", () => {
     const out = computeChain(steps({ weighting: "none", tMinK: 3 }), context(false));
-    const r = out[1]!.result as FitOut;
+    const r = out[1]!.result as unknown as FitOut;
     expect(r.weighting.kind).toBe("none");
     expect(r.weighting.sigmaKnown).toBe(false);
     expect(r.quality.reducedChiSquare).toBeNull();
@@ -80,19 +80,19 @@ describe("fit step weighting", () => {
   });
   it("fit step with a relative σ weights by p % of C and reports χ²_red near 1 when p matches the noise", () => {
     const out = computeChain(steps({ weighting: "relative", relativeSigmaPercent: 0.5, tMinK: 3 }), context(false));
-    const r = out[1]!.result as FitOut;
+    const r = out[1]!.result as unknown as FitOut;
     expect(r.weighting.text).toBe("weighted by an assumed σ = 0.5 % of C");
     expect(r.quality.reducedChiSquare!).toBeGreaterThan(0.7);
     expect(r.quality.reducedChiSquare!).toBeLessThan(1.4);
     // the same fit as weighting by the data's own σ = 0.5 % of the noise-free C, to within the noise's effect on the weights
     const ref = computeChain(steps({ weighting: "sigma", tMinK: 3 }), context(true));
-    const g = (o: typeof out) => (o[1]!.result as FitOut).fit.parameters.find((p) => p.name === "gamma")!;
+    const g = (o: typeof out) => (o[1]!.result as unknown as FitOut).fit.parameters.find((p) => p.name === "gamma")!;
     expect(Math.abs(g(out).value - g(ref).value)).toBeLessThan(0.2 * g(ref).stdError);
   });
   it("fit step with an absolute σ weights every point equally and keeps standard errors unscaled", () => {
     const a = computeChain(steps({ weighting: "absolute", absoluteSigmaSI: 1e-4, tMinK: 3 }), context(false));
     const b = computeChain(steps({ weighting: "absolute", absoluteSigmaSI: 2e-4, tMinK: 3 }), context(false));
-    const ra = a[1]!.result as FitOut, rb = b[1]!.result as FitOut;
+    const ra = a[1]!.result as unknown as FitOut, rb = b[1]!.result as unknown as FitOut;
     expect(ra.weighting.text).toMatch(/assumed σ = 0\.0001 J mol⁻¹ K⁻¹ for every point/);
     const ga = ra.fit.parameters[0]!, gb = rb.fit.parameters[0]!;
     expectClose(ga.value, gb.value, { rel: 1e-10 });

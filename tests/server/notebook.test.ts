@@ -33,7 +33,7 @@ beforeAll(async () => {
 afterAll(async () => { await t.drop(); });
 
 const gammaOf = (nb: Awaited<ReturnType<typeof openNotebook>>) => {
-  const fit = nb.steps.find((s) => s.kind === "fit")!.output!.result as { fit: { parameters: { name: string; value: number }[] } };
+  const fit = nb.steps.find((s) => s.kind === "fit")!.output!.result as unknown as { fit: { parameters: { name: string; value: number }[] } };
   return fit.fit.parameters.find((p) => p.name === "gamma")!.value;
 };
 
@@ -145,7 +145,7 @@ describe("notebooks", () => {
 
   it("the fit step's output names each point's measurement and index, packed", async () => {
     const nb = await openNotebook(t.db, g.members.analyst, analysisId);
-    const r = nb.steps.find((s) => s.kind === "fit")!.output!.result as { points: { temperatureK: number[]; source: PackedSources } };
+    const r = nb.steps.find((s) => s.kind === "fit")!.output!.result as unknown as { points: { temperatureK: number[]; source: PackedSources } };
     const m = await t.db.measurement.findFirstOrThrow({ where: { groupId: g.members.analyst.group.id } });
     expect(r.points.source.measurementIds).toEqual([m.id]);
     expect(r.points.source.index).toHaveLength(r.points.temperatureK.length);

@@ -96,7 +96,7 @@ describe("verifyRevision", () => {
 
   it("reproduceSnapshot with a perturbed stored γ says differs under the same engine, within tolerance across versions", async () => {
     const s = structuredClone((await t.db.analysisRevision.findUniqueOrThrow({ where: { id: sealedId } })).snapshot) as unknown as RevisionSnapshot;
-    const fit = (s.outputs.steps[2]!.output.result as { fit: { parameters: { value: number }[] } }).fit;
+    const fit = (s.outputs.steps[2]!.output.result as unknown as { fit: { parameters: { value: number }[] } }).fit;
     fit.parameters[0]!.value *= 1 + 1e-12;
     const same = reproduceSnapshot(s);
     expect(same[2]).toMatchObject({ outcome: "differs", firstDifference: "result.fit.parameters[0].value" });

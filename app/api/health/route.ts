@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { route } from "@/lib/server/http";
-import { getDb, sqlRows } from "@/lib/server/db/client";
+import { pingDatabase } from "@/lib/server/database";
 
 export const dynamic = "force-dynamic";
 
@@ -16,6 +16,6 @@ const answer = (json: string) => new NextResponse(json, { headers: { "content-ty
  */
 export const GET = route(async (req: Request) => {
   if (new URL(req.url).searchParams.get("db") !== "1") return answer('{"status":"ok"}');
-  await sqlRows(getDb(), "SELECT 1 AS one", []); // when PostgreSQL is unreachable, route() answers 503 with the reason
+  await pingDatabase(); // when PostgreSQL is unreachable, route() answers 503 with the reason
   return answer('{"status":"ok","database":"ok"}');
 });

@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { route, jsonBody } from "@/lib/server/http";
-import { getDb } from "@/lib/server/db/client";
+import { database as getDb } from "@/lib/server/database";
 import { signUp } from "@/lib/server/users";
 import { assertSameOrigin } from "@/lib/server/handler";
 

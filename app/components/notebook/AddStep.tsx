@@ -2,10 +2,12 @@
 /** "Add step below": choose a kind, the server adds it with its defaults at that position. */
 import { useId, useState } from "react";
 import { callJson } from "@/app/_lib/api";
-import { KIND_HINT, KIND_LABEL } from "./display";
+import { STEP_UI, kindLabel } from "./registry";
 import type { NotebookContext } from "./types";
+import type { StepKind } from "@/lib/engine/notebook/registry";
 
-const KINDS = ["data", "addenda", "normalise", "fit", "derive", "transition", "entropy", "note"] as const;
+/** Every kind, in the client registry's order. */
+const KINDS = Object.keys(STEP_UI) as StepKind[];
 
 export function AddStep({ ctx, position, label }: { ctx: NotebookContext; position: number; label: string }) {
   const id = useId();
@@ -24,7 +26,7 @@ export function AddStep({ ctx, position, label }: { ctx: NotebookContext; positi
     <span className="nb-add">
       <label htmlFor={id} className="sr-only">Kind of step</label>
       <select id={id} value={kind} onChange={(e) => setKind(e.target.value)} data-testid="add-step-kind">
-        {KINDS.map((k) => <option key={k} value={k}>{KIND_LABEL[k]} — {KIND_HINT[k]}</option>)}
+        {KINDS.map((k) => <option key={k} value={k}>{kindLabel(k)} — {STEP_UI[k].hint}</option>)}
       </select>
       <button type="button" className="small" onClick={add} data-testid="add-step">Add</button>
       <button type="button" className="quiet small" onClick={() => setOpen(false)}>Cancel</button>

@@ -13,7 +13,7 @@ import { AddStep } from "./AddStep";
 import { Threads, type Composer } from "./Threads";
 import { RevisionBar } from "./RevisionBar";
 import { ReviewBar } from "@/app/components/review/ReviewBar";
-import { KIND_LABEL } from "./display";
+import { kindLabel } from "./registry";
 import type { Anchor, MeasurementChoice, ModelInfo, NotebookContext, NotebookData, ThreadData } from "./types";
 
 interface Props {
@@ -22,6 +22,7 @@ interface Props {
   initialThreads: ThreadData[];
   initialNotes: Record<string, string>;
   models: ModelInfo[];
+  jointModels: ModelInfo[];
   measurements: MeasurementChoice[];
   meId: string;
   members: Record<string, string>;
@@ -104,9 +105,9 @@ export function Notebook(props: Props) {
 
   const startThread = useCallback((stepId: string | null, anchor: Anchor | null) => setComposer({ stepId, anchor }), []);
   const ctx: NotebookContext = useMemo(() => ({
-    slug, apiBase, analysisId, editable: nb.editable, canComment: props.canComment, models: props.models, measurements: props.measurements,
+    slug, apiBase, analysisId, editable: nb.editable, canComment: props.canComment, models: props.models, jointModels: props.jointModels, measurements: props.measurements,
     steps: nb.steps, revisionVersion: nb.revision.version, revisionId: nb.revision.id, threads, refresh, startThread, mentionables: props.mentionables,
-  }), [slug, apiBase, analysisId, nb, props.canComment, props.models, props.measurements, threads, refresh, startThread, props.mentionables]);
+  }), [slug, apiBase, analysisId, nb, props.canComment, props.models, props.jointModels, props.measurements, threads, refresh, startThread, props.mentionables]);
 
   const basisAt = (i: number) => {
     for (let k = i - 1; k >= 0; k--) {
@@ -125,7 +126,7 @@ export function Notebook(props: Props) {
       {flash && <div className="nb-flash" role="status" data-testid="live-notice">{flash}</div>}
       {(nb.computing || progress) && (
         <div className="nb-flash" role="status" data-testid="computing-notice">
-          Computing in the background{progress ? `: step ${progress.position + 1} (${KIND_LABEL[nb.steps[progress.position]?.kind ?? ""] ?? "step"}), ${Math.floor(progress.runningMs / 1000)} s so far` : ""}. The page updates when it ends.
+          Computing in the background{progress ? `: step ${progress.position + 1} (${kindLabel(nb.steps[progress.position]?.kind ?? "step")}), ${Math.floor(progress.runningMs / 1000)} s so far` : ""}. The page updates when it ends.
         </div>
       )}
       {loadError && <p className="form-error" role="alert">The notebook could not be re-read: {loadError}</p>}

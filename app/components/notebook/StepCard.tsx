@@ -7,15 +7,10 @@
  */
 import { useState } from "react";
 import { callJson } from "@/app/_lib/api";
-import type { FitStepResult, AddendaStepResult, DeriveStepResult, TransitionStepResult, EntropyStepResult } from "@/lib/charts/notebook";
-import { KIND_LABEL, when } from "./display";
-import { summaryLine, TYPESET_SUMMARY } from "./summary";
+import { when } from "./display";
 import { Sym } from "../Sym";
-import { StepForm, type Draft } from "./StepForm";
-import { FitView } from "./FitView";
-import { JobsPanel } from "@/app/components/jobs/JobsPanel";
-import { DataView } from "./DataView";
-import { AddendaView, DeriveView, EntropyView, NormaliseView, TransitionView } from "./ResultViews";
+import { kindLabel, stepUi } from "./registry";
+import { FieldFault } from "./steps/ui";
 import { AddStep } from "./AddStep";
 import type { NotebookContext, StepView } from "./types";
 
@@ -27,6 +22,8 @@ interface Props {
   noteHtml: string | null;
   basisAbove: "formula-unit" | "atom" | undefined;
 }
+
+type Draft = Record<string, unknown>;
 
 interface Conflict {
   message: string;
@@ -57,13 +54,14 @@ function NewerValues({ mine, theirs, note, onKeep, onTake }: { mine: Draft; thei
 }
 
 export function StepCard({ step, first, last, ctx, noteHtml, basisAbove }: Props) {
-  const [jobsOpen, setJobsOpen] = useState(false);
   const [open, setOpen] = useState(false);
   const [draft, setDraft] = useState<Draft>(step.config);
   const [title, setTitle] = useState(step.title);
   const [base, setBase] = useState<{ version: number; config: Draft }>({ version: step.version, config: step.config });
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
+  /** The configuration field the server refused on the last save ("config.tMinK" → "tMinK"). */
+  const [saveFault, setSaveFault] = useState<{ field: string; message: string } | null>(null);
   const [conflict, setConflict] = useState<Conflict | null>(null);
   const url = `${ctx.apiBase}/analyses/${ctx.analysisId}/steps/${step.id}`;
   const threads = ctx.threads.filter((t) => t.stepId === step.id);
@@ -82,6 +80,7 @@ export function StepCard({ step, first, last, ctx, noteHtml, basisAbove }: Props
   async function patch(config: Draft, version: number, newTitle?: string): Promise<boolean> {
     setBusy(true);
     setError(null);
+    setSaveFault(null);
     const res = await callJson<{ version: number }>(url, "PATCH", { version, config, ...(newTitle !== undefined ? { title: newTitle } : {}) });
     setBusy(false);
     if (res.ok) {
@@ -99,7 +98,9 @@ export function StepCard({ step, first, last, ctx, noteHtml, basisAbove }: Props
       }
       return false;
     }
-    setError(res.field ? `${res.field}: ${res.error}` : res.error);
+    const field = res.field?.startsWith("config.") ? res.field.slice("config.".length) : null;
+    setSaveFault(field ? { field, message: res.error ?? "not accepted" } : null);
+    setError(field ? `Not saved: ${res.error} (the marked setting)` : res.field ? `${res.field}: ${res.error}` : res.error);
     return false;
   }
 
@@ -117,22 +118,26 @@ export function StepCard({ step, first, last, ctx, noteHtml, basisAbove }: Props
   }
 
   async function remove() {
-    if (!window.confirm(`Remove the step "${step.title || KIND_LABEL[step.kind]}"? Steps below it are recomputed without it.`)) return;
+    if (!window.confirm(`Remove the step "${step.title || kindLabel(step.kind)}"? Steps below it are recomputed without it.`)) return;
     const res = await callJson(`${url}?revisionVersion=${ctx.revisionVersion}`, "DELETE");
     if (!res.ok) setError(res.error);
     await ctx.refresh();
   }
 
   const o = step.output;
-  const summary = summaryLine(step);
+  const ui = stepUi(step.kind);
+  const summary = o?.ok && ui ? ui.summary(o.result as never, step) : null;
+  const label = kindLabel(step.kind);
+  // The field the computation (or the last save) named as wrong: the form marks it.
+  const fault = saveFault ?? (o && !o.ok && o.field ? { field: o.field, message: o.error ?? "" } : null);
   const changedMeanwhile = open && !conflict && step.version !== base.version;
   return (
     <article className={`nb-step nb-kind-${step.kind}`} id={`step-${step.id}`} data-testid={`step-${step.kind}`} aria-labelledby={`h-${step.id}`}>
       <header className="nb-step-head">
         <div>
-          <span className="nb-kind">{KIND_LABEL[step.kind] ?? step.kind}</span>
-          <h3 id={`h-${step.id}`}>{step.title || KIND_LABEL[step.kind]}</h3>
-          {summary && <p className="nb-summary" data-testid="step-summary">{TYPESET_SUMMARY.has(step.kind) ? <Sym m={summary} /> : summary}</p>}
+          <span className="nb-kind">{label}</span>
+          <h3 id={`h-${step.id}`}>{step.title || label}</h3>
+          {summary && <p className="nb-summary" data-testid="step-summary">{ui?.typesetSummary ? <Sym m={summary} /> : summary}</p>}
         </div>
         <div className="nb-step-meta">
           <span className={step.fresh ? "nb-fresh" : "nb-stale"} title={step.computedAt ? `computed ${when(step.computedAt)}` : undefined}>
@@ -141,32 +146,20 @@ export function StepCard({ step, first, last, ctx, noteHtml, basisAbove }: Props
           {threads.length > 0 && <a href={`#threads-${step.id}`} className="small">{threads.length} discussion{threads.length > 1 ? "s" : ""}{openThreads ? ` (${openThreads} open)` : ""}</a>}
         </div>
       </header>
-      {o && !o.ok && <div className="nb-error" role="alert"><strong>Not computed:</strong> {o.error}</div>}
+      {o && !o.ok && (
+        <div className="nb-error" role="alert">
+          <strong>Not computed:</strong> {o.error}
+          {o.field && ctx.editable && !open && <> <button type="button" className="quiet small" onClick={openForm} data-testid="show-fault">Show the setting</button></>}
+        </div>
+      )}
       {o && o.warnings.length > 0 && (
         <ul className="nb-warnings" aria-label="Warnings">{o.warnings.map((w, i) => <li key={i}>{w}</li>)}</ul>
       )}
-      {o?.ok && (
-        <>
-          {step.kind === "fit" && <FitView step={step} result={o.result as FitStepResult} ctx={ctx} save={saveDirect} />}
-          {step.kind === "fit" && ctx.editable && (
-            <details className="nb-jobs" onToggle={(e) => setJobsOpen(e.currentTarget.open)}>
-              <summary>Large window scan in the background (a job with progress; the page stays usable)</summary>
-              {jobsOpen && <JobsPanel slug={ctx.slug} analysisId={ctx.analysisId} fitStepId={step.id} />}
-            </details>
-          )}
-          {step.kind === "data" && <DataView step={step} ctx={ctx} save={saveDirect} />}
-          {step.kind === "addenda" && <AddendaView r={o.result as AddendaStepResult} />}
-          {step.kind === "normalise" && <NormaliseView r={o.result as Record<string, unknown>} />}
-          {step.kind === "derive" && <DeriveView r={o.result as DeriveStepResult} />}
-          {step.kind === "transition" && <TransitionView r={o.result as TransitionStepResult} basis={basisAbove} />}
-          {step.kind === "entropy" && <EntropyView r={o.result as EntropyStepResult} />}
-          {step.kind === "note" && noteHtml !== null && <div className="nb-note" dangerouslySetInnerHTML={{ __html: noteHtml /* sanitised on the server: lib/server/markdown.ts */ }} />}
-        </>
-      )}
+      {o?.ok && ui && <ui.View step={step} result={o.result as never} ctx={ctx} save={saveDirect} basisAbove={basisAbove} noteHtml={noteHtml} />}
       {error && <p className="form-error" role="alert">{error}</p>}
       {conflict && !open && <p className="form-error" role="alert">{conflict.message}</p>}
       {open && (
-        <form className="nb-form" onSubmit={(e) => { e.preventDefault(); void saveForm(); }} aria-label={`Settings of ${KIND_LABEL[step.kind]}`}>
+        <form className="nb-form" onSubmit={(e) => { e.preventDefault(); void saveForm(); }} aria-label={`Settings of ${label}`}>
           {conflict && conflict.current && (
             <NewerValues mine={draft} theirs={conflict.current.config} note={`${conflict.message}`}
               onKeep={() => { setBase({ version: conflict.current!.version, config: conflict.current!.config }); setConflict(null); }}
@@ -180,9 +173,11 @@ export function StepCard({ step, first, last, ctx, noteHtml, basisAbove }: Props
           <div className="grid-form">
             <div className="field wide">
               <label htmlFor={`title-${step.id}`}>Heading <span className="muted">(optional)</span></label>
-              <input id={`title-${step.id}`} type="text" value={title} maxLength={160} onChange={(e) => setTitle(e.target.value)} placeholder={KIND_LABEL[step.kind]} />
+              <input id={`title-${step.id}`} type="text" value={title} maxLength={160} onChange={(e) => setTitle(e.target.value)} placeholder={label} />
             </div>
-            <StepForm step={step} draft={draft} set={(p) => setDraft((d) => ({ ...d, ...p }))} ctx={ctx} />
+            <FieldFault.Provider value={{ field: fault?.field ?? null, message: fault?.message ?? null }}>
+              {ui?.Form ? <ui.Form step={step} draft={draft as never} set={(p) => setDraft((d) => ({ ...d, ...p }))} ctx={ctx} /> : <p className="muted">No settings for {label}.</p>}
+            </FieldFault.Provider>
           </div>
           <div className="actions">
             <button type="submit" disabled={busy} data-testid="save-step">{busy ? "Saving…" : "Save and recompute"}</button>

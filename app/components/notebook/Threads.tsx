@@ -5,7 +5,8 @@
  */
 import { useEffect, useRef, useState } from "react";
 import { callJson } from "@/app/_lib/api";
-import { KIND_LABEL, num, when } from "./display";
+import { num, when } from "./display";
+import { kindLabel } from "./registry";
 import type { Anchor, NotebookContext, ThreadData } from "./types";
 import { MentionBox } from "./MentionBox";
 
@@ -23,7 +24,7 @@ function anchorText(a: Anchor): string {
 
 function stepName(ctx: NotebookContext, stepId: string | null): string {
   const s = ctx.steps.find((x) => x.id === stepId);
-  return s ? s.title || KIND_LABEL[s.kind] || s.kind : stepId ? "a removed step" : "the analysis";
+  return s ? s.title || kindLabel(s.kind) : stepId ? "a removed step" : "the analysis";
 }
 
 /** The note shown after posting when a mention reached nobody (null when all matched). */

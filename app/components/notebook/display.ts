@@ -3,25 +3,11 @@
  * unit text with superscripts, compact value(σ) in display units (SI × factor, rounding by the
  * engine's formatUncertainty).
  */
-import { STEP_KINDS, formatNumber, formatUnit, formatValue, symbolOf } from "@/lib/display";
+import { formatNumber, formatUnit, formatValue, symbolOf } from "@/lib/display";
 
 // One set of words for revision states across the app.
 export { STATE_LABEL, when } from "@/app/components/review/labels";
 export type { RevisionState } from "@/lib/server/review";
-
-/** Step kinds in words: the display vocabulary's (lib/display). */
-export const KIND_LABEL: Record<string, string> = Object.fromEntries(Object.entries(STEP_KINDS).map(([k, t]) => [k, t.label]));
-
-export const KIND_HINT: Record<string, string> = {
-  data: "choose measurements, range, points left out",
-  addenda: "subtract the empty-platform curve",
-  normalise: "per mole formula unit or per mole of atoms",
-  fit: "a model over a temperature window",
-  derive: "Θ_D, D(E_F), m*/m, λ … from γ and β",
-  transition: "T_c and the jump by equal areas",
-  entropy: "S(T) and H(T) − H(0)",
-  note: "text for the group (Markdown)",
-};
 
 /** Symbol markup of a parameter or quantity (render with <Sym m=…/>). */
 export function paramSymbol(name: string): string {

@@ -8,6 +8,8 @@ export interface StepOutputView {
   kind: string;
   ok: boolean;
   error: string | null;
+  /** The configuration field at fault when the step was not computed (a schema key, dotted). */
+  field?: string | null;
   warnings: string[];
   result: unknown;
 }
@@ -76,7 +78,7 @@ export interface ModelInfo {
   name: string;
   title: string;
   formula: string;
-  parameters: { name: string; displayUnit: string; displayFactor: number; description: string }[];
+  parameters: { name: string; displayUnit: string; displayFactor: number; description: string; symbol?: string; defaultShared?: boolean }[];
 }
 
 export interface MeasurementChoice {
@@ -98,6 +100,8 @@ export interface NotebookContext {
   editable: boolean;
   canComment: boolean;
   models: ModelInfo[];
+  /** Models for fits across fields (joint fit step). */
+  jointModels: ModelInfo[];
   measurements: MeasurementChoice[];
   steps: StepView[];
   revisionVersion: number;

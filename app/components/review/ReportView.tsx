@@ -76,6 +76,18 @@ export function ReportView({ r, figures, toolbar, renderNote }: { r: RevisionRep
         </section>
       ))}
 
+      {(r.stepResults ?? []).map((x) => (
+        <section key={x.position} className="rp-fit" data-testid={`report-${x.kind}`}><h2><Sym m={`${x.heading} (step ${x.position + 1})`} /></h2>
+          <p><Sym m={x.summary} /></p>
+          {x.values.length > 0 && (
+            <table className="rp-table rp-params">
+              <thead><tr><th>Parameter</th><th>Value (standard error in the last digits)</th></tr></thead>
+              <tbody>{x.values.map((p) => <tr key={p.name}><td><Sym m={p.symbol} /> <span className="muted small">{p.label}</span></td><td className="mono">{p.compact}</td></tr>)}</tbody>
+            </table>
+          )}
+        </section>
+      ))}
+
       <section><h2>Derived quantities</h2>
         {r.derived.length === 0 ? <p className="muted">No derived-quantities step.</p> : (
           <table className="rp-table" data-testid="report-derived">

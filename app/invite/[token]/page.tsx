@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { getDb } from "@/lib/server/db/client";
+import { database as getDb } from "@/lib/server/database";
 import { currentUser } from "@/lib/server/session";
 import { previewInvitation } from "@/lib/server/groups";
 import { orNotFound } from "@/app/_server/guard";

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { getDb } from "@/lib/server/db/client";
+import { database as getDb } from "@/lib/server/database";
 import { describePasswordLink } from "@/lib/server/passwordLinks";
 import { orNotFound } from "@/app/_server/guard";
 import { SetPasswordForm } from "@/app/components/PasswordLink";

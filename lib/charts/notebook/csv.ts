@@ -5,13 +5,13 @@
  */
 import { writeCsv, type CsvCell, type CsvColumn } from "../../engine/csv";
 import { sourceAt } from "../../engine/notebook/pointSource";
-import type { AddendaStepResult, EntropyStepResult, FitStepResult, MoleBasis, ScanResult, TransitionStepResult } from "./types";
+import type { AddendaStepResult, EntropyStepResult, FitPlotData, MoleBasis, ScanResult, TransitionStepResult } from "./types";
 import type { DataRow } from "./data";
 
 const per = (b: MoleBasis) => (b === "atom" ? "J mol-1 K-1 (per mole of atoms)" : "J mol-1 K-1 (per mole formula unit)");
 
 /** Points of a fit step: T, C, σ, whether in the window, the model value and the residual. */
-export function fitCsv(r: FitStepResult): string {
+export function fitCsv(r: FitPlotData): string {
   const res = new Map(r.fit.window.indices.map((i, k) => [i, r.fit.residuals[k] ?? null]));
   const cols: CsvColumn[] = [{ name: "T", unit: "K" }, { name: "C", unit: per(r.basis) }, { name: "sigma_C", unit: per(r.basis) }, { name: "in_window" }, { name: "residual_C_minus_fit", unit: per(r.basis) }, { name: "measurement_id" }, { name: "point_index" }];
   const rows: CsvCell[][] = r.points.temperatureK.map((t, i) => [t, r.points.heatCapacity[i], r.points.sigma ? r.points.sigma[i] : null, r.points.inWindow[i], res.get(i) ?? null, sourceAt(r.points.source, i)?.measurementId ?? null, sourceAt(r.points.source, i)?.index ?? null]);

@@ -9,7 +9,7 @@ import * as Plot from "@observablehq/plot";
 import type { PlotOptions } from "@observablehq/plot";
 import { invalid } from "../../engine/errors";
 import { BASIS_TEXT, COLOURS, fmt, frame, tipText, xAxis, yAxis } from "./frame";
-import type { FitStepResult } from "./types";
+import type { FitPlotData } from "./types";
 
 /** A range drawn on a chart: a discussion anchor or the range being dragged. */
 export interface RangeBand {
@@ -43,7 +43,7 @@ export interface FitRow {
 const MJ = 1e3;
 
 /** Throws InputError when the result's point arrays do not line up. */
-function check(r: FitStepResult): void {
+function check(r: FitPlotData): void {
   const n = r.points.temperatureK.length;
   if (r.points.heatCapacity.length !== n) throw invalid("points.heatCapacity", `${r.points.heatCapacity.length} values`, `temperatureK has ${n}`);
   if (r.points.sigma && r.points.sigma.length !== n) throw invalid("points.sigma", `${r.points.sigma.length} values`, `temperatureK has ${n}`);
@@ -51,13 +51,13 @@ function check(r: FitStepResult): void {
 }
 
 /** Default upper display limit: 1.5 × the window's T_max (the straight-line region), within the data. */
-export function defaultMaxTK(r: FitStepResult): number {
+export function defaultMaxTK(r: FitPlotData): number {
   const top = Math.max(...r.points.temperatureK);
   return Math.min(top, 1.5 * r.window.tMaxK);
 }
 
 /** One row per point in C/T vs T² display units (K², mJ mol⁻¹ K⁻²). */
-export function fitRows(r: FitStepResult, maxTK: number | null = null): FitRow[] {
+export function fitRows(r: FitPlotData, maxTK: number | null = null): FitRow[] {
   check(r);
   const out: FitRow[] = [];
   r.points.temperatureK.forEach((t, i) => {
@@ -86,7 +86,7 @@ function bandMarks(anchors: readonly RangeBand[], selection: RangeBand | null | 
  * C/T vs T² with the fit window, the model curve and σ/T error bars. x "T² (K²)", y
  * "C/T (mJ mol⁻¹ K⁻², per mole …)". Throws InputError on mismatched arrays.
  */
-export function fitPlot(r: FitStepResult, opts: FitPlotOptions = {}): PlotOptions {
+export function fitPlot(r: FitPlotData, opts: FitPlotOptions = {}): PlotOptions {
   const maxTK = opts.maxTK === undefined ? defaultMaxTK(r) : opts.maxTK;
   const data = fitRows(r, maxTK);
   const bars = data.filter((d) => d.lo !== null);
@@ -121,7 +121,7 @@ export interface ResidualRow {
 }
 
 /** Residual rows (C − C_fit)/T in mJ mol⁻¹ K⁻², for the window's points. */
-export function residualRows(r: FitStepResult): ResidualRow[] {
+export function residualRows(r: FitPlotData): ResidualRow[] {
   const idx = r.fit.window.indices;
   if (r.fit.residuals.length !== idx.length) throw invalid("fit.residuals", `${r.fit.residuals.length} values`, `the window has ${idx.length} points`);
   const out: ResidualRow[] = [];
@@ -141,7 +141,7 @@ export function residualRows(r: FitStepResult): ResidualRow[] {
  * Residuals (C − C_fit)/T vs T² for the fitted points, with σ/T bars and the zero line. Pass
  * `xDomain` (K²) to line it up with fitPlot.
  */
-export function residualPlot(r: FitStepResult, opts: { width?: number; height?: number; xDomain?: [number, number] } = {}): PlotOptions {
+export function residualPlot(r: FitPlotData, opts: { width?: number; height?: number; xDomain?: [number, number] } = {}): PlotOptions {
   const data = residualRows(r);
   const unit = OVER_T_UNIT;
   const title = (d: ResidualRow) => tipText(`T = ${fmt(d.t)} K\n(C − C_fit)/T = ${fmt(d.y)} ${unit}${d.normalised !== null ? `\n(C − C_fit)/σ = ${fmt(d.normalised)}` : ""}`);

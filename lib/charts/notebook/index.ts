@@ -23,3 +23,5 @@ export type { DataSeries, DataRow, DataPlotOptions } from "./data";
 export { fitCsv, scanCsv, addendaCsv, transitionCsv, entropyCsv, dataCsv } from "./csv";
 export { COLOURS, prettyUnit, fmt, BASIS_TEXT } from "./frame";
 export type * from "./types";
+export { thetaPlot, ratioPlot, thetaRows, ratioRows, latticeCsv } from "./lattice";
+export { jointPlot, jointResidualPlot, jointRows, jointCsv, gammaFieldPlot, gammaFieldCsv, fieldName, FIELD_COLOURS } from "./joint";

@@ -3,17 +3,23 @@
  * (StepFailure) reports its message and hands down the state it received, so the steps below
  * it still show what they can (and say what they miss).
  */
-import type { ChainContext, ChainState, StepKind, StepOutput, StepSpec } from "./types";
+import type { z } from "zod";
+import type { ChainContext, ChainState, StepOutput, StepSpec } from "./types";
 import { StepFailure, type StepDefinition } from "./steps/shared";
-import { STEP_DEFINITIONS } from "./registry";
+import { STEP_DEFINITIONS, isStepKind } from "./registry";
 import { InputError } from "../errors";
 
 export const EMPTY_STATE: ChainState = Object.freeze({ dataset: null, fit: null, fits: {} }) as ChainState;
 
-export function stepDefinition(kind: string): StepDefinition<unknown> {
-  const def = STEP_DEFINITIONS[kind as StepKind];
-  if (!def) throw new InputError(`invalid step kind: ${JSON.stringify(kind)}`, { field: "kind" });
-  return def as StepDefinition<unknown>;
+/** A kind's definition seen without its types (for code that handles every kind alike). */
+export function stepDefinition(kind: string): StepDefinition<string, z.ZodType, unknown> {
+  if (!isStepKind(kind)) throw new InputError(`invalid step kind: ${JSON.stringify(kind)}`, { field: "kind" });
+  return STEP_DEFINITIONS[kind] as StepDefinition<string, z.ZodType, unknown>;
+}
+
+/** A failed output: the reason, and the configuration field at fault when one is known. */
+function failed(spec: StepSpec, error: string, field: string | null | undefined, state: ChainState): StepOutput {
+  return { kind: spec.kind, ok: false, error, field: field ?? null, warnings: [], result: null, state } as StepOutput;
 }
 
 /** Validate (and fill defaults of) a step configuration; throws InputError naming the field. */
@@ -31,7 +37,8 @@ export function computeStep(spec: StepSpec, state: ChainState, ctx: ChainContext
   const parsed = def.schema.safeParse(spec.config ?? {});
   if (!parsed.success) {
     const issue = parsed.error.issues[0]!;
-    return { kind: spec.kind, ok: false, error: `configuration: ${issue.path.join(".") || "config"}: ${issue.message}`, warnings: [], result: null, state };
+    const field = issue.path.map(String).join(".");
+    return failed(spec, `configuration: ${field || "config"}: ${issue.message}`, field || null, state);
   }
   try {
     const r = def.compute(parsed.data, state, ctx);
@@ -40,9 +47,13 @@ export function computeStep(spec: StepSpec, state: ChainState, ctx: ChainContext
       const fit = { ...next.fit, stepId: spec.id };
       next = { ...next, fit, fits: { ...next.fits, [spec.id]: fit } };
     }
-    return { kind: spec.kind, ok: true, error: null, warnings: r.warnings, result: r.result, state: next };
+    if (next.jointFit && next.jointFit !== state.jointFit) {
+      const jointFit = { ...next.jointFit, stepId: spec.id };
+      next = { ...next, jointFit, jointFits: { ...(next.jointFits ?? {}), [spec.id]: jointFit } };
+    }
+    return { kind: spec.kind, ok: true, error: null, warnings: r.warnings, result: r.result, state: next } as StepOutput;
   } catch (err) {
-    if (err instanceof StepFailure || err instanceof InputError) return { kind: spec.kind, ok: false, error: err.message, warnings: [], result: null, state };
+    if (err instanceof StepFailure || err instanceof InputError) return failed(spec, err.message, err.field, state);
     throw err;
   }
 }

@@ -9,8 +9,9 @@
  *   STEP_DEFINITIONS, STEP_ORDER          the kinds
  */
 export { computeChain, computeChainFrom, computeStep, parseStepConfig, stepDefinition, EMPTY_STATE } from "./chain";
-export { STEP_DEFINITIONS, STEP_ORDER } from "./registry";
+export { STEP_DEFINITIONS, STEP_ORDER, isStepKind, resultOf } from "./registry";
 export { StepFailure } from "./steps/shared";
 export { packSources, sourceAt, type PackedSources, type PointSource } from "./pointSource";
-export type { StepDefinition, StepComputation } from "./steps/shared";
+export { defineStep } from "./steps/shared";
+export type { StepDefinition, StepComputation, ResultOf } from "./steps/shared";
 export type * from "./types";

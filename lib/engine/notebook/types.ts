@@ -48,6 +48,8 @@ export interface Dataset {
   fieldT: number;
   /** Index of each point in its source measurement, for annotations and exclusions. */
   source: { measurementId: string; index: number }[];
+  /** Label and field of each measurement in the curve, in the data step's order (absent in states stored before it existed). */
+  measurements?: { id: string; label: string; fieldT: number }[];
 }
 
 /** The fit summary handed down to derived-quantity steps (SI values). */
@@ -64,12 +66,26 @@ export interface FitSummary {
   fieldT: number;
 }
 
+/** What a joint fit across measurements hands down (SI values; the chain fills in stepId). */
+export interface JointFitSummary {
+  stepId: string;
+  model: string;
+  basis: Dataset["basis"];
+  /** Parameters shared by every measurement, by name. */
+  shared: Record<string, { value: number; stdError: number | null }>;
+  /** Each measurement with its field, window and own (per-measurement) parameters. */
+  measurements: { measurementId: string; label: string; fieldT: number; tMinK: number; tMaxK: number; parameters: Record<string, { value: number; stdError: number | null }> }[];
+}
+
 /** What flows from one step to the next. */
 export interface ChainState {
   dataset: Dataset | null;
   fit: FitSummary | null;
   /** Fits above, by step id, so a transition step can name the normal-state fit. */
   fits: Record<string, FitSummary>;
+  /** The nearest joint fit above, and all of them by step id (absent in states stored before they existed). */
+  jointFit?: JointFitSummary | null;
+  jointFits?: Record<string, JointFitSummary>;
 }
 
 export interface StepSpec {
@@ -78,19 +94,9 @@ export interface StepSpec {
   config: unknown;
 }
 
-export type StepKind = "data" | "addenda" | "normalise" | "fit" | "derive" | "transition" | "entropy" | "note";
-
-/** A step's stored output: JSON-safe, with the state it hands down so caching can resume mid-chain. */
-export interface StepOutput {
-  kind: StepKind;
-  ok: boolean;
-  /** Set when the step could not be computed (bad configuration, missing input). */
-  error: string | null;
-  warnings: string[];
-  /** Step-specific result for display (tables, curves). */
-  result: unknown;
-  state: ChainState;
-}
+/** Kinds, configurations, results and outputs come from the registry (one list of kinds). */
+export type { StepKind, StepConfig, StepConfigInput, StepResult, StepOutput, StepOutputOf } from "./registry";
+import type { StepKind } from "./registry";
 
 /** The records a step reads outside the chain: hashed into its input hash. */
 export interface StepDependencies {

@@ -74,7 +74,9 @@ function fitLaw(law: "linear" | "sqrt", h: number[], y: number[], sigma: number[
   const se = (k: number) => Math.sqrt(r.covariance[k * 2 + k]! * scale);
   const chi = sigma ? r.chiSquare : dof;
   const n = m, k = 2;
-  const aicc = n - k - 1 > 0 ? n * Math.log(r.chiSquare / n) + 2 * k + (2 * k * (k + 1)) / (n - k - 1) : null;
+  // AICc: with σ known the −2 ln L term is χ²; without, n ln(RSS/n) (Burnham & Anderson 2002, §2.2 and §7.4).
+  const fitTerm = sigma ? r.chiSquare : n * Math.log(r.chiSquare / n);
+  const aicc = n - k - 1 > 0 ? fitTerm + 2 * k + (2 * k * (k + 1)) / (n - k - 1) : null;
   return {
     law, title: law === "linear" ? "linear in H (fully gapped)" : "√H (line nodes)",
     intercept: { value: r.coefficients[0]!, stdError: se(0) }, slope: { value: r.coefficients[1]!, stdError: se(1) },

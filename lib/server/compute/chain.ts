@@ -16,7 +16,7 @@ export function budgetFailureText(budgetMs: number): string {
 }
 
 export function budgetFailure(kind: StepSpec["kind"], budgetMs: number): StoredStepOutput {
-  return { kind, ok: false, error: budgetFailureText(budgetMs), warnings: [], result: null };
+  return { kind, ok: false, error: budgetFailureText(budgetMs), field: null, warnings: [], result: null } as StoredStepOutput;
 }
 
 /** "stopped at 1024 MiB: memory limit" (the worker's heap limit). */
@@ -57,7 +57,7 @@ export async function computeChainBounded(steps: readonly StepSpec[], context: C
     const i = r.stopped.index;
     if (i >= steps.length) break; // stopped between the last step and its end message: all done
     const failure = r.stopped.reason === "memory" ? { ...budgetFailure(steps[i]!.kind, budgetMs), error: memoryFailureText(r.stopped.memoryMb) } : budgetFailure(steps[i]!.kind, budgetMs);
-    outputs.push({ ...failure, state: above });
+    outputs.push({ ...failure, state: above } as StepOutput);
     stopped.push(i);
     at = i + 1;
   }

@@ -22,7 +22,8 @@ import { existsSync } from "node:fs";
 import { join } from "node:path";
 import type { ChainContext, ChainState, StepOutput, StepSpec } from "../../engine/notebook";
 
-export type StoredStepOutput = Omit<StepOutput, "state">;
+/** A stored output without the state it handed down (kept per kind: Omit over the union). */
+export type StoredStepOutput = StepOutput extends infer O ? (O extends StepOutput ? Omit<O, "state"> : never) : never;
 
 export interface ChainTask {
   steps: readonly StepSpec[];

@@ -17,7 +17,7 @@ export async function knownStops(db: Db, specs: readonly StepSpec[], hashes: rea
   const out: Record<number, StoredStepOutput> = {};
   for (const r of rows) {
     const i = hashes.indexOf(r.inputHash, from);
-    if (i >= 0) out[i] = { ...budgetFailure(specs[i]!.kind, r.budgetMs), error: r.error };
+    if (i >= 0) out[i] = { ...budgetFailure(specs[i]!.kind, r.budgetMs), error: r.error } as StoredStepOutput;
   }
   return out;
 }

@@ -7,7 +7,7 @@
 import type { PlotOptions } from "@observablehq/plot";
 import { fitFigure, scanFigure, type PaperOptions } from "../../charts/figures";
 import { chartSvg } from "../../charts/svg";
-import type { FitStepResult, ScanResult } from "../../charts/notebook/types";
+import type { FitPlotData, FitStepResult, ScanResult } from "../../charts/notebook/types";
 import type { RevisionReport } from "../review/report";
 import { FIGURE_FONT_FAMILY } from "./fonts";
 
@@ -24,7 +24,7 @@ export interface ReportFigure {
 }
 
 /** The fit's stored plot data as the chart builders' input, or null when it is missing. */
-export function fitResultOf(fit: ReportFit): FitStepResult | null {
+export function fitResultOf(fit: ReportFit): FitPlotData | null {
   const points = fit.plot.points as FitStepResult["points"] | null;
   const curve = fit.plot.curve as FitStepResult["curve"] | null;
   const residuals = fit.plot.residuals as (number | null)[] | null;
@@ -33,8 +33,8 @@ export function fitResultOf(fit: ReportFit): FitStepResult | null {
   return {
     basis: fit.basis === "atom" ? "atom" : "formula-unit",
     window: { tMinK: fit.tMinK, tMaxK: fit.tMaxK, requestedMinK: null, requestedMaxK: null, nPoints: fit.nPoints },
-    points, curve, scan: (fit.plot.scan as ScanResult | null) ?? null, comparison: null,
-    fit: { residuals, window: { indices } } as unknown as FitStepResult["fit"],
+    points, curve, scan: (fit.plot.scan as ScanResult | null) ?? null,
+    fit: { residuals, window: { indices } },
   };
 }
 

@@ -68,6 +68,12 @@ export async function renderReportPdf(report: RevisionReport): Promise<Uint8Arra
     }
   }
 
+  for (const x of report.stepResults ?? []) {
+    heading(sym(`${x.heading} (step ${x.position + 1})`, true));
+    para(sym(x.summary));
+    for (const p of x.values) row(sym(p.symbol), txt(p.compact), p.label);
+  }
+
   heading("Derived quantities");
   if (!report.derived.length) para(txt("No derived-quantities step."));
   for (const q of report.derived) paragraph(doc, [...sym(q.symbol), ...txt(`  =  ${q.compact}   (${q.label}`), ...(q.note ? [...txt("; "), ...sym(q.note)] : []), ...txt(")")], { size: 9.5, indent: 12 });

@@ -17,6 +17,8 @@ import { intactSnapshot } from "./served";
 import type { RevisionSnapshot } from "./snapshot";
 import type { SealSignature } from "./signature";
 import { changeText, contextChanges, pinnedContext, type LiveSample } from "./context";
+import { resultOf } from "../../engine/notebook/registry";
+import type { JointParameter } from "../../engine/fit/joint";
 
 export const SAFETY_SENTENCE = "These results need expert review under local practice before use in any safety-relevant decision.";
 
@@ -45,6 +47,8 @@ export interface RevisionReport {
     plot: { points: unknown; curve: unknown; residuals: unknown; windowIndices: unknown; scan: unknown };
   }[];
   derived: ReportValue[];
+  /** Results of the steps across fields and over wide ranges (joint fit, γ(H), lattice views), each with a sentence saying what was done. */
+  stepResults: { position: number; kind: string; heading: string; summary: string; values: ReportValue[] }[];
   warnings: string[];
   notes: string[];
   review: { submittedBy: string | null; submittedAt: string | null; sealedBy: string | null; sealedAt: string; decisions: { decision: string; reviewer: string | null; at: string; comment: string }[] };
@@ -105,6 +109,48 @@ function derivedValue(q: { name: string; symbol: string; value: number; stdError
   return { name: q.name, symbol: t.symbol ?? q.symbol, label: t.label, value: q.value, stdError: q.stdError, unit, compact, ...(q.note ? { note: cleanText(q.note) } : {}), ...(sys !== null ? { systematicError: sys } : {}) };
 }
 
+/** A parameter of a joint fit, "γ" or "n (2 T)", in display units. */
+function jointValue(p: JointParameter, fieldT: number | null): ReportValue {
+  const v = parameter({ name: p.name, value: p.value, stdError: p.stdError, unit: p.unit, fixed: p.fixed });
+  return fieldT === null ? { ...v, name: p.key } : { ...v, name: p.key, symbol: `${v.symbol} (${formatNumber(fieldT, 4)} T)`, label: `${v.label}, measurement ${p.measurement}` };
+}
+
+/** The report entry of a joint fit, γ(H) or lattice views step (null for other kinds). */
+export function otherResult(kind: string, position: number, output: { kind: string; ok: boolean; result: unknown }): RevisionReport["stepResults"][number] | null {
+  const joint = resultOf(output, "joint-fit");
+  if (joint) {
+    const f = joint.fit;
+    const fields = f.measurements.map((m) => m.fieldT);
+    return {
+      position, kind, heading: `${stepKindLabel(kind)}: ${f.title}`,
+      summary: `${formatCount(f.measurements.length, "measurement")} in ${formatNumber(Math.min(...fields), 4)}–${formatNumber(Math.max(...fields), 4)} T fitted together (${formatCount(f.nPoints, "point")} in the windows, ${PER(joint.basis)}); shared: ${f.shared.join(", ") || "none"}; χ² = ${formatNumber(f.chiSquare, 5)} on ${f.dof} degrees of freedom${f.weighted && f.reducedChiSquare !== null ? `, χ²_red = ${formatNumber(f.reducedChiSquare, 4)}` : ", unweighted"}${f.aicc !== null ? `, AICc = ${formatNumber(f.aicc, 6)}` : ""}; standard errors from the joint covariance${f.converged ? "" : "; NOT converged"}`,
+      values: f.parameters.map((p) => jointValue(p, p.measurement === null ? null : f.measurements[p.measurement - 1]!.fieldT)),
+    };
+  }
+  const gh = resultOf(output, "gamma-field");
+  if (gh) {
+    const law = (l: (typeof gh.laws)[number]): ReportValue[] => [
+      { name: `${l.law}-a`, symbol: "a", label: `intercept, ${l.title}`, value: l.intercept.value, stdError: l.intercept.stdError, unit: "", compact: formatQuantity(l.intercept.value, l.intercept.stdError, "1") },
+      { name: `${l.law}-b`, symbol: "b", label: `slope, ${l.title}`, value: l.slope.value, stdError: l.slope.stdError, unit: "", compact: formatQuantity(l.slope.value, l.slope.stdError, "1") },
+    ];
+    return {
+      position, kind, heading: stepKindLabel(kind),
+      summary: `γ(H)/γ_n at ${formatCount(gh.fields.length, "field")} below H_c2 = ${formatNumber(gh.hc2T, 4)} T fitted by a + b·H/H_c2 and by a + b·√(H/H_c2); preferred: ${gh.preferred === "linear" ? "linear in H" : "√H"}${gh.deltaAicc !== null ? ` (ΔAICc = ${formatNumber(gh.deltaAicc, 3)})` : " (by χ²: too few fields for AICc)"}; γ_n = ${formatQuantity(gh.gammaN.value * 1e3, gh.gammaN.stdError === null ? null : gh.gammaN.stdError * 1e3, "mJ mol^-1 K^-2")} from ${gh.gammaNFrom}. ${gh.cautions[0]}`,
+      values: gh.laws.flatMap(law),
+    };
+  }
+  const lat = resultOf(output, "lattice");
+  if (lat) {
+    const th = lat.curve.thetaDK.filter((v): v is number => v !== null);
+    return {
+      position, kind, heading: stepKindLabel(kind),
+      summary: `C − γT inverted through the Debye function at ${formatCount(lat.points, "point")}: effective Θ_D from ${th.length ? `${formatNumber(Math.min(...th), 4)} to ${formatNumber(Math.max(...th), 4)} K` : "— (none in range)"}${lat.peak ? `; (C − γT)/T³ peaks at ${formatNumber(lat.peak.temperatureK, 3)} K` : "; no peak of (C − γT)/T³ in range"}`,
+      values: [],
+    };
+  }
+  return null;
+}
+
 /** The report object from a sealed snapshot and the names of the people involved. Pure. */
 export function reportFromSnapshot(s: RevisionSnapshot, meta: { group: { name: string; slug: string }; state: "sealed" | "replaced"; contentHash: string; names: Record<string, string>; decisions: RevisionReport["review"]["decisions"]; liveSample?: LiveSample | null }): RevisionReport {
   const name = (id: string | null) => (id ? (meta.names[id] ?? "former member") : null);
@@ -117,7 +163,7 @@ export function reportFromSnapshot(s: RevisionSnapshot, meta: { group: { name: s
       measurementId: m.id, label: m.label, kind: m.kind, fileName: m.file.fileName, sha256: m.file.sha256, sizeBytes: m.file.sizeBytes, pointCount: m.pointCount,
       tMinK: Math.min(...m.points.temperatureK), tMaxK: Math.max(...m.points.temperatureK), fieldT: m.fieldT, units: m.units,
     })),
-    corrections: [], fits: [], derived: [], warnings: [], notes: [],
+    corrections: [], fits: [], derived: [], stepResults: [], warnings: [], notes: [],
     review: { submittedBy: name(s.revision.submittedById), submittedAt: s.revision.submittedAt, sealedBy: name(s.seal.sealedById), sealedAt: s.seal.sealedAt, decisions: meta.decisions },
     contentHash: meta.contentHash, engineVersion: s.engineVersion, safetyNote: SAFETY_SENTENCE,
     signature: s.signature ?? null,
@@ -143,6 +189,10 @@ export function reportFromSnapshot(s: RevisionSnapshot, meta: { group: { name: s
     } else if (st.kind === "derive" && r?.quantities)
       for (const q of r.quantities) report.derived.push(derivedValue(q));
     else if (st.kind === "note" && typeof r?.markdown === "string" && r.markdown.trim()) report.notes.push(r.markdown);
+    else if (out?.ok) {
+      const extra = otherResult(st.kind, st.position, { kind: st.kind, ok: true, result: r });
+      if (extra) report.stepResults.push(extra);
+    }
   });
   return report;
 }

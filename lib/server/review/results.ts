@@ -1,13 +1,15 @@
 /**
  * The results a step reports, as one flat list: fit parameters (γ, β, …, in the fit's SI units,
- * with χ²_red) from steps of kind "fit", and derived quantities (γ, β, Θ_D, D(E_F), m* / m, λ …,
+ * with χ²_red) from steps of kind "fit" and "joint-fit" (keys name#k per measurement), and derived quantities (γ, β, Θ_D, D(E_F), m* / m, λ …,
  * in display units) from steps of kind "derive". The one place that knows those output shapes
  * (lib/engine/notebook/steps/fit.ts and derive.ts).
  */
+import { resultOf } from "../../engine/notebook/registry";
+
 export interface ResultValue {
   /** Stable key within a revision: "<kind>#<k>:<name>", k counting steps of that kind from 1. */
   key: string;
-  stepKind: "fit" | "derive";
+  stepKind: "fit" | "joint-fit" | "derive";
   name: string;
   symbol: string;
   value: number;
@@ -16,26 +18,33 @@ export interface ResultValue {
   note?: string;
 }
 
-interface FitParam { name: string; value: number; stdError: number | null; unit: string; fixed?: boolean }
-interface Quantity { name: string; symbol: string; value: number; stdError: number | null; unit: string; note?: string }
-
 const SYMBOLS: Record<string, string> = { gamma: "γ", beta: "β", delta: "δ", epsilon: "ε", thetaD: "Θ_D", thetaE: "Θ_E", A: "A_N", B: "B" };
 
 /** Results of one step output (null or failed outputs give none). `k` numbers steps of the kind. */
 export function stepResults(kind: string, output: unknown, k: number): ResultValue[] {
-  const o = output as { ok?: boolean; result?: Record<string, unknown> } | null;
+  const o = output as { ok?: boolean; kind?: string; result?: unknown } | null;
   if (!o || !o.ok || !o.result) return [];
-  if (kind === "fit") {
-    const fit = o.result.fit as { parameters?: FitParam[]; reducedChiSquare?: number | null } | undefined;
+  const typed = { kind, ok: true, result: o.result };
+  const fitResult = resultOf(typed, "fit");
+  if (fitResult) {
+    const fit = fitResult.fit;
     const out: ResultValue[] = (fit?.parameters ?? []).map((p) => ({
       key: `fit#${k}:${p.name}`, stepKind: "fit", name: p.name, symbol: SYMBOLS[p.name] ?? p.name, value: p.value, stdError: p.stdError, unit: p.unit, ...(p.fixed ? { note: "fixed" } : {}),
     }));
     if (typeof fit?.reducedChiSquare === "number") out.push({ key: `fit#${k}:reducedChiSquare`, stepKind: "fit", name: "reducedChiSquare", symbol: "χ²_red", value: fit.reducedChiSquare, stdError: null, unit: "1" });
     return out;
   }
-  if (kind === "derive") {
-    const qs = (o.result.quantities as Quantity[] | undefined) ?? [];
-    return qs.map((q) => ({ key: `derive#${k}:${q.name}`, stepKind: "derive", name: q.name, symbol: q.symbol, value: q.value, stdError: q.stdError, unit: q.unit, ...(q.note ? { note: q.note } : {}) }));
+  const joint = resultOf(typed, "joint-fit");
+  if (joint) {
+    const out: ResultValue[] = joint.fit.parameters.map((p) => ({
+      key: `joint-fit#${k}:${p.key}`, stepKind: "joint-fit", name: p.key, symbol: `${SYMBOLS[p.name] ?? p.name}${p.measurement === null ? "" : ` (${p.measurement})`}`, value: p.value, stdError: p.stdError, unit: p.unit, ...(p.fixed ? { note: "fixed" } : {}),
+    }));
+    if (joint.fit.reducedChiSquare !== null) out.push({ key: `joint-fit#${k}:reducedChiSquare`, stepKind: "joint-fit", name: "reducedChiSquare", symbol: "χ²_red", value: joint.fit.reducedChiSquare, stdError: null, unit: "1" });
+    return out;
+  }
+  const derive = resultOf(typed, "derive");
+  if (derive) {
+    return derive.quantities.map((q) => ({ key: `derive#${k}:${q.name}`, stepKind: "derive", name: q.name, symbol: q.symbol, value: q.value, stdError: q.stdError, unit: q.unit, ...(q.note ? { note: q.note } : {}) }));
   }
   return [];
 }

@@ -1,17 +1,18 @@
 /**
- * The reported values of one analysis revision, read from its stored step outputs.
+ * The reported values of one analysis revision, read from its stored step outputs, typed by the
+ * engine's registry (StepResult of each kind) — no guessing of shapes.
  *
- * Reading rules (what the notebook's steps store; tolerant of the shapes named here):
- *  - derive step (last one with ok output): `result.quantities` — engine Quantity objects
- *    (deriveAll: gamma, beta [mJ mol⁻¹ K⁻², mJ mol⁻¹ K⁻⁴], thetaD [K], dosEF [states eV⁻¹],
- *    massRatio [1]) with `result.basis` "formula-unit" | "atom".
- *  - fit step (last ok): γ and β in SI from `result.summary`, `result.gamma`/`result.beta`
- *    ({value, stdError}) or `result.parameters[]` (FitParameter, unit "J/(mol K^2)" or "mJ/…");
- *    used when there is no derive step, and then Θ_D and D(E_F) are derived here with the engine.
- *  - transition step (last ok): `result.tc` (Quantity, K) or a quantity named "tc".
+ *  - derive step (last computed one): its quantities (deriveAll: gamma, beta in the unit each
+ *    quantity names, thetaD [K], dosEF [states eV⁻¹], massRatio [1]) and its basis.
+ *  - fit step (last computed one), when there is no derive step: γ and β in SI from the summary it
+ *    hands down (FitSummary), or — for outputs stored before the summary existed — its fit's
+ *    parameters (SI by the engine's contract); Θ_D and D(E_F) are then derived here.
+ *  - transition step (last computed one): T_c.
+ * A value whose unit is not one named below is left out rather than converted by a guess.
  * Everything is reported per mole FORMULA UNIT (per-atom values × r), so members compare.
  */
 import { debyeTemperature, densityOfStates, MILLI_PER_UNIT } from "../../engine/derived";
+import type { StepKind, StepResult } from "../../engine/notebook/registry";
 
 export interface Valued {
   value: number;
@@ -42,43 +43,31 @@ export interface StepLike {
   output: unknown;
 }
 
-type Obj = Record<string, unknown>;
-const isObj = (v: unknown): v is Obj => typeof v === "object" && v !== null && !Array.isArray(v);
+type Pair = { value: number; stdError: number | null; systematicError?: number | null };
 
-function valued(v: unknown, factor = 1): Valued | null {
-  if (!isObj(v) || typeof v.value !== "number" || !Number.isFinite(v.value)) return null;
+function valued(v: Pair | null | undefined, factor = 1): Valued | null {
+  if (!v || typeof v.value !== "number" || !Number.isFinite(v.value)) return null;
   const s = typeof v.stdError === "number" && Number.isFinite(v.stdError) ? v.stdError * factor : null;
   const sys = typeof v.systematicError === "number" && Number.isFinite(v.systematicError) ? Math.abs(v.systematicError * factor) : null;
   return sys === null ? { value: v.value * factor, stdError: s } : { value: v.value * factor, stdError: s, systematicError: sys };
 }
 
-function lastResult(steps: readonly StepLike[], kind: string): Obj | null {
-  const ok = steps.filter((s) => s.kind === kind && isObj(s.output) && s.output.ok === true && isObj(s.output.result)).sort((a, b) => b.position - a.position);
-  return ok.length ? ((ok[0]!.output as Obj).result as Obj) : null;
+/** The result of the last computed step of `kind` (by position). */
+function lastResult<K extends StepKind>(steps: readonly StepLike[], kind: K): StepResult<K> | null {
+  const ok = steps.filter((s) => s.kind === kind && typeof s.output === "object" && s.output !== null && (s.output as { ok?: unknown }).ok === true).sort((a, b) => b.position - a.position);
+  return ok.length ? ((ok[0]!.output as { result: StepResult<K> }).result ?? null) : null;
 }
 
-function quantityNamed(result: Obj, name: string): Obj | null {
-  const list = Array.isArray(result.quantities) ? result.quantities : isObj(result.derived) && Array.isArray(result.derived.quantities) ? result.derived.quantities : [];
-  return (list as unknown[]).find((q): q is Obj => isObj(q) && q.name === name) ?? null;
-}
-
-/** Unit factor to mJ for a fit parameter's unit text; SI (J…) unless it starts with "mJ". */
-function toMilli(unit: unknown): number {
-  return typeof unit === "string" && unit.trim().startsWith("mJ") ? 1 : MILLI_PER_UNIT;
-}
-
-function fitCoefficient(result: Obj, name: "gamma" | "beta"): Valued | null {
-  const summary = isObj(result.summary) ? result.summary : result;
-  const direct = valued(summary[name], MILLI_PER_UNIT);
-  if (direct) return direct;
-  const params = Array.isArray(result.parameters) ? result.parameters : isObj(result.fit) && Array.isArray(result.fit.parameters) ? result.fit.parameters : [];
-  const p = (params as unknown[]).find((q): q is Obj => isObj(q) && q.name === name);
-  return p ? valued(p, toMilli(p.unit)) : null;
-}
-
-function fitBasis(result: Obj): string {
-  const summary = isObj(result.summary) ? result.summary : result;
-  return typeof summary.basis === "string" ? summary.basis : "formula-unit";
+/**
+ * Factor to the series unit (mJ mol⁻¹ K⁻² for γ, mJ mol⁻¹ K⁻⁴ for β) from a unit as the engine
+ * names it; null for a unit not listed here (the value is then not reported).
+ */
+const TO_MILLI: Readonly<Record<string, number>> = {
+  "mJ mol^-1 K^-2": 1, "mJ/(mol*K^2)": 1, "J mol^-1 K^-2": MILLI_PER_UNIT, "J/(mol*K^2)": MILLI_PER_UNIT,
+  "mJ mol^-1 K^-4": 1, "mJ/(mol*K^4)": 1, "J mol^-1 K^-4": MILLI_PER_UNIT, "J/(mol*K^4)": MILLI_PER_UNIT,
+};
+function milliFactor(unit: string): number | null {
+  return Object.hasOwn(TO_MILLI, unit) ? TO_MILLI[unit]! : null;
 }
 
 /** Values of one revision from its steps; atoms per formula unit r converts per-atom values. */
@@ -87,27 +76,38 @@ export function valuesFromSteps(steps: readonly StepLike[], atomsPerFormulaUnit:
   const derive = lastResult(steps, "derive");
   if (derive) {
     const perFu = derive.basis === "atom" ? atomsPerFormulaUnit : 1;
-    out.gamma = valued(quantityNamed(derive, "gamma"), perFu);
-    out.beta = valued(quantityNamed(derive, "beta"), perFu);
-    out.thetaD = valued(quantityNamed(derive, "thetaD"));
-    out.dosEF = valued(quantityNamed(derive, "dosEF"), perFu);
-    out.massRatio = valued(quantityNamed(derive, "massRatio"));
+    const named = (name: string) => derive.quantities.find((q) => q.name === name) ?? null;
+    const coefficient = (name: "gamma" | "beta") => {
+      const q = named(name);
+      const k = q ? milliFactor(q.unit) : null;
+      return q && k !== null ? valued(q, k * perFu) : null;
+    };
+    out.gamma = coefficient("gamma");
+    out.beta = coefficient("beta");
+    out.thetaD = valued(named("thetaD"));
+    out.dosEF = valued(named("dosEF"), perFu);
+    out.massRatio = valued(named("massRatio"));
     if (out.gamma) out.source = "derive";
   }
   const fit = lastResult(steps, "fit");
   if (fit && !out.gamma) fromFit(out, fit, atomsPerFormulaUnit);
   const transition = lastResult(steps, "transition");
-  if (transition) out.tc = valued(transition.tc) ?? valued(quantityNamed(transition, "tc"));
+  if (transition) out.tc = valued(transition.tc);
   return out;
 }
 
-function fromFit(out: RevisionValues, fit: Obj, r: number): void {
-  const perFu = fitBasis(fit) === "atom" ? r : 1;
-  const g = fitCoefficient(fit, "gamma");
-  const b = fitCoefficient(fit, "beta");
-  const perFormula = (v: Valued): Valued => ({ ...v, value: v.value * perFu, stdError: v.stdError === null ? null : v.stdError * perFu, ...(typeof v.systematicError === "number" ? { systematicError: v.systematicError * perFu } : {}) });
-  out.gamma = g && perFormula(g);
-  out.beta = b && perFormula(b);
+/** γ and β (SI) of a fit step's output: the summary it hands down, else its fit's parameters. */
+function fitCoefficients(fit: StepResult<"fit">): { basis: string; gamma: Pair | null; beta: Pair | null } {
+  if (fit.summary) return { basis: fit.summary.basis, gamma: fit.summary.gamma, beta: fit.summary.beta };
+  const p = (name: string) => fit.fit?.parameters.find((x) => x.name === name) ?? null;
+  return { basis: fit.basis ?? "formula-unit", gamma: p("gamma"), beta: p("beta") };
+}
+
+function fromFit(out: RevisionValues, fit: StepResult<"fit">, r: number): void {
+  const c = fitCoefficients(fit);
+  const perFu = c.basis === "atom" ? r : 1;
+  out.gamma = valued(c.gamma, MILLI_PER_UNIT * perFu);
+  out.beta = valued(c.beta, MILLI_PER_UNIT * perFu);
   if (out.gamma) out.source = "fit";
   const si = (v: Valued) => ({ value: v.value / MILLI_PER_UNIT, stdError: v.stdError === null ? null : v.stdError / MILLI_PER_UNIT });
   if (out.beta && out.beta.value > 0 && !out.thetaD) out.thetaD = valued(debyeTemperature(si(out.beta), r));

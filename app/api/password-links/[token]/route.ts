@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { route, jsonBody } from "@/lib/server/http";
 import { assertSameOrigin } from "@/lib/server/handler";
-import { getDb } from "@/lib/server/db/client";
+import { database as getDb } from "@/lib/server/database";
 import { describePasswordLink, setPasswordWithLink } from "@/lib/server/passwordLinks";
 
 export const dynamic = "force-dynamic";

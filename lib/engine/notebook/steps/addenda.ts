@@ -7,7 +7,7 @@ import { z } from "zod";
 import { subtractAddenda } from "../../corrections";
 import { InputError } from "../../errors";
 import type { Dataset } from "../types";
-import { StepFailure, requireDataset, thinCurve, type StepDefinition } from "./shared";
+import { StepFailure, requireDataset, thinCurve, defineStep } from "./shared";
 
 export const addendaConfig = z.object({
   addendaMeasurementId: z.string().min(1, "choose the addenda measurement"),
@@ -17,7 +17,7 @@ export const addendaConfig = z.object({
 });
 export type AddendaConfig = z.infer<typeof addendaConfig>;
 
-export const addendaStep: StepDefinition<AddendaConfig> = {
+export const addendaStep = defineStep({
   kind: "addenda",
   title: "Addenda subtraction",
   schema: addendaConfig,
@@ -63,4 +63,4 @@ export const addendaStep: StepDefinition<AddendaConfig> = {
       state: { ...state, dataset },
     };
   },
-};
+});

@@ -4,7 +4,7 @@
  */
 import { z } from "zod";
 import type { ChainContext, ChainState, Dataset } from "../types";
-import { StepFailure, type StepDefinition } from "./shared";
+import { StepFailure, defineStep } from "./shared";
 
 export const dataConfig = z.object({
   measurementIds: z.array(z.string().min(1)).min(1, "choose at least one measurement"),
@@ -18,7 +18,7 @@ function basisOf(b: "sample" | "molar" | "specific"): Dataset["basis"] {
   return b === "molar" ? "formula-unit" : b;
 }
 
-export const dataStep: StepDefinition<DataConfig> = {
+export const dataStep = defineStep({
   kind: "data",
   title: "Data selection",
   schema: dataConfig,
@@ -35,7 +35,7 @@ export const dataStep: StepDefinition<DataConfig> = {
     if (ms.some((m) => basisOf(m.basis) !== basis)) throw new StepFailure("the chosen measurements are on different bases (per sample, per mole, per mass)", "measurementIds");
     const fields = new Set(ms.map((m) => m.fieldT));
     const warnings: string[] = [];
-    if (fields.size > 1) warnings.push(`the chosen measurements were taken in different fields (${[...fields].join(", ")} T)`);
+    if (fields.size > 1) warnings.push(`the chosen measurements were taken in different fields (${[...fields].join(", ")} T): fit them together with a joint fit step, or one field at a time`);
     const excluded = new Set(config.excluded.map((e) => `${e.measurementId}:${e.index}`));
     const rows: { t: number; c: number; s: number | null; id: string; i: number }[] = [];
     let outOfRange = 0;
@@ -58,6 +58,7 @@ export const dataStep: StepDefinition<DataConfig> = {
       basis,
       fieldT: ms[0]!.fieldT,
       source: rows.map((r) => ({ measurementId: r.id, index: r.i })),
+      measurements: ms.map((m) => ({ id: m.id, label: m.label, fieldT: m.fieldT })),
     };
     return {
       result: {
@@ -67,7 +68,7 @@ export const dataStep: StepDefinition<DataConfig> = {
       },
       warnings,
       // Fits above stay available (e.g. a normal-state fit for a transition step further down).
-      state: { dataset, fit: state.fit, fits: state.fits },
+      state: { ...state, dataset },
     };
   },
-};
+});

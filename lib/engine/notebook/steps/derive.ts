@@ -8,7 +8,7 @@ import { deriveAll } from "../../derived";
 import { parseFormula, electronsPerFormulaUnit } from "../../chemistry";
 import { InputError } from "../../errors";
 import type { ChainState, FitSummary } from "../types";
-import { StepFailure, type StepDefinition } from "./shared";
+import { StepFailure, defineStep } from "./shared";
 import { withSystematic, type Quantity } from "../../uncertainty/quantity";
 
 /**
@@ -45,21 +45,21 @@ export type DeriveConfig = z.infer<typeof deriveConfig>;
  * The fit whose γ and β a step uses: the one named, or else the nearest fit above that has γ and
  * β (a user-expression fit with other parameter names is passed over).
  */
-export function pickFit(state: ChainState, stepId: string | null, what: string): FitSummary {
+export function pickFit(state: ChainState, stepId: string | null, what: string, field = "fitStepId"): FitSummary {
   if (stepId) {
     const named = state.fits[stepId];
-    if (!named) throw new StepFailure("the chosen fit step is not above this step", "fitStepId");
-    if (!named.gamma || !named.beta) throw new StepFailure(`the chosen fit (model ${named.model}) has no γ and β`, "fitStepId");
+    if (!named) throw new StepFailure("the chosen fit step is not above this step", field);
+    if (!named.gamma || !named.beta) throw new StepFailure(`the chosen fit (model ${named.model}) has no γ and β`, field);
     return named;
   }
   if (state.fit?.gamma && state.fit.beta) return state.fit;
   const withGammaBeta = Object.values(state.fits).filter((f) => f.gamma && f.beta);
   const fit = withGammaBeta[withGammaBeta.length - 1];
-  if (!fit) throw new StepFailure(state.fit ? `the fit above (model ${state.fit.model}) has no γ and β: name them gamma and beta, or choose a fit step` : `${what} needs a fit step above it`, "fitStepId");
+  if (!fit) throw new StepFailure(state.fit ? `the fit above (model ${state.fit.model}) has no γ and β: name them gamma and beta, or choose a fit step` : `${what} needs a fit step above it`, field);
   return fit;
 }
 
-export const deriveStep: StepDefinition<DeriveConfig> = {
+export const deriveStep = defineStep({
   kind: "derive",
   title: "Derived quantities",
   schema: deriveConfig,
@@ -98,4 +98,4 @@ export const deriveStep: StepDefinition<DeriveConfig> = {
       throw err;
     }
   },
-};
+});

@@ -5,20 +5,20 @@
 import { z } from "zod";
 import { entropyFromData, enthalpyFromData } from "../../thermo";
 import { InputError } from "../../errors";
-import { StepFailure, requireDataset, thinCurve, type StepDefinition } from "./shared";
+import { StepFailure, requireDataset, thinCurve, defineStep } from "./shared";
 import { pickFit } from "./derive";
 
 export const entropyConfig = z.object({ fitStepId: z.string().nullable().default(null) });
 export type EntropyConfig = z.infer<typeof entropyConfig>;
 
-export const entropyStep: StepDefinition<EntropyConfig> = {
+export const entropyStep = defineStep({
   kind: "entropy",
   title: "Entropy and enthalpy",
   schema: entropyConfig,
   dependencies: () => ({ measurementIds: [], sampleFields: [] }),
   compute(config, state) {
     const data = requireDataset(state, "the entropy step");
-    if (data.basis !== "formula-unit" && data.basis !== "atom") throw new StepFailure("the entropy step needs molar data: add a normalisation step above it");
+    if (data.basis !== "formula-unit" && data.basis !== "atom") throw new StepFailure("the entropy step needs molar data: add a normalisation step above it", "fitStepId");
     const fit = pickFit(state, config.fitStepId, "the entropy step");
     const low = {
       gamma: fit.gamma!.value, beta: fit.beta!.value,
@@ -38,4 +38,4 @@ export const entropyStep: StepDefinition<EntropyConfig> = {
       throw err;
     }
   },
-};
+});

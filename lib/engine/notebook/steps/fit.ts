@@ -14,7 +14,7 @@ import { applyWeighting, describeQuality, type AppliedWeighting } from "../../fi
 import { MODELS } from "../../models";
 import { InputError } from "../../errors";
 import type { FitSummary } from "../types";
-import { StepFailure, requireDataset, type StepDefinition } from "./shared";
+import { StepFailure, requireDataset, defineStep } from "./shared";
 import { modelCurve } from "./curve";
 import { packSources } from "../pointSource";
 
@@ -130,7 +130,7 @@ function recommendedStart(rec: Recommendation): Record<string, number> | undefin
   return { ...cell.extra, ...(cell.gamma !== null ? { gamma: cell.gamma } : {}), ...(cell.beta !== null ? { beta: cell.beta } : {}) };
 }
 
-export const fitStep: StepDefinition<FitConfig> = {
+export const fitStep = defineStep({
   kind: "fit",
   title: "Model fit",
   schema: fitConfig,
@@ -205,4 +205,4 @@ export const fitStep: StepDefinition<FitConfig> = {
       state: { ...state, fit: handed },
     };
   },
-};
+});

@@ -6,7 +6,7 @@ import { z } from "zod";
 import { normalise, changeMolarBasis, specificToMolar } from "../../corrections";
 import { InputError } from "../../errors";
 import type { Dataset } from "../types";
-import { StepFailure, requireDataset, type StepDefinition } from "./shared";
+import { StepFailure, requireDataset, defineStep } from "./shared";
 
 export const normaliseConfig = z.object({
   per: z.enum(["formula-unit", "atom"]).default("formula-unit"),
@@ -15,7 +15,7 @@ export const normaliseConfig = z.object({
 });
 export type NormaliseConfig = z.infer<typeof normaliseConfig>;
 
-export const normaliseStep: StepDefinition<NormaliseConfig> = {
+export const normaliseStep = defineStep({
   kind: "normalise",
   title: "Per-mole normalisation",
   schema: normaliseConfig,
@@ -49,4 +49,4 @@ export const normaliseStep: StepDefinition<NormaliseConfig> = {
       state: { ...state, dataset },
     };
   },
-};
+});

@@ -1,8 +1,9 @@
 import type { z } from "zod";
-import type { ChainContext, ChainState, StepDependencies, StepKind } from "../types";
+import type { ChainContext, ChainState, StepDependencies } from "../types";
 
 /** A step that cannot be computed from its configuration or its inputs: shown on the step, not thrown. */
 export class StepFailure extends Error {
+  /** The configuration field at fault (a key of the step's schema, dotted when nested), when one is. */
   readonly field: string | undefined;
   constructor(message: string, field?: string) {
     super(message);
@@ -11,20 +12,33 @@ export class StepFailure extends Error {
   }
 }
 
-export interface StepComputation {
-  result: unknown;
+/** What a step's computation returns: its result (JSON-safe, SI), warnings, and the state it hands down. */
+export interface StepComputation<R> {
+  result: R;
   warnings: string[];
   state: ChainState;
 }
 
-/** One kind of step: its configuration schema, what it reads outside the chain, and its computation. */
-export interface StepDefinition<C> {
-  kind: StepKind;
+/**
+ * One kind of step: its stored name, heading, configuration schema (zod: the handler's and the
+ * form's type), what it reads outside the chain, and its computation. The result type R is
+ * inferred from `compute`; the registry (registry.ts) derives every output type from it.
+ */
+export interface StepDefinition<K extends string, S extends z.ZodType, R> {
+  kind: K;
   title: string;
-  schema: z.ZodType<C>;
-  dependencies(config: C): StepDependencies;
-  compute(config: C, state: ChainState, ctx: ChainContext): StepComputation;
+  schema: S;
+  dependencies(config: z.output<S>): StepDependencies;
+  compute(config: z.output<S>, state: ChainState, ctx: ChainContext): StepComputation<R>;
 }
+
+/** Declare a step kind; the literal kind, schema and result type are kept for the registry. */
+export function defineStep<const K extends string, S extends z.ZodType, R>(def: StepDefinition<K, S, R>): StepDefinition<K, S, R> {
+  return def;
+}
+
+/** The result type of a step definition. */
+export type ResultOf<D> = D extends StepDefinition<string, z.ZodType, infer R> ? R : never;
 
 export function requireDataset(state: ChainState, what: string) {
   if (!state.dataset) throw new StepFailure(`${what} needs a data step above it`);

@@ -6,7 +6,7 @@
 import { z } from "zod";
 import { analyzeJump } from "../../superconductor";
 import { InputError } from "../../errors";
-import { StepFailure, requireDataset, type StepDefinition } from "./shared";
+import { StepFailure, requireDataset, defineStep } from "./shared";
 import { pickFit } from "./derive";
 
 export const transitionConfig = z.object({
@@ -16,15 +16,15 @@ export const transitionConfig = z.object({
 });
 export type TransitionConfig = z.infer<typeof transitionConfig>;
 
-export const transitionStep: StepDefinition<TransitionConfig> = {
+export const transitionStep = defineStep({
   kind: "transition",
   title: "Superconducting transition",
   schema: transitionConfig,
   dependencies: () => ({ measurementIds: [], sampleFields: [] }),
   compute(config, state) {
     const data = requireDataset(state, "the transition step");
-    if (data.basis !== "formula-unit" && data.basis !== "atom") throw new StepFailure("the transition step needs molar data: add a normalisation step above it");
-    const fit = pickFit(state, config.normalFitStepId, "the transition step");
+    if (data.basis !== "formula-unit" && data.basis !== "atom") throw new StepFailure("the transition step needs molar data: add a normalisation step above it", "normalFitStepId");
+    const fit = pickFit(state, config.normalFitStepId, "the transition step", "normalFitStepId");
     if (fit.basis !== data.basis) throw new StepFailure("the normal-state fit and the data are on different bases (per formula unit vs per atom)", "normalFitStepId");
     const warnings: string[] = [];
     if (config.normalState === "field-above-hc2" && fit.fieldT === 0) warnings.push("the normal-state fit is from zero-field data, but the step says it was measured in a field above H_c2");
@@ -45,4 +45,4 @@ export const transitionStep: StepDefinition<TransitionConfig> = {
       throw err;
     }
   },
-};
+});

@@ -4,7 +4,7 @@
  * server (lib/server/markdown.ts), for the client after it re-fetches the notebook. Checks the
  * session and the group membership itself, like every handler.
  */
-import { getDb } from "@/lib/server/db/client";
+import { database as getDb } from "@/lib/server/database";
 import { currentUser } from "@/lib/server/session";
 import { memberOf } from "@/lib/server/access";
 import { renderMarkdown } from "@/lib/server/markdown";

@@ -8,6 +8,7 @@ import { listMembers } from "@/lib/server/groups";
 import { can } from "@/lib/server/permissions";
 import { renderMarkdown } from "@/lib/server/markdown";
 import { MODELS } from "@/lib/engine/models";
+import { JOINT_MODELS } from "@/lib/engine/fit/jointModels";
 import { groupPaths } from "@/app/_lib/paths";
 import { Notebook } from "@/app/components/notebook/Notebook";
 import type { MeasurementChoice, ModelInfo, NotebookData, ThreadData } from "@/app/components/notebook/types";
@@ -20,6 +21,13 @@ function modelCatalogue(): ModelInfo[] {
   return Object.values(MODELS).map((m) => ({
     name: m.name, title: m.title, formula: m.formula,
     parameters: m.parameters.map((p) => ({ name: p.name, displayUnit: p.displayUnit, displayFactor: p.displayFactor, description: p.description })),
+  }));
+}
+
+function jointCatalogue(): ModelInfo[] {
+  return Object.values(JOINT_MODELS).map((m) => ({
+    name: m.name, title: m.title, formula: m.formula,
+    parameters: m.parameters.map((p) => ({ name: p.name, displayUnit: p.displayUnit, displayFactor: p.displayFactor, description: p.description, symbol: p.symbol, defaultShared: p.defaultShared })),
   }));
 }
 
@@ -45,6 +53,7 @@ export default async function AnalysisPage({ params, searchParams }: { params: P
         initialThreads={threads as ThreadData[]}
         initialNotes={notes}
         models={modelCatalogue()}
+        jointModels={jointCatalogue()}
         measurements={choices}
         meId={user.id}
         members={Object.fromEntries(members.map((m) => [m.userId, m.name || m.email]))}

@@ -85,7 +85,7 @@ export default async function DiffPage({ params, searchParams }: { params: Promi
           <tbody>
             {d.results.map((m) => (
               <tr key={m.key}>
-                <td><Sym m={symbolOf(m.name)} /> <span className="small muted">{term(m.name).label}, {stepRefLabel(m.key.split(":")[0]!)}</span></td>
+                <td><Sym m={symbolOf(m.name.split("#")[0]!)} />{m.name.includes("#") ? ` of measurement ${m.name.split("#")[1]}` : ""} <span className="small muted">{term(m.name.split("#")[0]!).label}, {stepRefLabel(m.key.split(":")[0]!)}</span></td>
                 <td className="mono">{valued(m.from, m.unit)}</td>
                 <td className="mono">{valued(m.to, m.unit)}</td>
                 <td className="num mono">{m.change === null ? "—" : valueText(m.change, null, m.unit)}</td>
