@@ -237,11 +237,12 @@ describe("fitJoint with more nonlinear parameters than the grid takes", () => {
 });
 
 describe("fitJoint standard errors", () => {
-  it("fitJoint σ of γ and g match the spread of the estimates over 40 seeds (within 25 %)", () => {
+  // 100 seeds: the sample standard deviation has a relative standard error of about 7 %, so a 20 % bar is ~3 of them
+  it("fitJoint σ of γ and g match the spread of the estimates over 100 seeds (within 20 %)", () => {
     const truth = { gamma: 4e-3, beta: 2.5e-4, n: 8e-3, g: 2 };
     const est: Record<string, number[]> = { gamma: [], g: [] };
     const reported: Record<string, number[]> = { gamma: [], g: [] };
-    for (let seed = 100; seed < 140; seed++) {
+    for (let seed = 1000; seed < 1100; seed++) {
       const r = fitJoint(invent([1, 2, 4], truth, seed, 40), { model: "zeeman-schottky" });
       for (const k of ["gamma", "g"]) {
         est[k].push(value(r, k).value);
@@ -252,7 +253,7 @@ describe("fitJoint standard errors", () => {
       const mean = est[k].reduce((a, b) => a + b, 0) / est[k].length;
       const sd = Math.sqrt(est[k].reduce((a, b) => a + (b - mean) ** 2, 0) / (est[k].length - 1));
       const typical = reported[k].reduce((a, b) => a + b, 0) / reported[k].length;
-      expect(Math.abs(sd / typical - 1), `${k}: spread ${sd} vs reported ${typical}`).toBeLessThan(0.25);
+      expect(Math.abs(sd / typical - 1), `${k}: spread ${sd} vs reported ${typical}`).toBeLessThan(0.2);
     }
   });
 
