@@ -415,6 +415,8 @@ describe("fitJoint bad input names the field", () => {
     ["a value outside the bounds", () => fitJoint(good, { model: "zeeman-schottky", start: { g: -1 } }), "start.g"],
     ["an unknown model", () => fitJoint(good, { model: "zeeman" }), "model"],
     ["a refused expression", () => fitJoint(good, { model: { expression: "gamma*T + import(x)" } }), "expression"],
+    ["more measurements than the limit", () => fitJoint(Array.from({ length: 65 }, () => good[0]), { model: "normal-state" }), "measurements"],
+    ["more free parameters than the limit", () => fitJoint(Array.from({ length: 45 }, (_, k) => ({ ...good[k % 2], fieldT: 1 + k })), { model: "zeeman-schottky", shared: ["gamma"] }), "shared"],
     ["every field zero for a field model", () => fitJoint(good.map((d) => ({ ...d, fieldT: 0 })), { model: "zeeman-schottky" }), "measurements[0].fieldT"],
   ];
   for (const [label, call, field] of cases) it(`fitJoint refuses ${label} naming ${field}`, () => expect(fieldOf(call)).toBe(field));

@@ -11,5 +11,5 @@ export { applyWeighting, describeQuality, type WeightingChoice, type AppliedWeig
 export { fitGlobal, multiStartThetas, type GlobalSearch } from "./global";
 export { solveAmplitudes, projected, gridSearch, reducedFit, type SeparableProblem, type Candidate, type Axis } from "./separable";
 export { fitExpression, fitSeparableCore, searchBudget, localFitLimit, type SeparableCore } from "./expressionFit";
-export { fitJoint, type JointMeasurement, type JointFitOptions, type JointParameter, type JointFitResult, type JointMeasurementResult } from "./joint";
+export { fitJoint, MAX_MEASUREMENTS, MAX_JOINT_PARAMETERS, MAX_JACOBIAN_ENTRIES, type JointMeasurement, type JointFitOptions, type JointParameter, type JointFitResult, type JointMeasurementResult } from "./joint";
 export { JOINT_MODELS, compileJointExpression, type JointModelSpec, type JointParameterSpec, type JointRangeData } from "./jointModels";

@@ -20,7 +20,9 @@
  * shared). Throws InputError naming the field (`measurements[2].temperatureK`, `shared`,
  * `start.g#3`, …) for: no measurements, unequal lengths, non-finite values, T ≤ 0, σ ≤ 0, σ
  * given for some measurements only, an unknown or ill-formed parameter key, a value outside
- * its bounds, a window with too few points, dof ≤ 0, every field zero for a field model.
+ * its bounds, a window with too few points, dof ≤ 0, every field zero for a field model, more
+ * than MAX_MEASUREMENTS measurements, MAX_JOINT_PARAMETERS free parameters or
+ * MAX_JACOBIAN_ENTRIES points × free parameters.
  */
 import { InputError } from "../errors";
 import { fitCore, type CoreOptions } from "./core";
@@ -110,6 +112,7 @@ export interface JointFitResult {
 /** Fit `options.model` jointly to `measurements`. See the module comment. */
 export function fitJoint(measurements: readonly JointMeasurement[], options: JointFitOptions): JointFitResult {
   if (!Array.isArray(measurements) || measurements.length === 0) throw new InputError("no measurements to fit (give at least one)", { field: "measurements" });
+  if (measurements.length > MAX_MEASUREMENTS) throw new InputError(`${measurements.length} measurements, at most ${MAX_MEASUREMENTS} in one joint fit`, { field: "measurements" });
   const r = options.r ?? 1;
   if (!(r > 0 && Number.isFinite(r))) throw new InputError(`invalid r: ${r} (atoms per formula unit must be > 0)`, { field: "r" });
   const model = localModel(options.model, r);
@@ -245,11 +248,17 @@ function checkCounts(model: LocalModel, layout: Layout, opt: CoreOptions, series
     }
   });
   const nFree = opt.fixed.filter((f) => !f).length;
+  if (nFree > MAX_JOINT_PARAMETERS) throw new InputError(`${nFree} free parameters, at most ${MAX_JOINT_PARAMETERS} in one joint fit (share more of them)`, { field: "shared" });
+  if (data.T.length * nFree > MAX_JACOBIAN_ENTRIES) throw new InputError(`${data.T.length} points × ${nFree} free parameters exceed the limit of ${MAX_JACOBIAN_ENTRIES.toExponential(0).replace("e+", " × 10^")} for one joint fit (narrow the windows or share more parameters)`, { field: "measurements" });
   if (data.T.length - nFree <= 0) throw new InputError(`${data.T.length} points in all windows cannot determine ${nFree} free parameters (dof = ${data.T.length - nFree} ≤ 0)`, { field: "measurements" });
   if (model.needsField && series.every((s) => s.fieldT === 0)) throw new InputError(`model ${model.name} needs a non-zero field in at least one measurement (all fieldT are 0)`, { field: "measurements[0].fieldT" });
 }
 
 const GRID_BUDGET = 4000;
+/** Limits that keep one joint fit bounded in memory and time (the Jacobian is points × free parameters). */
+export const MAX_MEASUREMENTS = 64;
+export const MAX_JOINT_PARAMETERS = 128;
+export const MAX_JACOBIAN_ENTRIES = 2e7;
 
 /** Choose and run the search; see the module comment. */
 function runFit(model: LocalModel, layout: Layout, data: Stacked, opt: CoreOptions, series: readonly CheckedMeasurement[], options: JointFitOptions): FitResult {
