@@ -249,7 +249,7 @@ function checkCounts(model: LocalModel, layout: Layout, opt: CoreOptions, series
   });
   const nFree = opt.fixed.filter((f) => !f).length;
   if (nFree > MAX_JOINT_PARAMETERS) throw new InputError(`${nFree} free parameters, at most ${MAX_JOINT_PARAMETERS} in one joint fit (share more of them)`, { field: "shared" });
-  if (data.T.length * nFree > MAX_JACOBIAN_ENTRIES) throw new InputError(`${data.T.length} points × ${nFree} free parameters exceed the limit of ${MAX_JACOBIAN_ENTRIES.toExponential(0).replace("e+", " × 10^")} for one joint fit (narrow the windows or share more parameters)`, { field: "measurements" });
+  if (data.T.length * nFree > MAX_JACOBIAN_ENTRIES) throw new InputError(`${data.T.length} points × ${nFree} free parameters exceed the limit of ${MAX_JACOBIAN_ENTRIES / 1e6} million for one joint fit (narrow the windows or share more parameters)`, { field: "measurements" });
   if (data.T.length - nFree <= 0) throw new InputError(`${data.T.length} points in all windows cannot determine ${nFree} free parameters (dof = ${data.T.length - nFree} ≤ 0)`, { field: "measurements" });
   if (model.needsField && series.every((s) => s.fieldT === 0)) throw new InputError(`model ${model.name} needs a non-zero field in at least one measurement (all fieldT are 0)`, { field: "measurements[0].fieldT" });
 }
