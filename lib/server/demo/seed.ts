@@ -51,20 +51,21 @@ async function importDemo(db: Db, member: Member, sampleId: string, file: DemoFi
 }
 
 /**
- * The superconducting sample in field (fieldCurves.ts): normal state at 2 T (the demo analysis
- * uses it) and 3 T, then the mixed state below the invented H_c2(0) = 1.8 T.
+ * The superconducting sample in field (fieldCurves.ts): the mixed state below the invented
+ * H_c2(0) = 1.8 T, then the normal state at 2 T (the demo analysis uses it) and 3 T, in rising
+ * field so that the newest-first lists show them in falling field.
  */
 async function seedFieldCurves(db: Db, member: Member, sampleId: string, code: string, formula: string, spec: CurveSpec, moles: number, i: number): Promise<void> {
-  for (const [k, h] of NORMAL_STATE_FIELDS_T.entries()) {
-    // 300 + i: the seed of the 2 T curve since the demo began, so that curve is unchanged.
-    const file = demoFile(`${code}-${h}T.csv`, `${formula}, ${h} T (above the upper critical field)`, temperatureGrid(1.8, 20, 100), (T) => moles * molarHeatCapacity(spec, T, true) + addendaHeatCapacity(T), 300 + i + 50 * k);
-    await importDemo(db, member, sampleId, file, `${formula}, ${h} T normal state`, h, `Normal state in a field above H_c2 (invented H_c2(0) = ${DEMO_HC2_T} T).`);
-  }
   for (const [k, h] of MIXED_STATE_FIELDS_T.entries()) {
     const mixed = mixedStateSpec(spec, h);
     const file = demoFile(`${code}-${h}T.csv`, `${formula}, ${h} T (mixed state, below the upper critical field)`, temperatureGrid(0.6, 20, 150), (T) => moles * molarHeatCapacity(mixed, T) + addendaHeatCapacity(T), 500 + 10 * i + k);
     await importDemo(db, member, sampleId, file, `${formula}, ${h} T mixed state`, h,
-      `Mixed state below H_c2(0) = ${DEMO_HC2_T} T (invented): T_c(H) ≈ ${mixed.tcK!.toFixed(2)} K, residual γ(H)/γ_n = ${mixed.residualGammaFraction!.toFixed(3)}, linear in H (fully gapped).`);
+      `Total heat capacity incl. addenda. Mixed state below H_c2(0) = ${DEMO_HC2_T} T (invented): T_c(H) ≈ ${mixed.tcK!.toFixed(2)} K, residual γ(H)/γ_n = ${mixed.residualGammaFraction!.toFixed(3)}, linear in H (fully gapped).`);
+  }
+  for (const [k, h] of NORMAL_STATE_FIELDS_T.entries()) {
+    // 300 + i: the seed of the 2 T curve since the demo began, so that curve is unchanged.
+    const file = demoFile(`${code}-${h}T.csv`, `${formula}, ${h} T (above the upper critical field)`, temperatureGrid(1.8, 20, 100), (T) => moles * molarHeatCapacity(spec, T, true) + addendaHeatCapacity(T), 300 + i + 50 * k);
+    await importDemo(db, member, sampleId, file, `${formula}, ${h} T normal state`, h, `Normal state in a field above H_c2 (invented H_c2(0) = ${DEMO_HC2_T} T).`);
   }
 }
 
@@ -73,7 +74,7 @@ async function seedMagneticAlloy(db: Db, member: Member): Promise<void> {
   const m = MAGNETIC_ALLOY;
   const sample = await createSample(db, member, {
     label: `MA-01 ${m.formula} (demo)`, formula: m.formula, massMg: m.massMg, densityGPerCm3: m.densityGPerCm3,
-    notes: "Dilute magnetic alloy, 0.4 % Mn in Cu, quenched (invented provenance). Mn moments modelled as free spin-½ doublets with g = 2.04. INVENTED DEMO DATA.",
+    notes: "Dilute magnetic alloy, 0.4 % Mn in Cu, quenched (invented provenance). Mn moments modelled as free spin-½ doublets with g = 2.04 (a simplification). INVENTED DEMO DATA.",
     tags: ["demo", "magnetic"],
   });
   const moles = (m.massMg * 1e-3) / sample.molarMassGPerMol;
