@@ -12,8 +12,17 @@
  *      Below T_c(H) − spread this is exactly C = γ(H)T + [β + 3(γ_n − γ(H))·⟨T_c⁻²⟩]T³ + δT⁵,
  *      ⟨T_c⁻²⟩ the mean of 1/(T_c(H) + kσ)² over k = −1, −½, 0, ½, 1 (σ the spread).
  *      Same lattice as zero field; no nuclear term (real ⁹³Nb would add A/T² ∝ H² below ~1 K).
- *    - normal-state curves at 2 T (existing) and 3 T: C = γ_n T + βT³ + δT⁵ in both.
- *    True values per field: see `mixedStateSpec` and the table in the report of issue #17.
+ *    - normal-state curves at 2 T (existing) and 3 T: C = γ_n T + βT³ + δT⁵ in both
+ *      (β = 12π⁴R/(5Θ_D³) = 0.09245 mJ mol⁻¹ K⁻⁴).
+ *    True values per field (γ in mJ mol⁻¹ K⁻², β_eff the T³ coefficient below T_c(H) − spread,
+ *    in mJ mol⁻¹ K⁻⁴; the parabolic T_c(H) makes it nearly field-independent):
+ *        H (T)   T_c(H) (K)  γ(H)/γ_n  γ(H)    spread (K)  β_eff
+ *        0       9.100       0.0300    0.2310  0.080       0.36307
+ *        0.25    8.444       0.1647    1.2684  0.105       0.36310
+ *        0.5     7.734       0.2994    2.3057  0.130       0.36315
+ *        1       6.067       0.5689    4.3804  0.180       0.36339
+ *        1.5     3.715       0.8383    6.4552  0.230       0.36460
+ *        2, 3    normal      1         7.7     —           0.09245
  * 2. A dilute magnetic alloy Cu₀.₉₉₆Mn₀.₀₀₄ (MA-01) at 0, 2, 4 and 6 T:
  *        C = γT + βT³ + n·R·x²eˣ/(1 + eˣ)² + a_N·H²/T²,   x = Δ/T,  Δ = g·μ_B·H/k_B
  *    with γ = 0.71 mJ mol⁻¹ K⁻², Θ_D = 340 K (β = 12π⁴R/(5Θ_D³) ≈ 0.04946 mJ mol⁻¹ K⁻⁴),
@@ -22,6 +31,13 @@
  *    Cu carries S = 5/2 and its moments interact). a_N is of the size of copper's nuclear
  *    Zeeman tail R·I(I+1)/3·(γ_N ħ H/k_B T)² with I = 3/2 (estimate, Cu nuclear moments from
  *    memory). Zero field: no Schottky and no nuclear term. μ_B, k_B, R: CODATA 2018.
+ *        H (T)   Δ/k_B (K)   A = a_N·H² (mJ K mol⁻¹)
+ *        0       0           0
+ *        2       2.7406      0.0128
+ *        4       5.4812      0.0512
+ *        6       8.2218      0.1152
+ *    Files: 0.4–16 K, 130 points; Nb mixed state 0.6–20 K, 150 points; Nb normal 1.8–20 K,
+ *    100 points; σ = 0.4 % of the total (sample + addenda) + 2 nJ/K, seeded normal noise.
  */
 import { BOHR_MAGNETON_J_PER_T, BOLTZMANN_J_PER_K, GAS_CONSTANT_J_PER_MOL_K as R } from "../../engine/constants";
 import { schottkyHeatCapacity } from "../../engine/models/schottky";
