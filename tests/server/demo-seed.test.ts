@@ -84,6 +84,8 @@ describe("seedDemo in fields", () => {
     expect(ma.molarMassGPerMol).toBeCloseTo(0.996 * 63.546 + 0.004 * 54.938, 2);
     expect(ma.seriesLabel).toBeNull();
     expect(ma.measurements.map((m) => m.fieldT).sort((a, b) => a - b)).toEqual([0, 2, 4, 6]);
+    expect(ma.label).toBe("MA-01 CuMn 0.4 at.% (demo)");
+    expect(ma.measurements.find((m) => m.fieldT === 4)!.label).toBe("CuMn 0.4 at.%, 4 T");
   });
 
   it("seedDemo marks every new measurement and its stored file as invented demo data", async () => {

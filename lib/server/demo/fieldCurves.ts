@@ -81,6 +81,8 @@ export interface MagneticAlloySpec {
 /** The demo's dilute magnetic alloy (INVENTED). */
 export const MAGNETIC_ALLOY = {
   formula: "Cu0.996Mn0.004",
+  /** How the trade names a dilute alloy; used in the sample's and measurements' labels. */
+  label: "CuMn 0.4 at.%",
   massMg: 41.7,
   densityGPerCm3: 8.93,
   fieldsT: [0, 2, 4, 6] as const,

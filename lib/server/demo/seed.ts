@@ -73,15 +73,15 @@ async function seedFieldCurves(db: Db, member: Member, sampleId: string, code: s
 async function seedMagneticAlloy(db: Db, member: Member): Promise<void> {
   const m = MAGNETIC_ALLOY;
   const sample = await createSample(db, member, {
-    label: `MA-01 ${m.formula} (demo)`, formula: m.formula, massMg: m.massMg, densityGPerCm3: m.densityGPerCm3,
-    notes: "Dilute magnetic alloy, 0.4 % Mn in Cu, quenched (invented provenance). Mn moments modelled as free spin-½ doublets with g = 2.04 (a simplification). INVENTED DEMO DATA.",
+    label: `MA-01 ${m.label} (demo)`, formula: m.formula, massMg: m.massMg, densityGPerCm3: m.densityGPerCm3,
+    notes: "Dilute magnetic alloy, 0.4 at.% Mn in Cu, quenched (invented provenance). Mn moments modelled as free spin-½ doublets with g = 2.04 (a simplification). INVENTED DEMO DATA.",
     tags: ["demo", "magnetic"],
   });
   const moles = (m.massMg * 1e-3) / sample.molarMassGPerMol;
   const temps = temperatureGrid(0.4, 16, 130);
   for (const [k, h] of m.fieldsT.entries()) {
     const file = demoFile(`MA-1-${h}T.csv`, `${m.formula}, ${h} T`, temps, (T) => moles * magneticAlloyHeatCapacity(m.spec, T, h) + addendaHeatCapacity(T), 600 + k);
-    await importDemo(db, member, sample.id, file, `${m.formula}, ${h} T`, h,
+    await importDemo(db, member, sample.id, file, `${m.label}, ${h} T`, h,
       h === 0 ? "Total heat capacity incl. addenda; zero field: no Zeeman Schottky term." : `Total heat capacity incl. addenda; Zeeman Schottky term with Δ = g μ_B H / k_B ≈ ${zeemanGapK(m.spec.g, h).toFixed(2)} K.`);
   }
 }
