@@ -10,6 +10,7 @@ import { memberOf } from "../access";
 import { reviewTransition, reviseSealed } from "../review";
 import { DEMO_PASSWORD } from "./seed";
 import { createSeries } from "../series";
+import { NORMAL_STATE_FIELDS_T } from "./fieldCurves";
 
 async function configure(db: Db, member: Member, analysisId: string, edits: Record<string, Record<string, unknown>>): Promise<void> {
   const nb = await openNotebook(db, member, analysisId);
@@ -59,7 +60,8 @@ export async function seedDemoAnalyses(db: Db, member: Member): Promise<void> {
   for (const s of samples) {
     const ms = await db.measurement.findMany({ where: { sampleId: s.id }, orderBy: { createdAt: "asc" } });
     const zero = ms.find((m) => m.fieldT === 0)!;
-    const inField = ms.find((m) => m.fieldT > 0);
+    // The superconductor's first normal-state field (2 T); its mixed-state curves are not for this analysis.
+    const inField = ms.find((m) => m.fieldT === NORMAL_STATE_FIELDS_T[0]);
     if (inField && addenda) {
       // Superconductor: normal state from the 2 T curve, then the zero-field transition.
       const a = await createAnalysis(db, member, { sampleId: s.id, title: `${s.label}: normal state and transition`, starter: "standard" });
