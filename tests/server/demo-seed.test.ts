@@ -149,3 +149,50 @@ describe("seeded curves recover their invented truth (single-curve fits, 3σ)", 
     });
   }
 });
+
+describe("demo analyses across fields and over a wide range", () => {
+  async function stepsOf(titleEnd: string) {
+    const { memberOf } = await import("../../lib/server/access");
+    const { openNotebook } = await import("../../lib/server/notebook");
+    const analyst = await t.db.user.findUniqueOrThrow({ where: { email: "arun.analyst@demo.heatbook" } });
+    const a = await t.db.analysis.findFirstOrThrow({ where: { title: { endsWith: titleEnd } }, include: { group: true } });
+    const member = await memberOf(t.db, analyst.id, a.group.slug);
+    return (await openNotebook(t.db, member, a.id)).steps;
+  }
+  const resultOfKind = (steps: Awaited<ReturnType<typeof stepsOf>>, kind: string, k = 0) => {
+    const s = steps.filter((x) => x.kind === kind)[k]!;
+    expect(s.output?.ok, `${kind}: ${s.output?.error}`).toBe(true);
+    return s.output!.result as any;
+  };
+
+  it("the demo γ(H) analysis prefers the linear law the curves were made with and finds γ_n within 3σ", async () => {
+    const steps = await stepsOf("γ(H) across fields");
+    const normal = resultOfKind(steps, "joint-fit", 0);
+    const g = normal.fit.parameters.find((p: any) => p.key === "gamma");
+    expect(Math.abs(g.value - 7.7e-3)).toBeLessThan(3 * g.stdError);
+    const gh = resultOfKind(steps, "gamma-field");
+    expect(gh.preferred).toBe("linear");
+    expect(gh.fields.map((f: any) => f.fieldT)).toEqual([0, ...MIXED_STATE_FIELDS_T]);
+    const lin = gh.laws.find((l: any) => l.law === "linear");
+    expect(Math.abs(lin.intercept.value - 0.03)).toBeLessThan(3 * lin.intercept.stdError + 0.01);
+    expect(Math.abs(lin.slope.value * 1.8 / gh.hc2T - 0.97)).toBeLessThan(3 * lin.slope.stdError + 0.02);
+  });
+
+  it("the demo alloy's joint fit recovers γ, n, g and the nuclear coefficient within 3σ", async () => {
+    const steps = await stepsOf("Schottky term across fields");
+    const r = resultOfKind(steps, "joint-fit");
+    const p = (k: string) => r.fit.parameters.find((q: any) => q.key === k);
+    const s = MAGNETIC_ALLOY.spec;
+    for (const [k, truth] of [["gamma", s.gammaMJ * 1e-3], ["n", s.n], ["g", s.g], ["a", s.nuclearPerT2MJ * 1e-3]] as const) {
+      expect(Math.abs(p(k).value - truth), `${k} = ${p(k).value} ± ${p(k).stdError}`).toBeLessThan(3 * p(k).stdError);
+    }
+    expect(resultOfKind(steps, "derive").quantities.some((q: any) => q.name === "thetaD")).toBe(true);
+  });
+
+  it("the demo lattice views show the Einstein-like mode near Θ_E/4.93", async () => {
+    const steps = await stepsOf("lattice over a wide range");
+    const r = resultOfKind(steps, "lattice");
+    expect(r.peak).not.toBeNull();
+    expect(Math.abs(4.928 * r.peak.temperatureK / 70 - 1)).toBeLessThan(0.2);
+  });
+});

@@ -13,6 +13,7 @@ import { createSample } from "../samples";
 import { importMeasurement } from "../measurements";
 import { seedDemoAnalyses } from "./analyses";
 import { addendaHeatCapacity, demoFile, molarHeatCapacity, temperatureGrid, type CurveSpec, type DemoFile } from "./curves";
+import { WIDE_RANGE, wideRangeHeatCapacity } from "./wideRange";
 import { DEMO_HC2_T, MAGNETIC_ALLOY, MIXED_STATE_FIELDS_T, NORMAL_STATE_FIELDS_T, magneticAlloyHeatCapacity, mixedStateSpec, zeemanGapK } from "./fieldCurves";
 
 export const DEMO_PASSWORD = "heatbook-demo";
@@ -128,6 +129,12 @@ export async function seedDemo(db: Db): Promise<boolean> {
       kind: "sample", label: `${formula}, 0 T`, fieldT: 0, mapping: MAPPING, units: UNITS, notes: "Total heat capacity incl. addenda. INVENTED DEMO DATA.",
     });
     if (s.spec.tcK) await seedFieldCurves(db, labMember, sample.id, `NM-${i + 1}`, formula, s.spec, moles, i);
+    if (i === 1) {
+      // NM-02 also has a wide-range curve for the lattice views (wideRange.ts).
+      const w = WIDE_RANGE;
+      const wide = demoFile(`NM-${i + 1}-wide-range.csv`, `${formula}, zero field, 2–120 K (addenda subtracted)`, temperatureGrid(w.tMinK, w.tMaxK, w.points), (T) => moles * wideRangeHeatCapacity(s.spec.gammaMJ, s.spec.thetaDK, sample.atomsPerFormulaUnit, T), 700 + i, w.relNoise);
+      await importDemo(db, labMember, sample.id, wide, `${formula}, 0 T, 2–120 K`, 0, "Wide-range curve from a second instrument, addenda already subtracted; includes a weak Einstein-like mode (Θ_E = 70 K, invented).");
+    }
   }
   await seedMagneticAlloy(db, labMember);
 
