@@ -55,6 +55,20 @@ describe("joint fit step", () => {
     }
   });
 
+  it("joint fit step with zeeman-schottky-nuclear recovers γ, β, n, g and the H² nuclear tail from 0.4 K within 3σ", () => {
+    const G = 0.71e-3, B = 0.0495e-3, N = 0.004, GF = 2.04, A = 3.2e-6; // invented truth (SI)
+    for (const seed of [4, 5, 6]) {
+      const ctx = context([0, 2, 4, 6], (t, h) => G * t + B * t ** 3 + N * schottky(t, (GF * MUB * h) / KB) + (A * h * h) / (t * t), seed);
+      const out = computeChain([data(4), { id: "j", kind: "joint-fit", config: { model: "zeeman-schottky-nuclear" } }], ctx);
+      expect(out[1]!.ok, out[1]!.error ?? "").toBe(true);
+      const r = out[1]!.result as StepResult<"joint-fit">;
+      const p = (k: string) => r.fit.parameters.find((q) => q.key === k)!;
+      for (const [k, truth] of [["gamma", G], ["beta", B], ["n", N], ["g", GF], ["a", A]] as const) {
+        expect(Math.abs(p(k).value - truth), `${k} seed ${seed}`).toBeLessThan(3 * p(k).stdError!);
+      }
+    }
+  });
+
   it("joint fit step with one measurement gives the fit step's γ and β", () => {
     const ctx = context([0], (t) => 1.2e-3 * t + 0.1e-3 * t ** 3, 5, 5);
     const out = computeChain([data(1), { id: "f", kind: "fit", config: { model: "sommerfeld" } }, { id: "j", kind: "joint-fit", config: { model: "sommerfeld" } }], ctx);

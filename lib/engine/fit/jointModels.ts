@@ -157,6 +157,15 @@ export const JOINT_MODELS: Readonly<Record<string, JointModelSpec>> = Object.fre
         needsField: true,
       }),
       define({
+        name: "zeeman-schottky-nuclear",
+        title: "γT + βT³ + Zeeman-split two-level Schottky + nuclear tail a H²/T²",
+        formula: "C = γT + βT³ + n R x² eˣ/(1 + eˣ)² + a H²/T², x = Δ/T, Δ = g μ_B H/k_B",
+        expression: `gamma*T + beta*T^3 + ${schottkyTerm(ZEEMAN_X)} + a*H^2/T^2`,
+        parameters: [GAMMA, BETA, N, G, A_FIELD],
+        ranges: (data) => ({ g: gRange(data) }),
+        needsField: true,
+      }),
+      define({
         name: "nuclear-field",
         title: "γT + βT³ + nuclear tail a H²/T²",
         formula: "C = γT + βT³ + a H²/T²",

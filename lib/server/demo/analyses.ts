@@ -10,6 +10,7 @@ import { memberOf } from "../access";
 import { reviewTransition, reviseSealed } from "../review";
 import { DEMO_PASSWORD } from "./seed";
 import { createSeries } from "../series";
+import { DEMO_HC2_T, NORMAL_STATE_FIELDS_T } from "./fieldCurves";
 
 async function configure(db: Db, member: Member, analysisId: string, edits: Record<string, Record<string, unknown>>): Promise<void> {
   const nb = await openNotebook(db, member, analysisId);
@@ -22,6 +23,49 @@ async function configure(db: Db, member: Member, analysisId: string, edits: Reco
 async function append(db: Db, member: Member, analysisId: string, kind: string, config: Record<string, unknown>, title = ""): Promise<void> {
   const nb = await openNotebook(db, member, analysisId);
   await addStep(db, member, analysisId, { revisionId: nb.revision.id, revisionVersion: nb.revision.version, kind, title, config });
+}
+
+/** The id of the analysis's step with this title (in the newest revision). */
+async function stepIdByTitle(db: Db, member: Member, analysisId: string, title: string): Promise<string> {
+  const nb = await openNotebook(db, member, analysisId);
+  const step = nb.steps.find((s) => s.title === title);
+  if (!step) throw new Error(`demo: no step titled ${JSON.stringify(title)}`);
+  return step.id;
+}
+
+/**
+ * The superconductor across fields (fieldCurves.ts): the normal state fitted jointly at 2 and 3 T,
+ * γ(H) per field from a joint fit of the zero-field and mixed-state curves below 3 K (β shared),
+ * then γ(H)/γ_n against H/H_c2 with the invented H_c2(0) = 1.8 T.
+ */
+async function seedFieldAnalysis(db: Db, member: Member, sample: { id: string; label: string }, ms: { id: string; fieldT: number }[], addendaId: string): Promise<void> {
+  const a = await createAnalysis(db, member, { sampleId: sample.id, title: `${sample.label}: γ(H) across fields`, starter: "empty" });
+  const normal = ms.filter((m) => m.fieldT >= DEMO_HC2_T).map((m) => m.id);
+  const below = ms.filter((m) => m.fieldT < DEMO_HC2_T).sort((x, y) => x.fieldT - y.fieldT).map((m) => m.id);
+  await append(db, member, a.id, "note", { markdown: `γ(H) of the superconductor: normal state from the curves above H_c2 (2 T and 3 T), γ per field from the zero-field and mixed-state curves (0–1.5 T) fitted together with a common β below 3 K, well below T_c(H). H_c2(0) = ${DEMO_HC2_T} T is invented for the demo. *Invented demo data.*` });
+  await append(db, member, a.id, "data", { measurementIds: normal }, "Normal state, 2 T and 3 T");
+  await append(db, member, a.id, "addenda", { addendaMeasurementId: addendaId, method: "smooth", outsideRange: "flag" });
+  await append(db, member, a.id, "normalise", { per: "formula-unit" });
+  await append(db, member, a.id, "joint-fit", { model: "normal-state", tMinK: 1.8, tMaxK: 6 }, "Normal state across fields");
+  await append(db, member, a.id, "data", { measurementIds: below }, "Zero field and mixed state");
+  await append(db, member, a.id, "addenda", { addendaMeasurementId: addendaId, method: "smooth", outsideRange: "flag" });
+  await append(db, member, a.id, "normalise", { per: "formula-unit" });
+  await append(db, member, a.id, "joint-fit", { model: "sommerfeld", shared: ["beta"], tMaxK: 3 }, "γ per field below 3 K");
+  const normalFit = await stepIdByTitle(db, member, a.id, "Normal state across fields");
+  await append(db, member, a.id, "gamma-field", { hc2T: DEMO_HC2_T, normalFitStepId: normalFit });
+  await openNotebook(db, member, a.id);
+}
+
+/** The dilute magnetic alloy: one joint fit of its four fields (Zeeman Schottky and nuclear tail), derived quantities from its γ and β. */
+async function seedAlloyAnalysis(db: Db, member: Member, sample: { id: string; label: string }, ms: { id: string; fieldT: number }[], addendaId: string): Promise<void> {
+  const a = await createAnalysis(db, member, { sampleId: sample.id, title: `${sample.label}: Schottky term across fields`, starter: "empty" });
+  await append(db, member, a.id, "data", { measurementIds: [...ms].sort((x, y) => x.fieldT - y.fieldT).map((m) => m.id) }, "All fields");
+  await append(db, member, a.id, "addenda", { addendaMeasurementId: addendaId, method: "smooth", outsideRange: "flag" });
+  await append(db, member, a.id, "normalise", { per: "formula-unit" });
+  await append(db, member, a.id, "joint-fit", { model: "zeeman-schottky-nuclear", tMaxK: 10 }, "Zeeman Schottky and nuclear tail, shared γ and β");
+  await append(db, member, a.id, "derive", {});
+  await append(db, member, a.id, "note", { markdown: "γ and β are shared by the four fields; the Schottky term's n and g and the nuclear coefficient a (A = a H²) as well. *Invented demo data.*" });
+  await openNotebook(db, member, a.id);
 }
 
 /** Submit the newest revision (analyst) and, unless `stop`, approve it (reviewer). */
@@ -58,8 +102,10 @@ export async function seedDemoAnalyses(db: Db, member: Member): Promise<void> {
   const addenda = await db.measurement.findFirst({ where: { groupId: member.group.id, kind: "addenda" } });
   for (const s of samples) {
     const ms = await db.measurement.findMany({ where: { sampleId: s.id }, orderBy: { createdAt: "asc" } });
+    // The first zero-field curve (a sample may also have a wide-range one, analysed on its own below).
     const zero = ms.find((m) => m.fieldT === 0)!;
-    const inField = ms.find((m) => m.fieldT > 0);
+    // The superconductor's first normal-state field (2 T); its mixed-state curves are not for this analysis.
+    const inField = ms.find((m) => m.fieldT === NORMAL_STATE_FIELDS_T[0]);
     if (inField && addenda) {
       // Superconductor: normal state from the 2 T curve, then the zero-field transition.
       const a = await createAnalysis(db, member, { sampleId: s.id, title: `${s.label}: normal state and transition`, starter: "standard" });
@@ -71,15 +117,29 @@ export async function seedDemoAnalyses(db: Db, member: Member): Promise<void> {
       await append(db, member, a.id, "transition", { normalState: "field-above-hc2" });
       await append(db, member, a.id, "entropy", {});
       await openNotebook(db, member, a.id);
+      await seedFieldAnalysis(db, member, s, ms, addenda.id);
       continue;
+    }
+    const wide = ms.find((m) => m.tMaxK > 50);
+    if (wide) {
+      // The wide-range curve: γ from its low end, then the lattice views (wideRange.ts).
+      const w = await createAnalysis(db, member, { sampleId: s.id, title: `${s.label}: lattice over a wide range`, starter: "empty" });
+      await append(db, member, w.id, "data", { measurementIds: [wide.id] }, "Wide-range curve");
+      await append(db, member, w.id, "normalise", { per: "formula-unit" });
+      await append(db, member, w.id, "fit", { model: "sommerfeld", tMinK: 2, tMaxK: 6 }, "γ and β at the low end");
+      await append(db, member, w.id, "lattice", {});
+      await openNotebook(db, member, w.id);
     }
     const a = await createAnalysis(db, member, { sampleId: s.id, title: `${s.label}: γ and Θ_D`, starter: "standard" });
     const low = zero.tMinK < 1;
     await configure(db, member, a.id, {
+      data: { measurementIds: [zero.id] },
       fit: low ? { model: "nuclear", tMinK: zero.tMinK, tMaxK: 6, scan: false } : { tMinK: 1.8, tMaxK: 6, scan: true },
       derive: { muStar: 0.13 },
     });
     await openNotebook(db, member, a.id);
   }
+  const alloy = await db.sample.findFirst({ where: { groupId: member.group.id, tags: { has: "magnetic" } } });
+  if (alloy && addenda) await seedAlloyAnalysis(db, member, alloy, await db.measurement.findMany({ where: { sampleId: alloy.id, kind: "sample" } }), addenda.id);
   await seedDemoReviews(db, member);
 }

@@ -1,17 +1,20 @@
 /**
  * The demo scenario, seeded once into an empty database. INVENTED: two groups, one account
  * per role, a Nb₁₋ₓMoₓ composition series of six samples with synthetic curves (see
- * curves.ts), an addenda curve, one superconducting sample measured in zero field and in
- * 2 T, and a copper reference in the second group. Every record says it is demo data.
+ * curves.ts), an addenda curve, one superconducting sample measured in zero field, in the
+ * mixed state (0.25–1.5 T) and in the normal state (2 T, 3 T), a dilute magnetic alloy in
+ * 0, 2, 4 and 6 T (fieldCurves.ts), and a copper reference in the second group. Every record says it is demo data.
  */
 import type { Db } from "../db/client";
 import { hashPassword } from "../auth/password";
 import { createGroup } from "../groups";
-import { memberOf } from "../access";
+import { memberOf, type Member } from "../access";
 import { createSample } from "../samples";
 import { importMeasurement } from "../measurements";
 import { seedDemoAnalyses } from "./analyses";
-import { addendaHeatCapacity, demoFile, molarHeatCapacity, temperatureGrid, type CurveSpec } from "./curves";
+import { addendaHeatCapacity, demoFile, molarHeatCapacity, temperatureGrid, type CurveSpec, type DemoFile } from "./curves";
+import { WIDE_RANGE, wideRangeHeatCapacity } from "./wideRange";
+import { DEMO_HC2_T, MAGNETIC_ALLOY, MIXED_STATE_FIELDS_T, NORMAL_STATE_FIELDS_T, magneticAlloyHeatCapacity, mixedStateSpec, zeemanGapK } from "./fieldCurves";
 
 export const DEMO_PASSWORD = "heatbook-demo";
 
@@ -41,6 +44,48 @@ function formulaFor(x: number): string {
 
 const UNITS = { temperature: "K", heatCapacity: "µJ/K" };
 const MAPPING = { temperature: 0, heatCapacity: 1, sigma: 2 };
+
+async function importDemo(db: Db, member: Member, sampleId: string, file: DemoFile, label: string, fieldT: number, notes: string): Promise<void> {
+  await importMeasurement(db, member, sampleId, file.fileName, new TextEncoder().encode(file.text), {
+    kind: "sample", label, fieldT, mapping: MAPPING, units: UNITS, notes: `${notes} INVENTED DEMO DATA.`,
+  });
+}
+
+/**
+ * The superconducting sample in field (fieldCurves.ts): the mixed state below the invented
+ * H_c2(0) = 1.8 T, then the normal state at 2 T (the demo analysis uses it) and 3 T, in rising
+ * field so that the newest-first lists show them in falling field.
+ */
+async function seedFieldCurves(db: Db, member: Member, sampleId: string, code: string, formula: string, spec: CurveSpec, moles: number, i: number): Promise<void> {
+  for (const [k, h] of MIXED_STATE_FIELDS_T.entries()) {
+    const mixed = mixedStateSpec(spec, h);
+    const file = demoFile(`${code}-${h}T.csv`, `${formula}, ${h} T (mixed state, below the upper critical field)`, temperatureGrid(0.6, 20, 150), (T) => moles * molarHeatCapacity(mixed, T) + addendaHeatCapacity(T), 500 + 10 * i + k);
+    await importDemo(db, member, sampleId, file, `${formula}, ${h} T mixed state`, h,
+      `Total heat capacity incl. addenda. Mixed state below H_c2(0) = ${DEMO_HC2_T} T (invented): T_c(H) ≈ ${mixed.tcK!.toFixed(2)} K, residual γ(H)/γ_n = ${mixed.residualGammaFraction!.toFixed(3)}, linear in H (fully gapped).`);
+  }
+  for (const [k, h] of NORMAL_STATE_FIELDS_T.entries()) {
+    // 300 + i: the seed of the 2 T curve since the demo began, so that curve is unchanged.
+    const file = demoFile(`${code}-${h}T.csv`, `${formula}, ${h} T (above the upper critical field)`, temperatureGrid(1.8, 20, 100), (T) => moles * molarHeatCapacity(spec, T, true) + addendaHeatCapacity(T), 300 + i + 50 * k);
+    await importDemo(db, member, sampleId, file, `${formula}, ${h} T normal state`, h, `Normal state in a field above H_c2 (invented H_c2(0) = ${DEMO_HC2_T} T).`);
+  }
+}
+
+/** The dilute magnetic alloy MA-01 at 0, 2, 4, 6 T (fieldCurves.ts); not part of the Nb–Mo series. */
+async function seedMagneticAlloy(db: Db, member: Member): Promise<void> {
+  const m = MAGNETIC_ALLOY;
+  const sample = await createSample(db, member, {
+    label: `MA-01 ${m.label} (demo)`, formula: m.formula, massMg: m.massMg, densityGPerCm3: m.densityGPerCm3,
+    notes: "Dilute magnetic alloy, 0.4 at.% Mn in Cu, quenched (invented provenance). Mn moments modelled as free spin-½ doublets with g = 2.04 (a simplification). INVENTED DEMO DATA.",
+    tags: ["demo", "magnetic"],
+  });
+  const moles = (m.massMg * 1e-3) / sample.molarMassGPerMol;
+  const temps = temperatureGrid(0.4, 16, 130);
+  for (const [k, h] of m.fieldsT.entries()) {
+    const file = demoFile(`MA-1-${h}T.csv`, `${m.formula}, ${h} T`, temps, (T) => moles * magneticAlloyHeatCapacity(m.spec, T, h) + addendaHeatCapacity(T), 600 + k);
+    await importDemo(db, member, sample.id, file, `${m.label}, ${h} T`, h,
+      h === 0 ? "Total heat capacity incl. addenda; zero field: no Zeeman Schottky term." : `Total heat capacity incl. addenda; Zeeman Schottky term with Δ = g μ_B H / k_B ≈ ${zeemanGapK(m.spec.g, h).toFixed(2)} K.`);
+  }
+}
 
 /** Seed the scenario unless its first account exists. Returns whether it seeded. */
 export async function seedDemo(db: Db): Promise<boolean> {
@@ -83,13 +128,15 @@ export async function seedDemo(db: Db): Promise<boolean> {
     await importMeasurement(db, labMember, sample.id, file.fileName, new TextEncoder().encode(file.text), {
       kind: "sample", label: `${formula}, 0 T`, fieldT: 0, mapping: MAPPING, units: UNITS, notes: "Total heat capacity incl. addenda. INVENTED DEMO DATA.",
     });
-    if (s.spec.tcK) {
-      const normal = demoFile(`NM-${i + 1}-2T.csv`, `${formula}, 2 T (above the upper critical field)`, temperatureGrid(1.8, 20, 100), (T) => moles * molarHeatCapacity(s.spec, T, true) + addendaHeatCapacity(T), 300 + i);
-      await importMeasurement(db, labMember, sample.id, normal.fileName, new TextEncoder().encode(normal.text), {
-        kind: "sample", label: `${formula}, 2 T normal state`, fieldT: 2, mapping: MAPPING, units: UNITS, notes: "Normal state in a field above H_c2. INVENTED DEMO DATA.",
-      });
+    if (s.spec.tcK) await seedFieldCurves(db, labMember, sample.id, `NM-${i + 1}`, formula, s.spec, moles, i);
+    if (i === 1) {
+      // NM-02 also has a wide-range curve for the lattice views (wideRange.ts).
+      const w = WIDE_RANGE;
+      const wide = demoFile(`NM-${i + 1}-wide-range.csv`, `${formula}, zero field, 2–120 K (addenda subtracted)`, temperatureGrid(w.tMinK, w.tMaxK, w.points), (T) => moles * wideRangeHeatCapacity(s.spec.gammaMJ, s.spec.thetaDK, sample.atomsPerFormulaUnit, T), 700 + i, w.relNoise);
+      await importDemo(db, labMember, sample.id, wide, `${formula}, 0 T, 2–120 K`, 0, "Wide-range curve from a second instrument, addenda already subtracted; includes a weak Einstein-like mode (Θ_E = 70 K, invented).");
     }
   }
+  await seedMagneticAlloy(db, labMember);
 
   await seedDemoAnalyses(db, labMember);
 
