@@ -82,7 +82,7 @@ export const STEP_KINDS: Readonly<Record<StepKind, Term>> = Object.freeze({
   "joint-fit": { label: "Joint fit across fields" },
   derive: { label: "Derived quantities" },
   transition: { label: "Superconducting transition" },
-  "gamma-field": { label: "γ(H) of a superconductor" },
+  "gamma-field": { label: "Sommerfeld coefficient against field" },
   entropy: { label: "Entropy and enthalpy" },
   lattice: { label: "Lattice views" },
   note: { label: "Note" },

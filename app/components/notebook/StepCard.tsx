@@ -9,6 +9,7 @@ import { useState } from "react";
 import { callJson } from "@/app/_lib/api";
 import { when } from "./display";
 import { Sym } from "../Sym";
+import { cleanText } from "@/lib/display";
 import { kindLabel, stepUi } from "./registry";
 import { FieldFault } from "./steps/ui";
 import { AddStep } from "./AddStep";
@@ -24,6 +25,14 @@ interface Props {
 }
 
 type Draft = Record<string, unknown>;
+
+/**
+ * An engine sentence with its symbols typeset (H_c2, T_c, χ²_red), as the report does; a
+ * sentence that quotes the user's own text (a model name, an expression) is shown as written.
+ */
+function engineText(text: string) {
+  return /["“”'`]/.test(text) ? text : <Sym m={cleanText(text)} />;
+}
 
 interface Conflict {
   message: string;
@@ -148,12 +157,12 @@ export function StepCard({ step, first, last, ctx, noteHtml, basisAbove }: Props
       </header>
       {o && !o.ok && (
         <div className="nb-error" role="alert">
-          <strong>Not computed:</strong> {o.error}
+          <strong>Not computed:</strong> {engineText(o.error ?? "")}
           {o.field && ctx.editable && !open && <> <button type="button" className="quiet small" onClick={openForm} data-testid="show-fault">Show the setting</button></>}
         </div>
       )}
       {o && o.warnings.length > 0 && (
-        <ul className="nb-warnings" aria-label="Warnings">{o.warnings.map((w, i) => <li key={i}>{w}</li>)}</ul>
+        <ul className="nb-warnings" aria-label="Warnings">{o.warnings.map((w, i) => <li key={i}>{engineText(w)}</li>)}</ul>
       )}
       {o?.ok && ui && <ui.View step={step} result={o.result as never} ctx={ctx} save={saveDirect} basisAbove={basisAbove} noteHtml={noteHtml} />}
       {error && <p className="form-error" role="alert">{error}</p>}

@@ -36,26 +36,29 @@ export function thetaPlot(r: LatticeStepResult, opts: { width?: number; height?:
   };
 }
 
-export function ratioRows(r: LatticeStepResult) {
+/** (C − γT)/T³ rows, and C/T³ too when `withTotal` (it rises as γ/T² at low T and can dwarf the lattice part). */
+export function ratioRows(r: LatticeStepResult, withTotal = false) {
   const c = r.curve;
   return c.temperatureK.flatMap((t, i) => [
-    { t, y: c.totalOverT3[i]! * MJ, series: "C/T³" },
+    ...(withTotal ? [{ t, y: c.totalOverT3[i]! * MJ, series: "C/T³" }] : []),
     { t, y: c.latticeOverT3[i]! * MJ, series: "(C − γT)/T³" },
   ]);
 }
 
 /** C/T³ and (C − γT)/T³ (mJ mol⁻¹ K⁻⁴) vs T (K); the peak, when inside the range, marked. */
-export function ratioPlot(r: LatticeStepResult, opts: { width?: number; height?: number; log?: boolean } = {}): PlotOptions {
-  const rows = ratioRows(r);
+export function ratioPlot(r: LatticeStepResult, opts: { width?: number; height?: number; log?: boolean; withTotal?: boolean } = {}): PlotOptions {
+  const rows = ratioRows(r, opts.withTotal ?? false);
+  const band = opts.withTotal ? [] : r.curve.temperatureK.flatMap((t, i) => (r.curve.ratioStdError[i] === null ? [] : [{ t, lo: (r.curve.latticeOverT3[i]! - r.curve.ratioStdError[i]!) * MJ, hi: (r.curve.latticeOverT3[i]! + r.curve.ratioStdError[i]!) * MJ }]));
   const log = opts.log ?? true;
   const title = (d: { t: number; y: number; series: string }) => `${d.series}\nT = ${fmt(d.t)} K\n${fmt(d.y)} mJ mol⁻¹ K⁻⁴`;
   return {
     ...frame(opts.width, opts.height ?? 300),
     x: xAxis("T (K)", { type: log ? "log" : "linear", nice: !log }),
-    y: yAxis(`C/T³ (mJ mol⁻¹ K⁻⁴, ${BASIS_TEXT[r.basis]})`, { nice: true }),
+    y: yAxis(`${opts.withTotal ? "C/T³" : "(C − γT)/T³"} (mJ mol⁻¹ K⁻⁴, ${BASIS_TEXT[r.basis]})`, { nice: true }),
     color: { domain: ["C/T³", "(C − γT)/T³"], range: [COLOURS.faint, COLOURS.copper], legend: true },
     marks: [
       Plot.frame({ stroke: COLOURS.frame }),
+      ...(band.length ? [Plot.areaY(band, { x: "t", y1: "lo", y2: "hi", fill: COLOURS.window, fillOpacity: 0.7 })] : []),
       Plot.line(rows, { x: "t", y: "y", z: "series", stroke: "series", strokeWidth: 1.5 }),
       Plot.dot(rows.filter((d) => d.series !== "C/T³"), { x: "t", y: "y", r: 1.8, fill: COLOURS.copper }),
       ...(r.peak ? [Plot.ruleX([r.peak.temperatureK], { stroke: COLOURS.ink, strokeDasharray: "4 3" })] : []),

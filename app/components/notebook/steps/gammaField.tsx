@@ -53,7 +53,7 @@ function GammaFieldView({ result: r }: ViewProps<"gamma-field">) {
         <thead><tr><th>Law</th><th className="num">a (at H → 0)</th><th className="num">b</th><th className="num"><Sym m="χ²_red" /></th><th className="num">AICc</th><th /></tr></thead>
         <tbody>{r.laws.map((l) => (
           <tr key={l.law}>
-            <td>{l.law === "linear" ? <>γ(H)/γ_n = a + b·H/H_c2 — fully gapped</> : <>γ(H)/γ_n = a + b·√(H/H_c2) — line nodes</>}</td>
+            <td>{l.law === "linear" ? <><Sym m="γ(H)/γ_n = a + b·H/H_c2" /> — fully gapped</> : <><Sym m="γ(H)/γ_n = a + b·√(H/H_c2)" /> — line nodes</>}</td>
             <td className="num">{compact(l.intercept.value, l.intercept.stdError)}</td>
             <td className="num">{compact(l.slope.value, l.slope.stdError)}</td>
             <td className="num">{Number.isFinite(l.reducedChiSquare) ? num(l.reducedChiSquare, 3) : "—"}</td>

@@ -20,14 +20,16 @@ function LatticeForm(p: FormProps<"lattice">) {
 
 function LatticeView({ result: r }: ViewProps<"lattice">) {
   const [log, setLog] = useState(true);
+  const [withTotal, setWithTotal] = useState(false);
   const buildTheta = useCallback((width: number) => thetaPlot(r, { width, log }), [r, log]);
-  const buildRatio = useCallback((width: number) => ratioPlot(r, { width, log }), [r, log]);
+  const buildRatio = useCallback((width: number) => ratioPlot(r, { width, log, withTotal }), [r, log, withTotal]);
   const toggle = <label className="checkbox"><input type="checkbox" checked={log} onChange={(e) => setLog(e.target.checked)} /> Logarithmic T axis</label>;
   return (
     <div className="nb-result">
       <div className="nb-two">
         <ChartBox title={<>Effective Debye temperature <Sym m="Θ_D(T)" /></>} name="lattice-theta-d" label="Effective Debye temperature against temperature" build={buildTheta} csv={() => latticeCsv(r)} controls={toggle} testId="lattice-theta" />
-        <ChartBox title={<><Sym m="C/T^3" /> against T</>} name="lattice-c-over-t3" label="C over T cubed against temperature" build={buildRatio} csv={() => latticeCsv(r)} testId="lattice-ratio" />
+        <ChartBox title={<><Sym m="C/T^3" /> against T</>} name="lattice-c-over-t3" label="C over T cubed against temperature" build={buildRatio} csv={() => latticeCsv(r)} testId="lattice-ratio"
+          controls={<label className="checkbox"><input type="checkbox" checked={withTotal} onChange={(e) => setWithTotal(e.target.checked)} /> Also C/T³ with the electronic part</label>} />
       </div>
       <p className="small muted">
         Lattice part C − γT with γ = {q(r.gamma, 1e3)} mJ mol⁻¹ K⁻² from the fit above, inverted through the Debye function ({formatCount(r.r, "atom")} per formula unit counted) at each of {formatCount(r.points, "point")}, {BASIS_LABEL[r.basis]}.

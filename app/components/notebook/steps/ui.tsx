@@ -63,8 +63,10 @@ export const n = (v: unknown) => (typeof v === "number" ? v : null);
 /** value(σ) of a {value, stdError} pair times k (display units), or "—". */
 export const q = (v: { value: number; stdError: number | null } | null | undefined, k = 1) => (v ? compact(v.value * k, v.stdError === null ? null : v.stdError * k) : "—");
 
+/** Fit steps above, and joint fits (which hand down γ and β when both are shared). */
 function fitStepsAbove(ctx: NotebookContext, step: StepView) {
-  return ctx.steps.filter((s) => s.kind === "fit" && s.position < step.position).map((s, i) => ({ value: s.id, label: s.title || `Fit ${i + 1}: ${plainSymbol(modelLabel(String((s.config as { model?: string }).model ?? "sommerfeld")))}` }));
+  const above = ctx.steps.filter((s) => (s.kind === "fit" || s.kind === "joint-fit") && s.position < step.position);
+  return above.map((s, i) => ({ value: s.id, label: s.title || `${s.kind === "joint-fit" ? "Joint fit" : "Fit"} ${i + 1}: ${plainSymbol(modelLabel(String((s.config as { model?: string }).model ?? "sommerfeld")))}` }));
 }
 
 /** Choose a fit step above (or the nearest one) for a configuration field holding a step id. */

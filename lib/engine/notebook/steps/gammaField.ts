@@ -78,7 +78,7 @@ export const gammaFieldStep = defineStep({
       if (!f.gamma) throw new StepFailure(`the chosen normal-state fit (model ${f.model}) has no γ`, "normalFitStepId");
       if (basis !== null && f.basis !== basis) throw new StepFailure("the normal-state fit is on another basis than the γ(H) points", "normalFitStepId");
       gammaN = f.gamma;
-      gammaNFrom = `the normal-state fit in ${f.fieldT} T`;
+      gammaNFrom = f.model.startsWith("joint ") ? `the normal-state joint fit (fields from ${f.fieldT} T)` : `the normal-state fit in ${f.fieldT} T`;
     } else if (config.gammaNMJ) {
       gammaN = { value: config.gammaNMJ.value * 1e-3, stdError: config.gammaNMJ.stdError === null ? null : config.gammaNMJ.stdError * 1e-3 };
       gammaNFrom = "the value given";
