@@ -46,13 +46,15 @@ describe("fit step with recommend", () => {
     expect(rec.candidates.map((c) => c.model)).toEqual(["sommerfeld", "sommerfeld-t5", "nuclear", "schottky"]);
     const stored = (out[1]!.result as unknown as { summary: { gamma: { systematicError: number } } }).summary;
     expect(stored.gamma.systematicError).toBe(rec.gammaSystematicError);
-    const q = (out[2]!.result as unknown as { quantities: { name: string; value: number; stdError: number; systematicError?: number }[] }).quantities;
+    const q = (out[2]!.result as unknown as { quantities: { name: string; value: number; stdError: number; unit: string; systematicError?: number }[] }).quantities;
     const gq = q.find((x) => x.name === "gamma")!;
-    expectClose(gq.systematicError!, rec.gammaSystematicError * 1e3, { rel: 1e-9 });
+    // stored in SI (J mol⁻¹ K⁻², named in its unit), as the fit's own σ
+    expect(gq.unit).toBe("J mol^-1 K^-2");
+    expectClose(gq.systematicError!, rec.gammaSystematicError, { rel: 1e-9 });
     const th = q.find((x) => x.name === "thetaD")!;
     const bq = q.find((x) => x.name === "beta")!;
     expectClose(th.systematicError!, (th.value * bq.systematicError!) / (3 * bq.value), { rel: 1e-9 });
-    expect(Math.abs(bq.value / 1e3 - betaOf(300))).toBeLessThanOrEqual(3 * Math.hypot(bq.stdError, bq.systematicError!) / 1e3);
+    expect(Math.abs(bq.value - betaOf(300))).toBeLessThanOrEqual(3 * Math.hypot(bq.stdError, bq.systematicError!));
   });
   it("fit step with recommend fails with the reason, naming the missing term, when nothing describes the data", () => {
     const bump: Truth = { gamma: 3e-3, thetaDK: 300, extra: { kind: "einstein", nE: 0.02, thetaEK: 40 }, tLoK: 4, tHiK: 20, points: 300, relSigma: 0.005 };

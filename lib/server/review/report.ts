@@ -18,6 +18,7 @@ import type { RevisionSnapshot } from "./snapshot";
 import type { SealSignature } from "./signature";
 import { changeText, contextChanges, pinnedContext, type LiveSample } from "./context";
 import { resultOf } from "../../engine/notebook/registry";
+import { toTrade } from "../../engine/units/named";
 import type { JointParameter } from "../../engine/fit/joint";
 
 export const SAFETY_SENTENCE = "These results need expert review under local practice before use in any safety-relevant decision.";
@@ -100,7 +101,8 @@ export function describeCorrection(kind: string, config: Record<string, any>, re
   return stepKindLabel(kind);
 }
 
-function derivedValue(q: { name: string; symbol: string; value: number; stdError: number | null; unit: string; note?: string; systematicError?: number | null }): ReportValue {
+function derivedValue(stored: { name: string; symbol: string; value: number; stdError: number | null; unit: string; note?: string; systematicError?: number | null }): ReportValue {
+  const q = toTrade(stored); // stored SI (or, before engine 0.4, already in the trade's units)
   const t = term(q.name);
   const unit = formatUnit(q.unit);
   // a systematic σ (from a recommended fit) is written value(stat)(syst)

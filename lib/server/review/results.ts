@@ -5,6 +5,7 @@
  * (lib/engine/notebook/steps/fit.ts and derive.ts).
  */
 import { resultOf } from "../../engine/notebook/registry";
+import { toTrade } from "../../engine/units/named";
 
 export interface ResultValue {
   /** Stable key within a revision: "<kind>#<k>:<name>", k counting steps of that kind from 1. */
@@ -44,7 +45,7 @@ export function stepResults(kind: string, output: unknown, k: number): ResultVal
   }
   const derive = resultOf(typed, "derive");
   if (derive) {
-    return derive.quantities.map((q) => ({ key: `derive#${k}:${q.name}`, stepKind: "derive", name: q.name, symbol: q.symbol, value: q.value, stdError: q.stdError, unit: q.unit, ...(q.note ? { note: q.note } : {}) }));
+    return derive.quantities.map(toTrade).map((q) => ({ key: `derive#${k}:${q.name}`, stepKind: "derive", name: q.name, symbol: q.symbol, value: q.value, stdError: q.stdError, unit: q.unit, ...(q.note ? { note: q.note } : {}) }));
   }
   return [];
 }

@@ -13,6 +13,7 @@
  */
 import { debyeTemperature, densityOfStates, MILLI_PER_UNIT } from "../../engine/derived";
 import type { StepKind, StepResult } from "../../engine/notebook/registry";
+import { toTrade } from "../../engine/units/named";
 
 export interface Valued {
   value: number;
@@ -76,7 +77,8 @@ export function valuesFromSteps(steps: readonly StepLike[], atomsPerFormulaUnit:
   const derive = lastResult(steps, "derive");
   if (derive) {
     const perFu = derive.basis === "atom" ? atomsPerFormulaUnit : 1;
-    const named = (name: string) => derive.quantities.find((q) => q.name === name) ?? null;
+    // in the trade's units (stored SI since engine 0.4, in these units before)
+    const named = (name: string) => { const q = derive.quantities.find((x) => x.name === name); return q ? toTrade(q) : null; };
     const coefficient = (name: "gamma" | "beta") => {
       const q = named(name);
       const k = q ? milliFactor(q.unit) : null;

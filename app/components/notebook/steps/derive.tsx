@@ -5,6 +5,7 @@ import { BASIS_LABEL, num } from "../display";
 import { Sym } from "../../Sym";
 import { formatRange, formatUnit, modelLabel, symbolOf } from "@/lib/display";
 import { formatStatSyst } from "@/lib/engine/scan/statSyst";
+import { toTrade } from "@/lib/engine/units/named";
 import { FitStepSelect, QuantityRows, n, q, type FormProps, type StepUi, type ViewProps } from "./ui";
 
 function measuredField(p: FormProps<"derive">,  field: "gammaBandMJ" | "kwA", label: string, unit: string) {
@@ -66,7 +67,7 @@ export const deriveUi: StepUi<"derive"> = {
   Form: DeriveForm,
   View: DeriveView,
   summary: (r) => {
-    const by = new Map(r.quantities.map((x) => [x.name, x]));
+    const by = new Map(r.quantities.map(toTrade).map((x) => [x.name, x]));
     const pick = ["thetaD", "dosEF", "massRatio", "lambda"].map((k) => by.get(k)).filter((x) => !!x);
     return pick.map((x) => `${symbolOf(x!.name)} = ${qs(x, x!.systematicError)} ${formatUnit(x!.unit)}`.trim()).join(" · ");
   },

@@ -7,6 +7,7 @@
 import { createContext, useContext, type ComponentType, type ReactNode } from "react";
 import type { StepConfig, StepKind, StepResult } from "@/lib/engine/notebook/registry";
 import type { Quantity } from "@/lib/charts/notebook";
+import { toTrade } from "@/lib/engine/units/named";
 import { SelectField } from "../fields";
 import { compact } from "../display";
 import { Sym } from "../../Sym";
@@ -75,10 +76,10 @@ export function FitStepSelect({ label, field, step, ctx, value, onChange }: { la
   return <SelectField label={label} name={field} value={String(value ?? "")} options={options} onChange={(v) => onChange(v || null)} />;
 }
 
-/** Rows of engine quantities: symbol and words, value(σ), unit, note. */
+/** Rows of engine quantities (stored SI, shown in the trade's units): symbol and words, value(σ), unit, note. */
 export function QuantityRows({ items }: { items: readonly Quantity[] }) {
   return (
-    <>{items.map((x) => (
+    <>{items.map(toTrade).map((x) => (
       <tr key={x.name}>
         <td><Sym m={symbolOf(x.name)} /> <span className="muted small">{term(x.name).label}</span></td>
         <td className="num" data-testid={`quantity-${x.name}`}>{compact(x.value, x.stdError)}</td>

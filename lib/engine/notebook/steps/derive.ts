@@ -10,6 +10,7 @@ import { InputError } from "../../errors";
 import type { ChainState, FitSummary } from "../types";
 import { StepFailure, defineStep } from "./shared";
 import { withSystematic, type Quantity } from "../../uncertainty/quantity";
+import { toSI } from "../../units/named";
 
 /**
  * The fit's systematic σ (from the model-and-window recommendation) carried to γ, β and what
@@ -89,7 +90,7 @@ export const deriveStep = defineStep({
       const warnings = [...result.warnings];
       if (!density) warnings.push("no density on the sample: the free-electron comparison (γ_free, m* / m) is left out");
       return {
-        result: { fitStepId: fit.stepId, fitModel: fit.model, fitWindow: { tMinK: fit.tMinK, tMaxK: fit.tMaxK }, fieldT: fit.fieldT, basis: result.basis, quantities: carrySystematic(result.quantities, fit), valences, densityGPerCm3: density },
+        result: { fitStepId: fit.stepId, fitModel: fit.model, fitWindow: { tMinK: fit.tMinK, tMaxK: fit.tMaxK }, fieldT: fit.fieldT, basis: result.basis, quantities: carrySystematic(result.quantities, fit).map(toSI), valences, densityGPerCm3: density },
         warnings,
         state,
       };

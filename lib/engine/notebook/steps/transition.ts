@@ -8,6 +8,7 @@ import { analyzeJump } from "../../superconductor";
 import { InputError } from "../../errors";
 import { StepFailure, requireDataset, defineStep } from "./shared";
 import { pickFit } from "./derive";
+import { toSI } from "../../units/named";
 
 export const transitionConfig = z.object({
   normalFitStepId: z.string().nullable().default(null),
@@ -36,7 +37,8 @@ export const transitionStep = defineStep({
         normalState: config.normalState, window: config.window as never,
       });
       return {
-        result: { ...r, fitStepId: fit.stepId, points: { temperatureK: data.temperatureK, cElOverT: data.temperatureK.map((t, i) => (data.heatCapacity[i]! - fit.beta!.value * t ** 3) / t) } },
+        // quantities in SI with their units named (ΔC in J mol⁻¹ K⁻¹, γ_r in J mol⁻¹ K⁻²)
+        result: { ...r, deltaC: toSI(r.deltaC), gammaResidual: r.gammaResidual && toSI(r.gammaResidual), fitStepId: fit.stepId, points: { temperatureK: data.temperatureK, cElOverT: data.temperatureK.map((t, i) => (data.heatCapacity[i]! - fit.beta!.value * t ** 3) / t) } },
         warnings: [...warnings, ...r.warnings],
         state,
       };
