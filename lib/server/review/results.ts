@@ -5,6 +5,8 @@
  * (lib/engine/notebook/steps/fit.ts and derive.ts).
  */
 import { resultOf } from "../../engine/notebook/registry";
+import { MODELS } from "../../engine/models";
+import { JOINT_MODELS } from "../../engine/fit/jointModels";
 import { toTrade } from "../../engine/units/named";
 
 export interface ResultValue {
@@ -19,7 +21,11 @@ export interface ResultValue {
   note?: string;
 }
 
-const SYMBOLS: Record<string, string> = { gamma: "γ", beta: "β", delta: "δ", epsilon: "ε", thetaD: "Θ_D", thetaE: "Θ_E", A: "A_N", B: "B" };
+/** A parameter's symbol from its model's spec (registry or joint model); a user expression's parameter keeps its own name. */
+function symbolOf(model: string, name: string): string {
+  const spec = (Object.hasOwn(MODELS, model) ? MODELS[model as keyof typeof MODELS].parameters : Object.hasOwn(JOINT_MODELS, model) ? JOINT_MODELS[model]!.parameters : []).find((q) => q.name === name);
+  return spec?.symbol ?? name;
+}
 
 /** Results of one step output (null or failed outputs give none). `k` numbers steps of the kind. */
 export function stepResults(kind: string, output: unknown, k: number): ResultValue[] {
@@ -30,7 +36,7 @@ export function stepResults(kind: string, output: unknown, k: number): ResultVal
   if (fitResult) {
     const fit = fitResult.fit;
     const out: ResultValue[] = (fit?.parameters ?? []).map((p) => ({
-      key: `fit#${k}:${p.name}`, stepKind: "fit", name: p.name, symbol: SYMBOLS[p.name] ?? p.name, value: p.value, stdError: p.stdError, unit: p.unit, ...(p.fixed ? { note: "fixed" } : {}),
+      key: `fit#${k}:${p.name}`, stepKind: "fit", name: p.name, symbol: symbolOf(fit.modelName, p.name), value: p.value, stdError: p.stdError, unit: p.unit, ...(p.fixed ? { note: "fixed" } : {}),
     }));
     if (typeof fit?.reducedChiSquare === "number") out.push({ key: `fit#${k}:reducedChiSquare`, stepKind: "fit", name: "reducedChiSquare", symbol: "χ²_red", value: fit.reducedChiSquare, stdError: null, unit: "1" });
     return out;
@@ -38,7 +44,7 @@ export function stepResults(kind: string, output: unknown, k: number): ResultVal
   const joint = resultOf(typed, "joint-fit");
   if (joint) {
     const out: ResultValue[] = joint.fit.parameters.map((p) => ({
-      key: `joint-fit#${k}:${p.key}`, stepKind: "joint-fit", name: p.key, symbol: `${SYMBOLS[p.name] ?? p.name}${p.measurement === null ? "" : ` (${p.measurement})`}`, value: p.value, stdError: p.stdError, unit: p.unit, ...(p.fixed ? { note: "fixed" } : {}),
+      key: `joint-fit#${k}:${p.key}`, stepKind: "joint-fit", name: p.key, symbol: `${symbolOf(joint.fit.model, p.name)}${p.measurement === null ? "" : ` (${p.measurement})`}`, value: p.value, stdError: p.stdError, unit: p.unit, ...(p.fixed ? { note: "fixed" } : {}),
     }));
     if (joint.fit.reducedChiSquare !== null) out.push({ key: `joint-fit#${k}:reducedChiSquare`, stepKind: "joint-fit", name: "reducedChiSquare", symbol: "χ²_red", value: joint.fit.reducedChiSquare, stdError: null, unit: "1" });
     return out;
