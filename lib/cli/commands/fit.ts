@@ -110,7 +110,7 @@ export async function run(argv: string[], io: CliIo): Promise<number> {
     if (args.positionals.length === 0) throw new InputError("missing FILE");
     if (args.positionals.length > 1 || getList(args, "field") !== undefined) return runJoint(args, args.positionals, io);
     if (getString(args, "shared") !== undefined) throw new InputError("--shared applies to a joint fit: give --field (one value per file)", { field: "shared" });
-    if (Object.hasOwn(JOINT_MODELS, getString(args, "model") ?? "")) throw new InputError(`model ${getString(args, "model")} needs the field: give --field in tesla`, { field: "field" });
+    if (Object.hasOwn(JOINT_MODELS, getString(args, "model") ?? "")) throw new InputError(`model ${getString(args, "model")} needs the field: give --field in tesla`, { field: "--field" });
     const data = loadHeatCapacity(args, io);
     const modelArg = getString(args, "model") ?? "sommerfeld";
     const model = Object.hasOwn(MODELS, modelArg) ? modelArg : { expression: modelArg };

@@ -44,8 +44,8 @@ export function perFile(args: ParsedArgs, flag: string, count: number): (number 
 /** The files' fields from --field: required, one finite value per file. */
 function fields(args: ParsedArgs, files: readonly string[]): number[] {
   const list = getList(args, "field");
-  if (list === undefined) throw new InputError(`--field is required with ${files.length} files: one field in tesla per file, e.g. --field ${files.map((_, k) => 2 * k).join(",")}`, { field: "field" });
-  if (list.length !== files.length) throw new InputError(`--field has ${list.length} value${list.length === 1 ? "" : "s"} for ${files.length} file${files.length === 1 ? "" : "s"} (one field in tesla per file)`, { field: "field" });
+  if (list === undefined) throw new InputError(`--field is required with ${files.length} files: one field in tesla per file, e.g. --field ${files.map((_, k) => 2 * k).join(",")}`, { field: "--field" });
+  if (list.length !== files.length) throw new InputError(`--field has ${list.length} value${list.length === 1 ? "" : "s"} for ${files.length} file${files.length === 1 ? "" : "s"} (one field in tesla per file)`, { field: "--field" });
   return list;
 }
 
