@@ -20,6 +20,8 @@ import { changeText, contextChanges, pinnedContext, type LiveSample } from "./co
 import { resultOf } from "../../engine/notebook/registry";
 import { toTrade } from "../../engine/units/named";
 import type { JointParameter } from "../../engine/fit/joint";
+import { JOINT_MODELS } from "../../engine/fit/jointModels";
+import { MODELS } from "../../engine/models";
 
 export const SAFETY_SENTENCE = "These results need expert review under local practice before use in any safety-relevant decision.";
 
@@ -111,10 +113,12 @@ function derivedValue(stored: { name: string; symbol: string; value: number; std
   return { name: q.name, symbol: t.symbol ?? q.symbol, label: t.label, value: q.value, stdError: q.stdError, unit, compact, ...(q.note ? { note: cleanText(q.note) } : {}), ...(sys !== null ? { systematicError: sys } : {}) };
 }
 
-/** A parameter of a joint fit, "γ" or "n (2 T)", in display units. */
-function jointValue(p: JointParameter, fieldT: number | null): ReportValue {
+/** A parameter of a joint fit, "γ" or "g (2 T)", in display units, named by its model's spec (a user expression's by its own name). */
+function jointValue(model: string, p: JointParameter, fieldT: number | null): ReportValue {
   const v = parameter({ name: p.name, value: p.value, stdError: p.stdError, unit: p.unit, fixed: p.fixed });
-  return fieldT === null ? { ...v, name: p.key } : { ...v, name: p.key, symbol: `${v.symbol} (${formatNumber(fieldT, 4)} T)`, label: `${v.label}, measurement ${p.measurement}` };
+  const spec = (Object.hasOwn(JOINT_MODELS, model) ? JOINT_MODELS[model]!.parameters : Object.hasOwn(MODELS, model) ? MODELS[model as keyof typeof MODELS].parameters : []).find((q) => q.name === p.name);
+  const named = { ...v, name: p.key, symbol: spec?.symbol ?? p.name, label: spec?.label ?? "parameter of the expression" };
+  return fieldT === null ? named : { ...named, symbol: `${named.symbol} (${formatNumber(fieldT, 4)} T)`, label: `${named.label}, measurement ${p.measurement}` };
 }
 
 /** The report entry of a joint fit, γ(H) or lattice views step (null for other kinds). */
@@ -126,7 +130,7 @@ export function otherResult(kind: string, position: number, output: { kind: stri
     return {
       position, kind, heading: `${stepKindLabel(kind)}: ${f.title}`,
       summary: `${formatCount(f.measurements.length, "measurement")} in ${formatNumber(Math.min(...fields), 4)}–${formatNumber(Math.max(...fields), 4)} T fitted together (${formatCount(f.nPoints, "point")} in the windows, ${PER(joint.basis)}); shared: ${f.shared.join(", ") || "none"}; χ² = ${formatNumber(f.chiSquare, 5)} on ${f.dof} degrees of freedom${f.weighted && f.reducedChiSquare !== null ? `, χ²_red = ${formatNumber(f.reducedChiSquare, 4)}` : ", unweighted"}${f.aicc !== null ? `, AICc = ${formatNumber(f.aicc, 6)}` : ""}; standard errors from the joint covariance${f.converged ? "" : "; NOT converged"}`,
-      values: f.parameters.map((p) => jointValue(p, p.measurement === null ? null : f.measurements[p.measurement - 1]!.fieldT)),
+      values: f.parameters.map((p) => jointValue(f.model, p, p.measurement === null ? null : f.measurements[p.measurement - 1]!.fieldT)),
     };
   }
   const gh = resultOf(output, "gamma-field");

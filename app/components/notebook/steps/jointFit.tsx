@@ -125,7 +125,7 @@ function JointFitView({ result: r, ctx }: ViewProps<"joint-fit">) {
   const fit = r.fit;
   const shared = fit.parameters.filter((q) => q.measurement === null);
   const per = fit.perMeasurement;
-  const d = (name: string, unit: string) => display(ctx, fit.model, name, unit);
+  const d = (name: string, unit: string) => ({ ...display(ctx, fit.model, name, unit), symbol: r.symbols?.[name] ?? name });
   const unitOf = (name: string) => fit.parameters.find((q) => q.name === name)?.unit ?? "1";
   return (
     <div className="nb-result">
@@ -171,7 +171,7 @@ function summary(r: JointResult): string {
   const g = p("gamma"), b = p("beta");
   if (g) parts.push(`γ = ${compact(g.value * 1e3, g.stdError === null ? null : g.stdError * 1e3)} mJ mol⁻¹ K⁻²`);
   if (b) parts.push(`β = ${compact(b.value * 1e3, b.stdError === null ? null : b.stdError * 1e3)} mJ mol⁻¹ K⁻⁴`);
-  if (fit.perMeasurement.length) parts.push(`per field: ${fit.perMeasurement.map((n) => (fit.expression ? n : symbolOf(n))).join(", ")}`);
+  if (fit.perMeasurement.length) parts.push(`per field: ${fit.perMeasurement.map((n) => r.symbols?.[n] ?? n).join(", ")}`);
   const fields = fit.measurements.map((m) => m.fieldT);
   parts.push(`${formatCount(fit.measurements.length, "measurement")} in ${num(Math.min(...fields))}–${num(Math.max(...fields))} T, ${formatCount(fit.nPoints, "point")}`);
   if (fit.weighted && fit.reducedChiSquare !== null) parts.push(`χ²_red = ${num(fit.reducedChiSquare, 3)}`);

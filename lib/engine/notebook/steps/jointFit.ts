@@ -42,6 +42,12 @@ function configField(field: string | undefined): string | undefined {
   return head === "measurements" ? "windows" : head === "model" || head === "shared" || head === "start" || head === "fixed" ? head : undefined;
 }
 
+/** Display symbol of each parameter from its model's spec; a user expression's parameters keep their names. */
+function symbolsOf(model: string, names: readonly string[]): Record<string, string> {
+  const specs = Object.hasOwn(JOINT_MODELS, model) ? JOINT_MODELS[model]!.parameters : Object.hasOwn(MODELS, model) ? MODELS[model as keyof typeof MODELS].parameters : [];
+  return Object.fromEntries(names.map((n) => [n, specs.find((q) => q.name === n)?.symbol ?? n]));
+}
+
 export const jointFitStep = defineStep({
   kind: "joint-fit",
   title: "Joint fit across fields",
@@ -106,7 +112,7 @@ export const jointFitStep = defineStep({
       };
     }
     return {
-      result: { fit, basis: data.basis, measurementIds: used.map((m) => m.id), handsDownFit: handed !== null },
+      result: { fit, basis: data.basis, measurementIds: used.map((m) => m.id), handsDownFit: handed !== null, symbols: symbolsOf(fit.model, fit.parameters.map((p) => p.name)) },
       warnings,
       state: { ...state, jointFit, ...(handed ? { fit: handed } : {}) },
     };

@@ -20,7 +20,7 @@ export const metadata: Metadata = { title: "Analysis" };
 function modelCatalogue(): ModelInfo[] {
   return Object.values(MODELS).map((m) => ({
     name: m.name, title: m.title, formula: m.formula,
-    parameters: m.parameters.map((p) => ({ name: p.name, displayUnit: p.displayUnit, displayFactor: p.displayFactor, description: p.description })),
+    parameters: m.parameters.map((p) => ({ name: p.name, displayUnit: p.displayUnit, displayFactor: p.displayFactor, description: p.description, symbol: p.symbol })),
   }));
 }
 
