@@ -3,6 +3,7 @@
 import { useId, useState } from "react";
 import { callJson } from "@/app/_lib/api";
 import { STEP_UI, kindLabel } from "./registry";
+import { plainSymbol } from "@/lib/display";
 import type { NotebookContext } from "./types";
 import type { StepKind } from "@/lib/engine/notebook/registry";
 
@@ -26,7 +27,7 @@ export function AddStep({ ctx, position, label }: { ctx: NotebookContext; positi
     <span className="nb-add">
       <label htmlFor={id} className="sr-only">Kind of step</label>
       <select id={id} value={kind} onChange={(e) => setKind(e.target.value)} data-testid="add-step-kind">
-        {KINDS.map((k) => <option key={k} value={k}>{kindLabel(k)} — {STEP_UI[k].hint}</option>)}
+        {KINDS.map((k) => <option key={k} value={k}>{kindLabel(k)} — {plainSymbol(STEP_UI[k].hint)}</option>)}
       </select>
       <button type="button" className="small" onClick={add} data-testid="add-step">Add</button>
       <button type="button" className="quiet small" onClick={() => setOpen(false)}>Cancel</button>

@@ -36,11 +36,11 @@ export function NumField({ label, value, onChange, unit, hint, required = false,
   );
 }
 
-export function SelectField<T extends string>({ label, value, options, onChange, hint, testId, name }: { label: ReactNode; value: T; options: readonly { value: T; label: string }[]; onChange: (v: T) => void; hint?: string; testId?: string; name?: string }) {
+export function SelectField<T extends string>({ label, value, options, onChange, hint, testId, name, wide }: { label: ReactNode; value: T; options: readonly { value: T; label: string }[]; onChange: (v: T) => void; hint?: string; testId?: string; name?: string; wide?: boolean }) {
   const id = useId();
   const fault = useFault(name);
   return (
-    <div className={`field${fault ? " nb-fault" : ""}`}>
+    <div className={`field${wide ? " wide" : ""}${fault ? " nb-fault" : ""}`}>
       <label htmlFor={id}>{label}</label>
       <select id={id} value={value} onChange={(e) => onChange(e.target.value as T)} data-testid={testId} name={name} aria-invalid={!!fault || undefined}>
         {options.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
@@ -54,7 +54,7 @@ export function CheckField({ label, checked, onChange, hint, name }: { label: Re
   const fault = useFault(name);
   return (
     <div className={`field${fault ? " nb-fault" : ""}`}>
-      <label className="checkbox"><input type="checkbox" checked={checked} name={name} aria-invalid={!!fault || undefined} onChange={(e) => onChange(e.target.checked)} /> {label}</label>
+      <label className="checkbox"><input type="checkbox" checked={checked} name={name} aria-invalid={!!fault || undefined} onChange={(e) => onChange(e.target.checked)} /> <span>{label}</span></label>
       {fault ? <Fault message={fault} /> : hint && <span className="hint">{hint}</span>}
     </div>
   );

@@ -88,7 +88,7 @@ export function SeriesExplorer({ slug, initial, others }: Props) {
         <span>Trend <Seg label="Trend" value={String(degree) as "1" | "2"} onChange={(v) => setDegree(v === "2" ? 2 : 1)} options={[["1", "linear"], ["2", "quadratic"]]} /></span>
         <label className="checkbox"><input type="checkbox" checked={drafts} onChange={(e) => setDrafts(e.target.checked)} data-testid="series-drafts" /> show unreviewed drafts</label>
         {drafts && <label className="checkbox"><input type="checkbox" checked={trendFromShown} onChange={(e) => setTrendFromShown(e.target.checked)} /> fit the trend to drafts too</label>}
-        {quantity === "gamma" && <label className="checkbox"><input type="checkbox" checked={showFree} onChange={(e) => setShowFree(e.target.checked)} /> <Sym m="γ_free" /></label>}
+        {quantity === "gamma" && <label className="checkbox"><input type="checkbox" checked={showFree} onChange={(e) => setShowFree(e.target.checked)} /> <span><Sym m="γ_free" /></span></label>}
         {others.length > 0 && <label>Overlay <select value={overlayId} onChange={(e) => setOverlayId(e.target.value)} data-testid="series-overlay"><option value="">— none —</option>{others.map((o) => <option key={o.id} value={o.id}>{o.name}</option>)}</select></label>}
         {loading && <span className="small muted">updating…</span>}
       </div>

@@ -38,7 +38,7 @@ function GammaFieldForm(p: FormProps<"gamma-field">) {
       )}
       <FitStepSelect label={<>Normal-state <Sym m="γ_n" /> from the fit</>} field="normalFitStepId" step={p.step} ctx={p.ctx} value={p.draft.normalFitStepId} onChange={(v) => p.set({ normalFitStepId: v })} />
       <NumField name="gammaNMJ" label={<>or <Sym m="γ_n" /> given</>} unit="mJ mol⁻¹ K⁻²" value={gn?.value ?? null} onChange={(x) => p.set({ gammaNMJ: x === null ? null : { stdError: gn?.stdError ?? null, value: x } })}
-        hint="empty: a normal-state fit, else the joint fit's fields at or above H_c2" />
+        hint="empty: a normal-state fit, else the joint fit's fields at or above the upper critical field" />
       <NumField name="gammaNMJ" label={<>σ of <Sym m="γ_n" /> given</>} unit="mJ mol⁻¹ K⁻²" value={gn?.stdError ?? null} onChange={(x) => p.set({ gammaNMJ: gn ? { ...gn, stdError: x } : null })} />
     </>
   );

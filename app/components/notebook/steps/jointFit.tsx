@@ -59,7 +59,7 @@ function SharedChoice({ p, model }: { p: FormProps<"joint-fit">; model: ModelInf
             const next = new Set(current);
             if (e.target.checked) next.add(q.name); else next.delete(q.name);
             p.set({ shared: [...next] });
-          }} /> <Sym m={q.symbol ?? symbolOf(q.name)} />
+          }} /> <span><Sym m={q.symbol ?? symbolOf(q.name)} /></span>
         </label>
       ))}
       {fault && <p className="field-error">{fault}</p>}
@@ -85,7 +85,7 @@ function JointFitForm(p: FormProps<"joint-fit">) {
   ];
   return (
     <>
-      <SelectField name="model" label="Model" value={model} options={options} onChange={(v) => p.set({ model: v, shared: null })} testId="joint-model" />
+      <SelectField wide name="model" label="Model" value={model} options={options} onChange={(v) => p.set({ model: v, shared: null })} testId="joint-model" />
       {model === "expression" ? (
         <TextField name="expression" wide mono label="C(T, H) in J mol⁻¹ K⁻¹" value={String(p.draft.expression ?? "")} onChange={(v) => p.set({ expression: v })} placeholder="g*T + b*T^3 + a*H^2/T^2" testId="joint-expression"
           hint="T in K, H in tesla; R, kB, muB, NA are the CODATA 2018 constants (SI). Other letters are fitted parameters, in SI." />
