@@ -170,6 +170,12 @@ describe("demo analyses across fields and over a wide range", () => {
     const normal = resultOfKind(steps, "joint-fit", 0);
     const g = normal.fit.parameters.find((p: any) => p.key === "gamma");
     expect(Math.abs(g.value - 7.7e-3)).toBeLessThan(3 * g.stdError);
+    // the normal state's lattice views: Θ_D(T) near the invented 276 K (δT⁵ makes it sag slowly with T)
+    const lat = resultOfKind(steps, "lattice");
+    const thetas = lat.curve.thetaDK.filter((v: number | null): v is number => v !== null);
+    expect(thetas.length).toBeGreaterThan(100);
+    const mid = lat.curve.temperatureK.map((t: number, i: number) => [t, lat.curve.thetaDK[i]]).filter(([t, v]: [number, number | null]) => t > 5 && t < 12 && v !== null);
+    for (const [, v] of mid) expect(Math.abs(v / 276 - 1)).toBeLessThan(0.05);
     const gh = resultOfKind(steps, "gamma-field");
     expect(gh.preferred).toBe("linear");
     expect(gh.fields.map((f: any) => f.fieldT)).toEqual([0, ...MIXED_STATE_FIELDS_T]);

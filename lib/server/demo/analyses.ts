@@ -47,6 +47,7 @@ async function seedFieldAnalysis(db: Db, member: Member, sample: { id: string; l
   await append(db, member, a.id, "addenda", { addendaMeasurementId: addendaId, method: "smooth", outsideRange: "flag" });
   await append(db, member, a.id, "normalise", { per: "formula-unit" });
   await append(db, member, a.id, "joint-fit", { model: "normal-state", tMinK: 1.8, tMaxK: 6 }, "Normal state across fields");
+  await append(db, member, a.id, "lattice", {}, "Lattice of the normal state, 1.8–20 K");
   await append(db, member, a.id, "data", { measurementIds: below }, "Zero field and mixed state");
   await append(db, member, a.id, "addenda", { addendaMeasurementId: addendaId, method: "smooth", outsideRange: "flag" });
   await append(db, member, a.id, "normalise", { per: "formula-unit" });
