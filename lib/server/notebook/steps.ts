@@ -7,7 +7,7 @@
 import { z } from "zod";
 import type { Db } from "../db/client";
 import { ConflictError, NotFoundError } from "../../engine/errors";
-import { parseStepConfig, STEP_ORDER, type StepKind } from "../../engine/notebook";
+import { parseStepConfig, stepDefinition, STEP_ORDER, type StepKind } from "../../engine/notebook";
 import { recordAudit } from "../audit";
 import { authorise, type Member } from "../access";
 import { parseInput } from "../validate";
@@ -84,12 +84,9 @@ export async function addStep(db: Db, member: Member, analysisId: string, input:
 }
 
 /** Defaults for a new step of a kind (the step's own schema fills the rest). */
+/** The configuration a new step of this kind starts from (its definition's `initial`). */
 function defaultConfig(kind: StepKind): unknown {
-  switch (kind) {
-    case "fit": return { model: "sommerfeld" };
-    case "note": return { markdown: "" };
-    default: return {};
-  }
+  return stepDefinition(kind).initial ?? {};
 }
 
 export async function updateStep(db: Db, member: Member, analysisId: string, stepId: string, input: unknown) {

@@ -134,6 +134,7 @@ export const fitStep = defineStep({
   kind: "fit",
   title: "Model fit",
   schema: fitConfig,
+  initial: { model: "sommerfeld" },
   dependencies: () => ({ measurementIds: [], sampleFields: ["atomsPerFormulaUnit"] }),
   compute(config, state, ctx) {
     const data = requireDataset(state, "a fit");

@@ -9,6 +9,7 @@ export const noteStep = defineStep({
   kind: "note",
   title: "Note",
   schema: noteConfig,
+  initial: { markdown: "" },
   dependencies: () => ({ measurementIds: [], sampleFields: [] }),
   compute: (config, state) => ({ result: { markdown: config.markdown }, warnings: [], state }),
 });

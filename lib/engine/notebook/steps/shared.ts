@@ -28,6 +28,8 @@ export interface StepDefinition<K extends string, S extends z.ZodType, R> {
   kind: K;
   title: string;
   schema: S;
+  /** The configuration a step added with "Add step" starts from (default: {}, the schema's defaults). */
+  initial?: z.input<S>;
   dependencies(config: z.output<S>): StepDependencies;
   compute(config: z.output<S>, state: ChainState, ctx: ChainContext): StepComputation<R>;
 }
