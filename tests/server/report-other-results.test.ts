@@ -45,3 +45,13 @@ describe("report entries of joint fits and γ(H)", () => {
     expect(otherResult("fit", 0, { kind: "fit", ok: true, result: {} })).toBeNull();
   });
 });
+
+describe("report fit parameters", () => {
+  it("parameter writes a recommended fit's γ as value(stat)(syst) in mJ mol⁻¹ K⁻², and a plain one as value(σ)", async () => {
+    const { parameter } = await import("../../lib/server/review/report");
+    const g = { name: "gamma", value: 2.0e-3, stdError: 1.0e-5, unit: "J/(mol*K^2)" };
+    expect(parameter(g, 4.0e-5).compact).toBe("2.000(10)(40) mJ mol⁻¹ K⁻² (stat)(syst)");
+    expect(parameter(g, 4.0e-5).systematicError).toBeCloseTo(0.04, 12);
+    expect(parameter(g).compact).toBe("2.000(10) mJ mol⁻¹ K⁻²");
+  });
+});

@@ -73,12 +73,14 @@ function displayUnit(unit: string): { factor: number; unit: string } {
   return { factor: 1, unit: formatUnit(unit) };
 }
 
-function parameter(p: { name: string; value: number; stdError: number | null; unit: string; fixed?: boolean }): ReportValue {
+/** A fit parameter in display units; with a systematic σ (SI, a recommended fit's γ or β) written value(stat)(syst). */
+export function parameter(p: { name: string; value: number; stdError: number | null; unit: string; fixed?: boolean }, systematicSI: number | null | undefined = null): ReportValue {
   const t = term(p.name);
   const d = displayUnit(p.unit);
   const value = p.value * d.factor, stdError = p.stdError === null ? null : p.stdError * d.factor;
-  const compact = formatQuantity(value, stdError, d.unit);
-  return { name: p.name, symbol: t.symbol ?? t.label, label: t.label, value, stdError, unit: d.unit, compact: p.fixed ? `${compact} (held fixed)` : compact };
+  const sys = typeof systematicSI === "number" && Number.isFinite(systematicSI) ? Math.abs(systematicSI * d.factor) : null;
+  const compact = sys === null ? formatQuantity(value, stdError, d.unit) : `${formatStatSyst(value, stdError, sys)}${d.unit ? ` ${d.unit}` : ""} (stat)(syst)`;
+  return { name: p.name, symbol: t.symbol ?? t.label, label: t.label, value, stdError, unit: d.unit, compact: p.fixed ? `${compact} (held fixed)` : compact, ...(sys !== null ? { systematicError: sys } : {}) };
 }
 
 const PER = (b: unknown) => (b === "atom" ? "per mole of atoms" : "per mole formula unit");
@@ -189,7 +191,8 @@ export function reportFromSnapshot(s: RevisionSnapshot, meta: { group: { name: s
         position: st.position, model: r.fit.model, modelLabel: modelLabel(r.fit.model), basis: r.basis, tMinK: r.window.tMinK, tMaxK: r.window.tMaxK, nPoints: r.window.nPoints, weighted: r.fit.weighted,
         reducedChiSquare: r.fit.weighted ? r.fit.reducedChiSquare : null,
         residualStdMJ: !r.fit.weighted && typeof r.fit.reducedChiSquare === "number" ? Math.sqrt(r.fit.reducedChiSquare) * 1e3 : null,
-        parameters: r.fit.parameters.map((p: any) => parameter(p)),
+        // γ and β of a recommended fit carry the systematic σ of the model-and-window choice: value(stat)(syst)
+        parameters: r.fit.parameters.map((p: any) => parameter(p, r.recommendation?.recommended ? (p.name === "gamma" ? r.summary?.gamma?.systematicError : p.name === "beta" ? r.summary?.beta?.systematicError : null) : null)),
         plot: { points: r.points, curve: r.curve, residuals: r.fit.residuals ?? null, windowIndices: r.fit.window?.indices ?? null, scan: r.scan ?? null },
       });
     } else if (st.kind === "derive" && r?.quantities)
