@@ -2,6 +2,7 @@
 /** The two charts of a measurement, with a log-axis switch for C vs T and a T range for C/T vs T². */
 import { useCallback, useState } from "react";
 import { heatCapacityPlot, sommerfeldPlot, type MeasurementSeries } from "@/lib/charts";
+import { reduceSeriesForView } from "@/lib/charts/reduce";
 import { PlotView } from "./PlotView";
 
 const RANGES = [
@@ -15,15 +16,20 @@ const RANGES = [
 export function MeasurementCharts({ series, drawn, total }: { series: MeasurementSeries; drawn?: number; total?: number }) {
   const [log, setLog] = useState(false);
   const [maxT, setMaxT] = useState("");
-  const buildC = useCallback((width: number) => heatCapacityPlot(series, { width, log }), [series, log]);
-  const buildS = useCallback((width: number) => sommerfeldPlot(series, { width, ...(maxT ? { maxTK: Number(maxT) } : {}) }), [series, maxT]);
+  // Each chart draws its own pixel columns' extremes of what arrived (one column per CSS pixel of its width).
+  const buildC = useCallback((width: number) => heatCapacityPlot(reduceSeriesForView(series, { x: (t) => t, y: (_, c) => c, bins: width, logX: log }), { width, log }), [series, log]);
+  const buildS = useCallback((width: number) => {
+    const maxTK = maxT ? Number(maxT) : null;
+    const shown = reduceSeriesForView(series, { x: (t) => t * t, y: (t, c) => c / t, bins: width, ...(maxTK !== null ? { keep: (t: number) => t <= maxTK } : {}) });
+    return sommerfeldPlot(shown, { width, ...(maxTK !== null ? { maxTK } : {}) });
+  }, [series, maxT]);
   const reduced = drawn !== undefined && total !== undefined && drawn < total;
   return (
     <>
     {reduced && (
       <p className="small muted" data-testid="chart-reduced">
-        {total.toLocaleString("en-GB").replace(/,/g, " ")} points: the charts draw {drawn.toLocaleString("en-GB").replace(/,/g, " ")} of them, the first, last, highest and lowest in each pixel column,
-        so the curve looks as it would with every point. Fits, exports and the CSV use every point.
+        {total.toLocaleString("en-GB").replace(/,/g, " ")} points: the page receives {drawn.toLocaleString("en-GB").replace(/,/g, " ")} of them, and each chart draws the first, last, highest and lowest
+        in each of its pixel columns, so the curve looks as it would with every point. Fits, exports and the CSV use every point.
       </p>
     )}
     <div className="chart-grid">

@@ -87,3 +87,20 @@ export function reduceMeasurementForScreen<S extends { temperatureK: readonly nu
   const order = [...keep].sort((a, b) => a - b);
   return { series: pickPoints(series, order), drawn: order.length, total: n };
 }
+
+/**
+ * One chart's own reduction of a series (already reduced for all views on the server): the
+ * first, last, highest and lowest point of each of `bins` columns of this view (x against y,
+ * `logX` for a logarithmic x axis), over the points `keep` accepts. Returns the series unchanged
+ * when it has at most 4 × bins such points.
+ */
+export function reduceSeriesForView<S extends { temperatureK: readonly number[]; heatCapacity: readonly number[]; sigma: readonly number[] | null; sourceLines?: readonly number[] }>(
+  series: S, view: { x: (t: number, c: number) => number; y: (t: number, c: number) => number; bins: number; logX?: boolean; keep?: (t: number) => boolean },
+): S {
+  const idx: number[] = [];
+  for (let i = 0; i < series.temperatureK.length; i++) if (!view.keep || view.keep(series.temperatureK[i]!)) idx.push(i);
+  if (idx.length <= 4 * Math.max(1, Math.floor(view.bins))) return series;
+  const xs = idx.map((i) => view.x(series.temperatureK[i]!, series.heatCapacity[i]!));
+  const ys = idx.map((i) => view.y(series.temperatureK[i]!, series.heatCapacity[i]!));
+  return pickPoints(series, reduceForChart(xs, ys, { bins: view.bins, ...(view.logX ? { logX: true } : {}) }).map((j) => idx[j]!));
+}

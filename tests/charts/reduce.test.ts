@@ -92,3 +92,22 @@ describe("overlayPlot", () => {
     expect(() => overlayPlot([mk("a", 1), { ...mk("b", 1), basis: "sample" as const }], { view: "c-vs-t" })).toThrow(/same basis/);
   });
 });
+
+describe("reduceSeriesForView", () => {
+  it("reduceSeriesForView keeps at most 4 points per pixel column of the view, with the view's extremes and ends", async () => {
+    const { reduceSeriesForView } = await import("../../lib/charts/reduce");
+    const n = 100_000;
+    const t = Array.from({ length: n }, (_, i) => 0.5 + (20 * i) / (n - 1));
+    const c = t.map((x, i) => 1e-3 * x + 5e-5 * x ** 3 + (i === 41_234 ? 5 : 0)); // one spike
+    const s = { temperatureK: t, heatCapacity: c, sigma: null };
+    const r = reduceSeriesForView(s, { x: (x) => x, y: (_, y) => y, bins: 600 });
+    expect(r.temperatureK.length).toBeLessThanOrEqual(2400);
+    expect(r.temperatureK[0]).toBe(t[0]);
+    expect(r.temperatureK.at(-1)).toBe(t.at(-1));
+    expect(Math.max(...r.heatCapacity)).toBe(Math.max(...c));
+    const low = reduceSeriesForView(s, { x: (x) => x * x, y: (x, y) => y / x, bins: 300, keep: (x) => x <= 5 });
+    expect(Math.max(...low.temperatureK)).toBeLessThanOrEqual(5);
+    expect(low.temperatureK.length).toBeLessThanOrEqual(1200);
+    expect(reduceSeriesForView({ temperatureK: [1, 2], heatCapacity: [1, 2], sigma: null }, { x: (x) => x, y: (_, y) => y, bins: 10 }).temperatureK).toEqual([1, 2]);
+  });
+});
