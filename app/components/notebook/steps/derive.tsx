@@ -12,8 +12,8 @@ function measuredField(p: FormProps<"derive">,  field: "gammaBandMJ" | "kwA", la
   const v = p.draft[field] as { value: number; stdError: number | null } | null | undefined;
   return (
     <>
-      <NumField label={label} unit={unit} value={v?.value ?? null} onChange={(x) => p.set({ [field]: x === null ? null : { ...(v ?? { stdError: null }), value: x } })} />
-      <NumField label={`σ of ${label.split(" ")[0]}`} unit={unit} value={v?.stdError ?? null} onChange={(x) => p.set({ [field]: v ? { ...v, stdError: x } : null })} />
+      <NumField name={field} label={<Sym m={label} />} unit={unit} value={v?.value ?? null} onChange={(x) => p.set({ [field]: x === null ? null : { ...(v ?? { stdError: null }), value: x } })} />
+      <NumField name={field} label={<>σ of <Sym m={label.split(" ")[0]!} /></>} unit={unit} value={v?.stdError ?? null} onChange={(x) => p.set({ [field]: v ? { ...v, stdError: x } : null })} />
     </>
   );
 }

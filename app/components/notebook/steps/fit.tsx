@@ -29,7 +29,7 @@ function FitForm(p: FormProps<"fit">) {
       {model !== "expression" && <p className="wide small muted nb-formula">{p.ctx.models.find((m) => m.name === model)?.formula}</p>}
       <NumField name="tMinK" label={<>Window from <Sym m="T_min" /></>} unit="K" value={n(p.draft.tMinK)} onChange={(v) => p.set({ tMinK: v })} testId="fit-tmin" hint="or drag across the C/T vs T² chart" />
       <NumField name="tMaxK" label={<>Window to <Sym m="T_max" /></>} unit="K" value={n(p.draft.tMaxK)} onChange={(v) => p.set({ tMaxK: v })} testId="fit-tmax" />
-      <SelectField label="Weights" value={weighting} testId="fit-weighting"
+      <SelectField name="weighting" label="Weights" value={weighting} testId="fit-weighting"
         options={[{ value: "sigma", label: "1/σ² from the data's σ" }, { value: "none", label: "equal (unweighted)" }, { value: "relative", label: "assumed σ = p % of C" }, { value: "absolute", label: "assumed σ, the same for every point" }]}
         onChange={(v) => p.set({ weighting: v })} hint={weighting === "none" ? "no χ²/dof: the residual standard deviation is shown" : undefined} />
       {weighting === "relative" && <NumField name="relativeSigmaPercent" label="σ as a share of C" unit="%" value={n(p.draft.relativeSigmaPercent)} onChange={(v) => p.set({ relativeSigmaPercent: v })} required testId="fit-relative-sigma" />}

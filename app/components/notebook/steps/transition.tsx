@@ -21,8 +21,8 @@ function TransitionForm(p: FormProps<"transition">) {
     <>
       <FitStepSelect label={<>Normal-state <Sym m="γ_n" /> and β from</>} field="normalFitStepId" step={p.step} ctx={p.ctx} value={p.draft.normalFitStepId} onChange={(v) => p.set({ normalFitStepId: v })} />
       <SelectField name="normalState" label="That normal state was measured" value={String(p.draft.normalState ?? "above-tc") as "above-tc" | "field-above-hc2"} options={[{ value: "above-tc", label: "above Tc, in zero field" }, { value: "field-above-hc2", label: "in a field above Hc2" }]} onChange={(v) => p.set({ normalState: v })} />
-      <NumField label="Construction from" unit="K" value={w.tLowK ?? null} onChange={(v) => setW({ tLowK: v })} hint="empty: found from the jump" />
-      <NumField label="Construction to" unit="K" value={w.tHighK ?? null} onChange={(v) => setW({ tHighK: v })} />
+      <NumField name="window" label="Construction from" unit="K" value={w.tLowK ?? null} onChange={(v) => setW({ tLowK: v })} hint="empty: found from the jump" />
+      <NumField name="window" label="Construction to" unit="K" value={w.tHighK ?? null} onChange={(v) => setW({ tHighK: v })} />
     </>
   );
 }
