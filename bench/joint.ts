@@ -7,18 +7,7 @@
  * (γ, β from the data's ends, n = 0.001, g = 1). Whole calls are timed, set-up included.
  */
 import { fitJoint, JOINT_MODELS, levenbergMarquardt, type JointMeasurement } from "../lib/engine/fit";
-
-function normal(seed: number): () => number {
-  let a = seed >>> 0;
-  const u = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(Math.max(u(), 1e-300))) * Math.cos(2 * Math.PI * u());
-}
+import { seeded as normal } from "./recommend";
 
 const TRUTH = { gamma: 4e-3, beta: 2.5e-4, n: 8e-3, g: 2 };
 

@@ -16,7 +16,8 @@ import { recommendationWindows } from "../lib/engine/scan/recommendGrid";
 import { MODELS, schottkyHeatCapacity } from "../lib/engine/models";
 import { GAS_CONSTANT_J_PER_MOL_K as R } from "../lib/engine/constants";
 
-function seeded(seed: number): () => number {
+/** Seeded standard-normal draws (mulberry32 + Box–Muller), shared by the benchmark tables. */
+export function seeded(seed: number): () => number {
   let a = seed >>> 0;
   const u = () => {
     a = (a + 0x6d2b79f5) >>> 0;

@@ -21,6 +21,7 @@
  */
 import { compileExpression, type CompiledExpression } from "../expression/compile";
 import { BOHR_MAGNETON_J_PER_T, BOLTZMANN_J_PER_K } from "../constants";
+import { MODELS } from "../models/registry";
 
 export interface JointParameterSpec {
   readonly name: string;
@@ -202,3 +203,12 @@ export const JOINT_MODELS: Readonly<Record<string, JointModelSpec>> = Object.fre
     ].map((m) => [m.name, m]),
   ),
 );
+
+/**
+ * The spec of parameter `name` of `model`: a joint model's or a single-curve registry model's
+ * (their names do not overlap); undefined for a user expression's parameter.
+ */
+export function parameterSpecOf(model: string, name: string): { readonly symbol: string; readonly label: string } | undefined {
+  const specs = Object.hasOwn(JOINT_MODELS, model) ? JOINT_MODELS[model]!.parameters : Object.hasOwn(MODELS, model) ? MODELS[model as keyof typeof MODELS].parameters : [];
+  return specs.find((q) => q.name === name);
+}

@@ -20,8 +20,7 @@ import { changeText, contextChanges, pinnedContext, type LiveSample } from "./co
 import { resultOf } from "../../engine/notebook/registry";
 import { toTrade } from "../../engine/units/named";
 import type { JointParameter } from "../../engine/fit/joint";
-import { JOINT_MODELS } from "../../engine/fit/jointModels";
-import { MODELS } from "../../engine/models";
+import { parameterSpecOf } from "../../engine/fit/jointModels";
 
 export const SAFETY_SENTENCE = "These results need expert review under local practice before use in any safety-relevant decision.";
 
@@ -118,7 +117,7 @@ function derivedValue(stored: { name: string; symbol: string; value: number; std
 /** A parameter of a joint fit, "γ" or "g (2 T)", in display units, named by its model's spec (a user expression's by its own name). */
 function jointValue(model: string, p: JointParameter, fieldT: number | null): ReportValue {
   const v = parameter({ name: p.name, value: p.value, stdError: p.stdError, unit: p.unit, fixed: p.fixed });
-  const spec = (Object.hasOwn(JOINT_MODELS, model) ? JOINT_MODELS[model]!.parameters : Object.hasOwn(MODELS, model) ? MODELS[model as keyof typeof MODELS].parameters : []).find((q) => q.name === p.name);
+  const spec = parameterSpecOf(model, p.name);
   const named = { ...v, name: p.key, symbol: spec?.symbol ?? p.name, label: spec?.label ?? "parameter of the expression" };
   return fieldT === null ? named : { ...named, symbol: `${named.symbol} (${formatNumber(fieldT, 4)} T)`, label: `${named.label}, measurement ${p.measurement}` };
 }

@@ -5,8 +5,7 @@
  * (lib/engine/notebook/steps/fit.ts and derive.ts).
  */
 import { resultOf } from "../../engine/notebook/registry";
-import { MODELS } from "../../engine/models";
-import { JOINT_MODELS } from "../../engine/fit/jointModels";
+import { parameterSpecOf } from "../../engine/fit/jointModels";
 import { toTrade } from "../../engine/units/named";
 
 export interface ResultValue {
@@ -23,8 +22,7 @@ export interface ResultValue {
 
 /** A parameter's symbol from its model's spec (registry or joint model); a user expression's parameter keeps its own name. */
 function symbolOf(model: string, name: string): string {
-  const spec = (Object.hasOwn(MODELS, model) ? MODELS[model as keyof typeof MODELS].parameters : Object.hasOwn(JOINT_MODELS, model) ? JOINT_MODELS[model]!.parameters : []).find((q) => q.name === name);
-  return spec?.symbol ?? name;
+  return parameterSpecOf(model, name)?.symbol ?? name;
 }
 
 /** Results of one step output (null or failed outputs give none). `k` numbers steps of the kind. */

@@ -8,6 +8,7 @@
  */
 import { z } from "zod";
 import { fitJoint, JOINT_MODELS, type JointMeasurement } from "../../fit";
+import { parameterSpecOf } from "../../fit/jointModels";
 import { MODELS } from "../../models";
 import { InputError } from "../../errors";
 import type { FitSummary, JointFitSummary } from "../types";
@@ -44,8 +45,7 @@ function configField(field: string | undefined): string | undefined {
 
 /** Display symbol of each parameter from its model's spec; a user expression's parameters keep their names. */
 function symbolsOf(model: string, names: readonly string[]): Record<string, string> {
-  const specs = Object.hasOwn(JOINT_MODELS, model) ? JOINT_MODELS[model]!.parameters : Object.hasOwn(MODELS, model) ? MODELS[model as keyof typeof MODELS].parameters : [];
-  return Object.fromEntries(names.map((n) => [n, specs.find((q) => q.name === n)?.symbol ?? n]));
+  return Object.fromEntries(names.map((n) => [n, parameterSpecOf(model, n)?.symbol ?? n]));
 }
 
 export const jointFitStep = defineStep({
